@@ -1,0 +1,136 @@
+package geo
+
+import (
+	"math"
+	"time"
+
+	"github.com/paulmach/orb"
+)
+
+// Site is the surveyor's drawing in local east-north-up metres. U is height above the site's
+// ground datum.
+type Site struct {
+	Proj   *ENU
+	Faces  []Face
+	Blocks []Block
+	Trees  []Tree
+	Avoids []Avoid
+	Panels []Panel
+	// Warnings are problems that do not stop a survey (for the surveyor to read).
+	Warnings []string
+}
+
+// Face is a planar roof face.
+type Face struct {
+	ID    string
+	Index int // feature index in the map file
+
+	// Plan is the outline seen from above, counter-clockwise, closed.
+	Plan orb.Ring
+
+	PitchDeg  float64 // slope from horizontal
+	AspectDeg float64 // direction the slope faces (downhill), clockwise from north
+
+	// EaveHeightM is the height of the face's lowest point(s) above ground.
+	EaveHeightM float64
+	// EaveOffsetM is the coordinate, along the downhill direction, of the eave; the height at
+	// a plan point p is EaveHeightM + (EaveOffsetM − downhill·p)·tan(pitch).
+	EaveOffsetM float64
+}
+
+// Downhill returns the horizontal unit vector the face slopes toward.
+func (f *Face) Downhill() orb.Point {
+	a := f.AspectDeg * math.Pi / 180
+	return orb.Point{math.Sin(a), math.Cos(a)}
+}
+
+// HeightAt returns the height of the face's plane above a plan point.
+func (f *Face) HeightAt(p orb.Point) float64 {
+	d := f.Downhill()
+	along := p[0]*d[0] + p[1]*d[1]
+	return f.EaveHeightM + (f.EaveOffsetM-along)*math.Tan(f.PitchDeg*math.Pi/180)
+}
+
+// Lift returns the 3-D point of the face's plane above a plan point.
+func (f *Face) Lift(p orb.Point) Vec3 { return Vec3{p[0], p[1], f.HeightAt(p)} }
+
+// Normal returns the face's outward (upward) unit normal.
+func (f *Face) Normal() Vec3 {
+	b := f.PitchDeg * math.Pi / 180
+	d := f.Downhill()
+	return Vec3{d[0] * math.Sin(b), d[1] * math.Sin(b), math.Cos(b)}
+}
+
+// SetEave places the eave at the outline's lowest point: EaveOffsetM becomes the largest
+// downhill coordinate of the outline.
+func (f *Face) SetEave() {
+	d := f.Downhill()
+	best := math.Inf(-1)
+	for _, p := range f.Plan {
+		best = math.Max(best, p[0]*d[0]+p[1]*d[1])
+	}
+	f.EaveOffsetM = best
+}
+
+// Block is a vertical prism: a chimney, a dormer, a wall, a neighbouring building.
+type Block struct {
+	ID        string
+	Index     int
+	Footprint orb.Ring // counter-clockwise, closed, local metres
+	BaseM     float64  // bottom above ground
+	HeightM   float64  // top above ground
+}
+
+// CrownShape is the form of a tree's crown.
+type CrownShape int
+
+// Crown shapes. The zero value is a sphere-like ellipsoid filling the crown's height.
+const (
+	CrownEllipsoid CrownShape = iota
+	CrownCone
+)
+
+// Tree is a tree with a trunk point and a crown of revolution between CrownBaseM and HeightM.
+type Tree struct {
+	ID           string
+	Index        int
+	Trunk        orb.Point
+	BaseM        float64 // ground under the trunk
+	HeightM      float64 // top of the crown above ground
+	CrownRadiusM float64
+	CrownBaseM   float64 // bottom of the crown above ground
+	Shape        CrownShape
+
+	// Deciduous reports whether the tree drops its leaves; then LeafOffTransmittance of the
+	// beam passes the crown in LeafOffMonths. An evergreen crown passes nothing.
+	Deciduous            bool
+	LeafOffTransmittance float64
+	LeafOffMonths        []time.Month
+}
+
+// Transmittance returns the fraction of a beam that passes the crown in month m.
+func (t *Tree) Transmittance(m time.Month) float64 {
+	if !t.Deciduous {
+		return 0
+	}
+	for _, o := range t.LeafOffMonths {
+		if o == m {
+			return t.LeafOffTransmittance
+		}
+	}
+	return 0
+}
+
+// Avoid is an area on a roof where no module may go.
+type Avoid struct {
+	ID    string
+	Index int
+	Area  orb.Ring
+}
+
+// Panel is a module drawn by hand.
+type Panel struct {
+	ID      string
+	Index   int
+	Outline orb.Ring
+}
