@@ -78,7 +78,55 @@ type Block struct {
 	Index     int
 	Footprint orb.Ring // counter-clockwise, closed, local metres
 	BaseM     float64  // bottom above ground
-	HeightM   float64  // top above ground
+	HeightM   float64  // top of the walls (the eaves, for a pitched block) above ground
+
+	// RidgeM is the ridge height above ground of a gable-roofed block; 0 means a flat top at
+	// HeightM. The ridge runs through the footprint's centroid in direction RidgeAzimuthDeg
+	// (clockwise from north); the roof falls linearly from the ridge to HeightM at the
+	// footprint vertex farthest from the ridge line.
+	RidgeM          float64
+	RidgeAzimuthDeg float64
+}
+
+// Pitched reports whether the block has a gable roof above its walls.
+func (b *Block) Pitched() bool { return b.RidgeM > b.HeightM }
+
+// TopAt returns the height of the block's top above a plan point inside its footprint.
+func (b *Block) TopAt(p orb.Point) float64 {
+	if !b.Pitched() {
+		return b.HeightM
+	}
+	c, half := b.ridgeLine()
+	a := b.RidgeAzimuthDeg * math.Pi / 180
+	// distance from the ridge line: component across the ridge direction
+	d := math.Abs((p[0]-c[0])*math.Cos(a) - (p[1]-c[1])*math.Sin(a))
+	if half <= 0 {
+		return b.RidgeM
+	}
+	return b.RidgeM - (b.RidgeM-b.HeightM)*math.Min(1, d/half)
+}
+
+// ridgeLine returns a point on the ridge (the footprint's vertex centroid) and the largest
+// distance of a footprint vertex from the ridge line.
+func (b *Block) ridgeLine() (orb.Point, float64) {
+	var c orb.Point
+	n := len(b.Footprint)
+	if n > 1 && b.Footprint[0] == b.Footprint[n-1] {
+		n--
+	}
+	if n == 0 {
+		return c, 0
+	}
+	for _, p := range b.Footprint[:n] {
+		c[0] += p[0] / float64(n)
+		c[1] += p[1] / float64(n)
+	}
+	a := b.RidgeAzimuthDeg * math.Pi / 180
+	half := 0.0
+	for _, p := range b.Footprint[:n] {
+		half = math.Max(half, math.Abs((p[0]-c[0])*math.Cos(a)-(p[1]-c[1])*math.Sin(a)))
+	}
+	return c, half
 }
 
 // CrownShape is the form of a tree's crown.
