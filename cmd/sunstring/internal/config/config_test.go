@@ -1,0 +1,103 @@
+package config
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+)
+
+func write(t *testing.T, body string) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), "site.yaml")
+	if err := os.WriteFile(p, []byte(body), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+const minimal = `
+map: roof.geojson
+timezone: Europe/Vienna
+module: {power_w: 400, voc_v: 37.1, isc_a: 13.7, vmp_v: 31.0, imp_a: 12.9, length_m: 1.72, width_m: 1.13}
+inverter: {ac_power_w: 6000, max_dc_voltage_v: 600, mppt_min_v: 90, mppt_max_v: 560, inputs: 2, max_input_current_a: 16}
+`
+
+func TestLoadExample(t *testing.T) {
+	s, err := Load("../../../../examples/sample-house/site.yaml", nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The example's own numbers: 410 W module, two-input 6 kW inverter, six-point curve.
+	if !scalar.EqualWithinAbs(s.Module.PowerW, 410, 1e-9) || s.Inverter.Inputs != 2 || len(s.Inverter.Curve) != 6 {
+		t.Errorf("module/inverter decoded wrong: %+v %+v", s.Module, s.Inverter)
+	}
+	if !scalar.EqualWithinAbs(s.Inverter.Curve[4][1], 0.972, 1e-12) {
+		t.Errorf("efficiency at half load = %v, want 0.972 (97.2 %% in the file)", s.Inverter.Curve[4][1])
+	}
+	if s.Zone == nil || s.Zone.String() != "Europe/Vienna" {
+		t.Errorf("zone = %v", s.Zone)
+	}
+}
+
+func TestLoadEnvOverrides(t *testing.T) {
+	t.Setenv("SUNSTRING_INVERTER_AC_POWER_W", "5000")
+	s, err := Load(write(t, minimal), nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Inverter.ACPowerW != 5000 {
+		t.Errorf("ac_power_w = %v, want 5000 from the environment", s.Inverter.ACPowerW)
+	}
+	// Defaults fill what the file leaves out (documented in defaults).
+	if s.Losses.SoilingPct != 2 || s.Fill.Orientation != "portrait" {
+		t.Errorf("defaults not applied: %+v %+v", s.Losses, s.Fill)
+	}
+}
+
+func TestLoadBadInput(t *testing.T) {
+	for _, c := range []struct {
+		name string
+		body string
+		want []string
+	}{
+		{"unknown top key", minimal + "colour: red\n", []string{"colour", "unknown key"}},
+		{"unknown nested key", minimal + "fill: {setbak_m: 1}\n", []string{"fill.setbak_m", "unknown key"}},
+		{"not yaml", "map: [unclosed\n", []string{"not valid YAML"}},
+		{"bad zone", strings.Replace(minimal, "Europe/Vienna", "Mars/Olympus", 1), []string{"timezone", "IANA"}},
+		{"vmp above voc", strings.Replace(minimal, "vmp_v: 31.0", "vmp_v: 38", 1), []string{"module.vmp_v", "below voc_v"}},
+		{"twelve months", minimal + "climate: {monthly_ghi_kwh_m2: [1, 2, 3]}\n", []string{"climate.monthly_ghi_kwh_m2", "12"}},
+		{"fractional inputs", strings.Replace(minimal, "inputs: 2", "inputs: 1.5", 1), []string{"inverter.inputs", "whole number"}},
+		{"latitude range", minimal + "latitude: 147\nlongitude: 15\n", []string{"latitude", "-90 to 90"}},
+		{"bad orientation", minimal + "fill: {orientation: sideways}\n", []string{"fill.orientation", "portrait, landscape, best"}},
+		{"efficiency curve", strings.Replace(minimal, "inputs: 2,", "inputs: 2, efficiency_pct: [[0.5, 97], [0.2, 96]],", 1), []string{"inverter.efficiency_pct", "increase"}},
+		{"missing map", strings.Replace(minimal, "map: roof.geojson", "", 1), []string{"map", "missing"}},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			p := write(t, c.body)
+			_, err := Load(p, nil, nil)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			var bi interface{ BadInput() bool }
+			if !asBad(err, &bi) {
+				t.Errorf("error %T is not marked as bad input", err)
+			}
+			for _, w := range append(c.want, p) {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("message %q lacks %q", err, w)
+				}
+			}
+		})
+	}
+}
+
+func asBad(err error, bi *interface{ BadInput() bool }) bool {
+	b, ok := err.(interface{ BadInput() bool })
+	if ok {
+		*bi = b
+	}
+	return ok && b.BadInput()
+}
