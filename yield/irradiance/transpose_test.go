@@ -334,3 +334,24 @@ func TestSkyModelNames(t *testing.T) {
 		t.Errorf("zero SkyModel is %v, want perez", zero)
 	}
 }
+
+// TestPerezNegativeSkyClamp exercises the documented guard. The inputs are deliberately
+// beyond physical skies (DHI 1371, DNI 3907 at Z 60° give ε ≈ 2.3, bin 5, and Δ ≈ 2), so
+// that F2 = 0.2256 − 0.4620·2 + 0.0012·1.047 ≈ −0.70 [calc, bin 5 of the table] and F1 = 0:
+// on a vertical plane the raw sky diffuse DHI·(0.5 − 0.70) would be negative. The guard
+// raises Horizon until the sky diffuse is zero.
+func TestPerezNegativeSkyClamp(t *testing.T) {
+	s := Sky{DHI: 1371, DNI: 3907, GHI: 1371 + 3907*0.5, ZenithDeg: 60, DNIExtra: 1367}
+	c := Transpose(Perez, s, 120, 90)
+	if !scalar.EqualWithinAbs(c.SkyDiffuse(), 0, 1e-9) {
+		t.Errorf("sky diffuse %g, want 0 (guard)", c.SkyDiffuse())
+	}
+	if !(c.Horizon < 0) || !scalar.EqualWithinAbs(c.Horizon, -(c.Isotropic+c.Circumsolar), 1e-9) {
+		t.Errorf("horizon %g should be the negative of isotropic + circumsolar %g", c.Horizon, c.Isotropic+c.Circumsolar)
+	}
+	// Without the guard the horizon term would be DHI·F2·sin 90° ≈ −960 [calc]; the
+	// isotropic part DHI·(1 − F1)/2 = 685.5 stays as the model gives it.
+	if !scalar.EqualWithinAbs(c.Isotropic, 1371*0.5, 1e-9) {
+		t.Errorf("isotropic %g, want %g (F1 = 0 in bin 5 at Δ ≈ 2)", c.Isotropic, 1371*0.5)
+	}
+}
