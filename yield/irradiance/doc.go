@@ -40,6 +40,10 @@
 //     the NOCT linear rise (Ross, R. G. (1980), "Flat-plate photovoltaic array design
 //     optimization", 14th IEEE PVSC, 1126–1132), which ignores wind.
 //
+// Bibliographic details (titles, pages) are from memory, except the journal references of
+// Perez et al. (1990), Erbs et al. (1982), Kasten & Young (1989) and Kopp & Lean (2011),
+// which were checked against the project's reference sheet.
+//
 // Conventions: irradiance in W/m², angles in degrees (zenith from vertical, incidence from
 // the plane's normal, tilt from horizontal), temperatures in °C, wind in m/s at the
 // height the weather file reports. Out-of-range inputs are clamped as each function
