@@ -56,7 +56,8 @@ func TestReadCSVSamples(t *testing.T) {
 			}
 			if c.split {
 				cos := sunCosAt(t, s, c.i)
-				if !scalar.EqualWithinAbs(r.DNI*cos+r.DHI, r.GHI, 1e-6) || r.DNI <= 0 || r.DHI <= 0 {
+				// 1e-3 W/m²: sun.AtEach agrees with sun.At to 1e-4° (its doc), which moves cos Z by ~2e-6.
+				if !scalar.EqualWithinAbs(r.DNI*cos+r.DHI, r.GHI, 1e-3) || r.DNI <= 0 || r.DHI <= 0 {
 					t.Errorf("split DNI %g, DHI %g (cos Z %g) does not close on GHI %g", r.DNI, r.DHI, cos, r.GHI)
 				}
 			}
@@ -141,7 +142,8 @@ func TestReadCSVAtSplitsAtSite(t *testing.T) {
 	}
 	r := s.Records[0]
 	cos := sunOver([]time.Time{r.End}, time.Hour, sun.Observer{LatDeg: 47, LonDeg: 15})[0].cosZ
-	if !scalar.EqualWithinAbs(r.DNI*cos+r.DHI, 700, 1e-6) || s.HasLocation {
+	// 1e-3 W/m²: sun.AtEach agrees with sun.At to 1e-4°.
+	if !scalar.EqualWithinAbs(r.DNI*cos+r.DHI, 700, 1e-3) || s.HasLocation {
 		t.Errorf("DNI %g, DHI %g, cos %g, has location %v: want closure on 700 W/m² and no file location", r.DNI, r.DHI, cos, s.HasLocation)
 	}
 }
