@@ -1,0 +1,241 @@
+package shading
+
+import (
+	"context"
+	"math"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"sunstring/geo"
+)
+
+// Step is one time step with the sun up.
+type Step struct {
+	Sun   [3]float64 // unit vector toward the sun: east, north, up
+	Month time.Month // selects a deciduous tree's transmittance
+}
+
+// Per module and step, idx holds an offset into data or one of these markers. Most
+// module-steps are fully lit or fully dark, and they cost four bytes instead of a cell row.
+const (
+	stepLit  int32 = -1
+	stepDark int32 = -2
+)
+
+// Result holds the beam transmittance of every cell of every module at every step: 255 fully
+// lit, 0 fully shaded. It is read-only and safe for concurrent use.
+type Result struct {
+	cells int
+	steps int
+	mods  []modResult
+	zeros []uint8
+}
+
+type modResult struct {
+	idx  []int32
+	data []uint8
+}
+
+// Steps returns the number of time steps.
+func (r *Result) Steps() int { return r.steps }
+
+// Cells returns the number of cells per module.
+func (r *Result) Cells() int { return r.cells }
+
+// Lit returns the per-cell beam transmittance (0..255, cell-index order of geo.CellGrid) of a
+// module at a step, or nil when every cell is fully lit. The slice is shared: do not modify it.
+func (r *Result) Lit(module, step int) []uint8 {
+	switch o := r.mods[module].idx[step]; o {
+	case stepLit:
+		return nil
+	case stepDark:
+		return r.zeros
+	default:
+		return r.mods[module].data[o : int(o)+r.cells : int(o)+r.cells]
+	}
+}
+
+// LitFraction returns the mean beam transmittance over the module's cells, 0..1.
+func (r *Result) LitFraction(module, step int) float64 {
+	switch o := r.mods[module].idx[step]; o {
+	case stepLit:
+		return 1
+	case stepDark:
+		return 0
+	default:
+		s := 0
+		for _, v := range r.mods[module].data[o : int(o)+r.cells] {
+			s += int(v)
+		}
+		return float64(s) / float64(255*r.cells)
+	}
+}
+
+// stepInfo is what every module shares about a step.
+type stepInfo struct {
+	d     geo.Vec3
+	month time.Month
+	dark  bool // sun at or below the horizontal or below the far horizon
+}
+
+// Compute shades every cell of every module at every step. Modules are spread over the
+// workers; the result does not depend on their number. progress, if not nil, is called (from
+// one goroutine at a time) after each module with the number done. Compute stops early with
+// ctx's error when ctx is cancelled.
+func (sc *Scene) Compute(ctx context.Context, steps []Step, progress func(done, total int)) (*Result, error) {
+	info := make([]stepInfo, len(steps))
+	for s, st := range steps {
+		d := geo.Vec3{E: st.Sun[0], N: st.Sun[1], U: st.Sun[2]}.Unit()
+		info[s] = stepInfo{d: d, month: st.Month}
+		if !(d.U > 0) {
+			info[s].dark = true
+			continue
+		}
+		if sc.horizon != nil {
+			el := math.Asin(math.Min(1, d.U)) * 180 / math.Pi
+			az := math.Atan2(d.E, d.N) * 180 / math.Pi
+			if el < sc.horizon.ElevationDeg(az) {
+				info[s].dark = true
+			}
+		}
+	}
+	res := &Result{cells: sc.grid.Len(), steps: len(steps), mods: make([]modResult, len(sc.mods)),
+		zeros: make([]uint8, sc.grid.Len())}
+
+	var next, done atomic.Int64
+	var mu sync.Mutex
+	var wg sync.WaitGroup
+	workers := min(sc.workers, max(1, len(sc.mods)))
+	for range workers {
+		wg.Go(func() {
+			w := newWork(res.cells)
+			for {
+				if ctx.Err() != nil {
+					return
+				}
+				i := int(next.Add(1) - 1)
+				if i >= len(sc.mods) {
+					return
+				}
+				if sc.brute {
+					res.mods[i] = sc.bruteModule(i, info, w)
+				} else {
+					res.mods[i] = sc.fastModule(i, info, w)
+				}
+				n := int(done.Add(1))
+				if progress != nil {
+					mu.Lock()
+					progress(n, len(sc.mods))
+					mu.Unlock()
+				}
+			}
+		})
+	}
+	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	return res, nil
+}
+
+// work is a worker's scratch space.
+type work struct {
+	cand []int32
+	row  []uint8
+}
+
+func newWork(cells int) *work { return &work{row: make([]uint8, cells)} }
+
+// quantize maps a transmittance to 0..255.
+func quantize(t float64) uint8 { return uint8(math.Round(math.Max(0, math.Min(1, t)) * 255)) }
+
+// store appends a cell row to mr unless it is uniform.
+func store(mr *modResult, s int, row []uint8) {
+	all, none := true, true
+	for _, v := range row {
+		all = all && v == 255
+		none = none && v == 0
+	}
+	switch {
+	case all:
+		mr.idx[s] = stepLit
+	case none:
+		mr.idx[s] = stepDark
+	default:
+		mr.idx[s] = int32(len(mr.data))
+		mr.data = append(mr.data, row...)
+	}
+}
+
+func (sc *Scene) fastModule(i int, info []stepInfo, w *work) modResult {
+	p := &sc.preps[i]
+	mr := modResult{idx: make([]int32, len(info))}
+	for s := range info {
+		st := &info[s]
+		d := st.d
+		if st.dark || d.Dot(p.normal) <= 0 {
+			mr.idx[s] = stepDark
+			continue
+		}
+		w.cand = w.cand[:0]
+		for j, c := range p.cones {
+			if !c.contains(d) {
+				continue
+			}
+			if p.front[j] && d.Dot(sc.objs[p.objs[j]].n) >= 0 {
+				// The module lies in front of this face and the ray moves away from it.
+				continue
+			}
+			w.cand = append(w.cand, int32(j))
+		}
+		if len(w.cand) == 0 {
+			mr.idx[s] = stepLit
+			continue
+		}
+		for k, q := range p.cells {
+			t := 1.0
+			for _, j := range w.cand {
+				if !p.cellCon[j][k].contains(d) {
+					continue
+				}
+				o := &sc.objs[p.objs[j]]
+				if o.hit(q, d) {
+					t *= o.transmittance(st.month)
+					if t == 0 {
+						break
+					}
+				}
+			}
+			w.row[k] = quantize(t)
+		}
+		store(&mr, s, w.row)
+	}
+	return mr
+}
+
+// bruteModule is the reference: one exact ray per cell per step against every object.
+func (sc *Scene) bruteModule(i int, info []stepInfo, w *work) modResult {
+	p := &sc.preps[i]
+	mr := modResult{idx: make([]int32, len(info))}
+	for s := range info {
+		st := &info[s]
+		d := st.d
+		if st.dark || d.Dot(p.normal) <= 0 {
+			mr.idx[s] = stepDark
+			continue
+		}
+		for k, q := range p.cells {
+			t := 1.0
+			for j := range sc.objs {
+				o := &sc.objs[j]
+				if o.hit(q, d) {
+					t *= o.transmittance(st.month)
+				}
+			}
+			w.row[k] = quantize(t)
+		}
+		store(&mr, s, w.row)
+	}
+	return mr
+}
