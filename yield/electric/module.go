@@ -1,0 +1,288 @@
+package electric
+
+import (
+	"fmt"
+	"math"
+)
+
+// curvePoints is the number of points of a module curve: two of reverse
+// current, one at zero and the rest up to just above the brightest
+// substring's short-circuit current. 64 points keep the maximum power of a
+// module within 0.1 % of the exact model (see TestModuleCurveAccuracy).
+const curvePoints = 64
+
+// BypassDropV is the forward voltage of a bypass diode when it conducts
+// (V): a Schottky diode at several amperes; common practice 0.4–0.6 V.
+const BypassDropV = 0.5
+
+// Module is a fitted module with its cell layout: 6 columns across the
+// width and rows along the length; cell index = row*cols + col. Substring k
+// is columns [k*cols/B, (k+1)*cols/B) along the whole length; in a half-cut
+// module rows [0, rows/2) and [rows/2, rows) are the two parallel halves of
+// each substring. Build it with NewModule; a Module is read-only and safe
+// for concurrent use.
+type Module struct {
+	ds         Datasheet
+	params     Params
+	cell       Params  // one cell (or half-cell) at STC
+	alphaCell  float64 // A/K for one cell
+	cols, rows int
+	nSub       int
+	half       bool
+	bypassV    float64
+	sub        []int8 // cell → substring
+	halfOf     []int8 // cell → half (0 or 1)
+}
+
+// NewModule validates the datasheet, fits the single-diode parameters and
+// derives the per-cell parameters: for Ns cell positions in series, one cell
+// has A/Ns, Rs/Ns and Rsh/Ns; a half-cell of a half-cut module carries half
+// the current (IL/2, I0/2, αIsc/2) with twice the resistances (2Rs/Ns,
+// 2Rsh/Ns), because two halves in parallel make the module.
+func NewModule(ds Datasheet) (*Module, error) {
+	p, err := Fit(ds)
+	if err != nil {
+		return nil, err
+	}
+	ns := float64(ds.seriesCells())
+	alpha := ds.TempCoeffIscPct / 100 * ds.IscA
+	cell := Params{IL: p.IL, I0: p.I0, Rs: p.Rs / ns, Rsh: p.Rsh / ns, A: p.A / ns}
+	if ds.HalfCut {
+		cell = Params{IL: p.IL / 2, I0: p.I0 / 2, Rs: 2 * p.Rs / ns, Rsh: 2 * p.Rsh / ns, A: p.A / ns}
+		alpha /= 2
+	}
+	m := newModuleCells(6, ds.CellsSeries/6, ds.BypassDiodes, ds.HalfCut, cell, alpha)
+	m.ds, m.params = ds, p
+	return m, nil
+}
+
+// newModuleCells builds a module straight from cell parameters (tests use it
+// for cases stated at cell level).
+func newModuleCells(cols, rows, nSub int, half bool, cell Params, alphaCell float64) *Module {
+	m := &Module{cell: cell, alphaCell: alphaCell, cols: cols, rows: rows, nSub: nSub, half: half, bypassV: BypassDropV}
+	m.sub = make([]int8, cols*rows)
+	m.halfOf = make([]int8, cols*rows)
+	for r := range rows {
+		for c := range cols {
+			k := r*cols + c
+			m.sub[k] = int8(c * nSub / cols)
+			if half && r >= rows/2 {
+				m.halfOf[k] = 1
+			}
+		}
+	}
+	return m
+}
+
+// Grid returns the cell layout: 6 columns, and rows along the length (10 for
+// 60 cells, 12 for 72, 20 for 120 half-cells, 24 for 144).
+func (m *Module) Grid() (cols, rows int) { return m.cols, m.rows }
+
+// Datasheet returns the datasheet the module was built from.
+func (m *Module) Datasheet() Datasheet { return m.ds }
+
+// Params returns the fitted module-level parameters at STC.
+func (m *Module) Params() Params { return m.params }
+
+// Cells returns the number of cells (or half-cells).
+func (m *Module) Cells() int { return m.cols * m.rows }
+
+// parallelHalves is 2 for a half-cut module, else 1.
+func (m *Module) parallelHalves() float64 {
+	if m.half {
+		return 2
+	}
+	return 1
+}
+
+// topCurrent returns the module current at which every substring is surely
+// bypassed: a little above the brightest cell's light current.
+func (m *Module) topCurrent(cellIrr []float64, tempC float64) float64 {
+	smax := 0.0
+	for _, s := range cellIrr {
+		if s > smax {
+			smax = s
+		}
+	}
+	il := translate(m.cell, m.alphaCell, smax, tempC).IL * m.parallelHalves()
+	// Keep a small grid even for a dark module so the curve stays valid.
+	return math.Max(1.04*il, 1e-3*m.cell.IL)
+}
+
+// Curve returns the module's I-V curve for per-cell effective irradiance
+// cellIrr (W/m², len Cells(), index row*cols+col) and cell temperature tempC
+// (°C). A wrong length or non-finite value yields the empty curve, which
+// delivers no power; CheckCells says what is wrong.
+func (m *Module) Curve(cellIrr []float64, tempC float64) Curve {
+	if m.CheckCells(cellIrr, tempC) != nil {
+		return Curve{}
+	}
+	top := m.topCurrent(cellIrr, tempC)
+	i0, h := gridFor(top)
+	var sc curveScratch
+	v := make([]float64, curvePoints)
+	m.curveOnGrid(cellIrr, tempC, i0, h, v, &sc)
+	c := Curve{i: make([]float32, curvePoints), v: make([]float32, curvePoints)}
+	for k := range v {
+		c.i[k] = float32(i0 + float64(k)*h)
+		c.v[k] = float32(v[k])
+	}
+	return c
+}
+
+// CheckCells reports whether cellIrr and tempC are usable by Curve.
+func (m *Module) CheckCells(cellIrr []float64, tempC float64) error {
+	if len(cellIrr) != m.Cells() {
+		return badf("cell_irradiance", "%d values, want %d (cols×rows)", len(cellIrr), m.Cells())
+	}
+	for k, s := range cellIrr {
+		if math.IsNaN(s) || math.IsInf(s, 0) || s < 0 || s > 2000 {
+			return badf(fmt.Sprintf("cell_irradiance[%d]", k), "%g W/m² must lie in 0..2000", s)
+		}
+	}
+	if math.IsNaN(tempC) || tempC < -60 || tempC > 120 {
+		return badf("cell_temp_c", "%g must lie in -60..120 °C", tempC)
+	}
+	return nil
+}
+
+// gridFor returns the current grid (first point, step) of a curve reaching
+// top: two points of reverse current, then zero, then up to top.
+func gridFor(top float64) (i0, h float64) {
+	h = top / (curvePoints - 3)
+	return -2 * h, h
+}
+
+// curveScratch is reusable working space for curveOnGrid.
+type curveScratch struct {
+	vals  []float64   // distinct irradiance values
+	idx   []int       // cell → index into vals
+	vcell [][]float64 // distinct value → cell voltage on the (half-)grid
+	ext   []bool      // whether vcell[u] covers the doubled half-cut grid
+	cnt   []int       // [sub][half][u] cell counts
+	vh    [2][]float64
+	jgrid []float64
+	m     merger
+	his   [2][]float64
+}
+
+// curveOnGrid writes the module voltage at currents i0 + k·h into v. Cells
+// with equal irradiance share one computed cell curve, so a module costs one
+// Lambert-W evaluation per distinct irradiance and grid point.
+func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float64, sc *curveScratch) {
+	n := len(v)
+	sc.vals = sc.vals[:0]
+	sc.idx = sc.idx[:0]
+	for _, s := range cellIrr {
+		u := -1
+		for j, x := range sc.vals {
+			if x == s {
+				u = j
+				break
+			}
+		}
+		if u < 0 {
+			u = len(sc.vals)
+			sc.vals = append(sc.vals, s)
+		}
+		sc.idx = append(sc.idx, u)
+	}
+	nu := len(sc.vals)
+	for len(sc.vcell) < nu {
+		sc.vcell = append(sc.vcell, nil)
+	}
+	sc.ext = append(sc.ext[:0], make([]bool, nu)...)
+	nh := 1
+	if m.half {
+		nh = 2
+	}
+	sc.cnt = append(sc.cnt[:0], make([]int, m.nSub*nh*nu)...)
+	for c, u := range sc.idx {
+		sc.cnt[(int(m.sub[c])*nh+int(m.halfOf[c]))*nu+u]++
+	}
+	// Cell current on the grid: the module current for full cells; for
+	// half-cells the grid is i0/2 + j·h/2, so j = k is half the module current.
+	ci0, ch := i0, h
+	if m.half {
+		ci0, ch = i0/2, h/2
+	}
+	params := make([]Params, 0, 8)
+	for u := range nu {
+		p := translate(m.cell, m.alphaCell, sc.vals[u], tempC)
+		params = append(params, p)
+		sc.vcell[u] = grow(sc.vcell[u], 2*n)
+		for k := range n {
+			sc.vcell[u][k] = p.VoltageAt(ci0 + float64(k)*ch)
+		}
+	}
+	clear(v)
+	for s := range m.nSub {
+		c0 := sc.cnt[s*nh*nu : (s*nh+1)*nu]
+		if !m.half || equalInts(c0, sc.cnt[(s*nh+1)*nu:(s*nh+2)*nu]) {
+			// Full cells, or two equal halves sharing the current evenly.
+			for k := range n {
+				var sum float64
+				for u, c := range c0 {
+					if c != 0 {
+						sum += float64(c) * sc.vcell[u][k]
+					}
+				}
+				v[k] += math.Max(sum, -m.bypassV)
+			}
+			continue
+		}
+		// Unequal halves: each half may carry up to the whole module
+		// current, so extend the cell curves to 2n half-grid points, then
+		// put the two halves in parallel and read the voltage back at the
+		// module grid currents.
+		sc.jgrid = grow(sc.jgrid, 2*n)
+		for j := range 2 * n {
+			sc.jgrid[j] = ci0 + float64(j)*ch
+		}
+		for u := range nu {
+			if !sc.ext[u] {
+				for j := n; j < 2*n; j++ {
+					sc.vcell[u][j] = params[u].VoltageAt(sc.jgrid[j])
+				}
+				sc.ext[u] = true
+			}
+		}
+		for hh := range 2 {
+			cc := sc.cnt[(s*nh+hh)*nu : (s*nh+hh+1)*nu]
+			sc.vh[hh] = grow(sc.vh[hh], 2*n)
+			for j := range 2 * n {
+				var sum float64
+				for u, c := range cc {
+					if c != 0 {
+						sum += float64(c) * sc.vcell[u][j]
+					}
+				}
+				sc.vh[hh][j] = sum
+			}
+			sc.his[hh] = sc.jgrid
+		}
+		oi, ov := sc.m.parallel(sc.his[:], sc.vh[:])
+		hint := 0
+		for k := range n {
+			var vk float64
+			vk, hint = voltageOn(oi, ov, i0+float64(k)*h, hint)
+			v[k] += math.Max(vk, -m.bypassV)
+		}
+	}
+}
+
+func grow(s []float64, n int) []float64 {
+	if cap(s) < n {
+		return make([]float64, n)
+	}
+	return s[:n]
+}
+
+func equalInts(a, b []int) bool {
+	for k := range a {
+		if a[k] != b[k] {
+			return false
+		}
+	}
+	return true
+}

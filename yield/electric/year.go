@@ -1,0 +1,485 @@
+package electric
+
+import (
+	"fmt"
+	"math"
+	"slices"
+)
+
+// Layout wires modules to an inverter: input → strings → module indices
+// (0-based, as the Year numbers them). Strings on one input are in
+// parallel; modules in a string are in series.
+type Layout struct{ Inputs [][][]int }
+
+// StepInput is what the caller supplies for one time step. NewYear hands
+// the same value to every call with CellIrr[m] already sized to the module's
+// cell count and everything zeroed, so a caller fills it in place.
+type StepInput struct {
+	CellIrr     [][]float64 // per module: effective irradiance per cell (W/m²)
+	TempC       []float64   // per module: cell temperature (°C)
+	UnshadedIrr []float64   // per module: effective irradiance were no cell shaded (W/m²)
+	Hours       float64     // length of the step (h); zero means 1 h
+}
+
+// Tracker chooses how an input's operating point is found.
+type Tracker int
+
+const (
+	// GlobalMPP finds the global maximum of the input's P-V curve inside the
+	// MPPT window (an ideal scanning tracker). It is the zero value.
+	GlobalMPP Tracker = iota
+	// LocalClimb climbs from the previous step's voltage to the nearest
+	// local maximum and may stay there (a plain hill-climbing tracker). It
+	// restarts from 80 % of the input's open-circuit voltage after a step
+	// without power.
+	LocalClimb
+)
+
+// EvalOptions selects the tracker and module-level electronics. The zero
+// value is a global tracker on string inverters.
+type EvalOptions struct {
+	Tracker Tracker
+	// ModuleLevel reports whether each module has its own converter that
+	// holds it at its own maximum; the inverter's window and current limit
+	// are then left to the converters and only its AC stage applies.
+	ModuleLevel bool
+	// ModuleLevelEff is the converters' efficiency (0..1]; zero means 0.985
+	// (common practice for module-level DC converters).
+	ModuleLevelEff float64
+	// NightHours is the time without sun-up steps (h) over which the
+	// inverter's night consumption is counted; zero means 8760 h minus the
+	// steps' hours, negative means none.
+	NightHours float64
+}
+
+// YearResult sums a layout's energy over all steps. DC energies are at the
+// inverter input; ACWh is gross of the night consumption NightWh.
+type YearResult struct {
+	DCWh, ACWh, ClippedWh float64
+	// GlobalDCWh is the DC energy at each input's unconstrained global
+	// maximum; WindowLossWh the part lost because that maximum lies outside
+	// the MPPT window, CurrentLimitLossWh the part lost to the input current
+	// limit, TrackerLossWh the part lost by a LocalClimb tracker stuck on a
+	// local maximum. GlobalDCWh − the three = DCWh for string inverters.
+	GlobalDCWh, WindowLossWh, CurrentLimitLossWh, TrackerLossWh float64
+	NightWh float64
+	// UnshadedDCWh is the same modules' DC energy with no cell shaded, each
+	// at its own maximum; UnshadedACWh that energy through the same
+	// inverter (AC stage only). They are the reference for shade loss.
+	UnshadedDCWh, UnshadedACWh float64
+	StepACWh                   []float64 // per step
+}
+
+// Year holds, for every time step, the I-V curve of every module, computed
+// once and shared between modules with identical irradiance and temperature.
+// Evaluating a layout only adds curves, so a layout search can call Evaluate
+// many times. A Year is read-only after NewYear and safe for concurrent use.
+type Year struct {
+	m          *Module
+	n, steps   int
+	gridI0     []float64 // per step: current of point 0 (A)
+	gridH      []float64 // per step: current step (A)
+	curveV     []float32 // curves × curvePoints voltages (V)
+	curveMPP   []float32 // per curve: module maximum power (W)
+	modCurve   []int32   // steps × n: curve index
+	unshadedW  []float32 // steps × n: unshaded module maximum power (W)
+	hours      []float32 // per step (h)
+	moduleDCWh []float64 // per module over the year
+	moduleUnWh []float64
+}
+
+// NewYear calls step for s = 0..steps−1 and computes each module's curve at
+// every step. Irradiance must lie in 0..2000 W/m² and temperatures in
+// −60..120 °C; a bad value is reported with its step and module.
+func NewYear(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (*Year, error) {
+	if m == nil || nModules < 0 || steps < 0 || step == nil {
+		return nil, fmt.Errorf("electric: NewYear needs a module, a step function and non-negative counts")
+	}
+	nc := m.Cells()
+	y := &Year{
+		m: m, n: nModules, steps: steps,
+		gridI0: make([]float64, steps), gridH: make([]float64, steps),
+		modCurve: make([]int32, steps*nModules), unshadedW: make([]float32, steps*nModules),
+		hours:      make([]float32, steps),
+		moduleDCWh: make([]float64, nModules), moduleUnWh: make([]float64, nModules),
+	}
+	in := StepInput{CellIrr: make([][]float64, nModules), TempC: make([]float64, nModules), UnshadedIrr: make([]float64, nModules)}
+	for k := range in.CellIrr {
+		in.CellIrr[k] = make([]float64, nc)
+	}
+	var (
+		sc      curveScratch
+		v       = make([]float64, curvePoints)
+		gi      = make([]float64, curvePoints)
+		seen    = map[uint64]int32{}
+		repr    []int // local curve → module that defined it
+		uniform = make([]float64, nc)
+		unKeys  []float64
+		unVals  []float32
+	)
+	for s := range steps {
+		for k := range in.CellIrr {
+			clear(in.CellIrr[k])
+		}
+		clear(in.TempC)
+		clear(in.UnshadedIrr)
+		in.Hours = 0
+		step(s, &in)
+		if len(in.CellIrr) != nModules || len(in.TempC) != nModules || len(in.UnshadedIrr) != nModules {
+			return nil, badf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", nModules)
+		}
+		h := in.Hours
+		if h == 0 {
+			h = 1
+		}
+		if !(h > 0) || h > 24*31 {
+			return nil, badf(fmt.Sprintf("step %d: hours", s), "%g must lie in (0, 744]", in.Hours)
+		}
+		y.hours[s] = float32(h)
+		top := 0.0
+		for k := range nModules {
+			if err := m.CheckCells(in.CellIrr[k], in.TempC[k]); err != nil {
+				return nil, fmt.Errorf("step %d, module %d: %w", s, k, err)
+			}
+			if u := in.UnshadedIrr[k]; math.IsNaN(u) || u < 0 || u > 2000 {
+				return nil, badf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..2000", u)
+			}
+			top = math.Max(top, m.topCurrent(in.CellIrr[k], in.TempC[k]))
+		}
+		i0, hI := gridFor(top)
+		y.gridI0[s], y.gridH[s] = i0, hI
+		for k := range gi {
+			gi[k] = i0 + float64(k)*hI
+		}
+		clear(seen)
+		repr = repr[:0]
+		base := int32(len(y.curveMPP))
+		for k := range nModules {
+			key := hashCells(in.CellIrr[k], in.TempC[k])
+			c, ok := seen[key]
+			if ok {
+				r := repr[c-base]
+				if in.TempC[r] != in.TempC[k] || !slices.Equal(in.CellIrr[r], in.CellIrr[k]) {
+					ok = false // hash collision: give this module its own curve
+				}
+			}
+			if !ok {
+				c = int32(len(y.curveMPP))
+				seen[key] = c
+				repr = append(repr, k)
+				m.curveOnGrid(in.CellIrr[k], in.TempC[k], i0, hI, v, &sc)
+				for _, x := range v {
+					y.curveV = append(y.curveV, float32(x))
+				}
+				p, _, _ := polyMax(gi, v, 0, math.Inf(1), math.Inf(1))
+				y.curveMPP = append(y.curveMPP, float32(p))
+			}
+			y.modCurve[s*nModules+k] = c
+			y.moduleDCWh[k] += float64(y.curveMPP[c]) * h
+		}
+		// Unshaded maxima, shared between modules with the same irradiance
+		// and temperature.
+		unKeys, unVals = unKeys[:0], unVals[:0]
+		for k := range nModules {
+			u, t := in.UnshadedIrr[k], in.TempC[k]
+			found := -1
+			for j := 0; j < len(unKeys); j += 2 {
+				if unKeys[j] == u && unKeys[j+1] == t {
+					found = j / 2
+					break
+				}
+			}
+			if found < 0 {
+				for c := range uniform {
+					uniform[c] = u
+				}
+				ui0, uh := gridFor(m.topCurrent(uniform, t))
+				m.curveOnGrid(uniform, t, ui0, uh, v, &sc)
+				for c := range gi {
+					gi[c] = ui0 + float64(c)*uh
+				}
+				p, _, _ := polyMax(gi, v, 0, math.Inf(1), math.Inf(1))
+				unKeys = append(unKeys, u, t)
+				unVals = append(unVals, float32(p))
+				found = len(unVals) - 1
+			}
+			y.unshadedW[s*nModules+k] = unVals[found]
+			y.moduleUnWh[k] += float64(unVals[found]) * h
+		}
+	}
+	return y, nil
+}
+
+// hashCells is FNV-1a over the bits of the irradiances and temperature.
+func hashCells(irr []float64, t float64) uint64 {
+	h := uint64(14695981039346656037)
+	mix := func(x float64) {
+		b := math.Float64bits(x)
+		for range 8 {
+			h ^= b & 0xff
+			h *= 1099511628211
+			b >>= 8
+		}
+	}
+	for _, x := range irr {
+		mix(x)
+	}
+	mix(t)
+	return h
+}
+
+// Modules returns the number of modules.
+func (y *Year) Modules() int { return y.n }
+
+// Steps returns the number of time steps.
+func (y *Year) Steps() int { return y.steps }
+
+// Curves returns the number of distinct module curves stored.
+func (y *Year) Curves() int { return len(y.curveMPP) }
+
+// ModuleDCWh returns each module's DC energy at its own maximum (Wh), as
+// module-level electronics would harvest it before conversion losses.
+func (y *Year) ModuleDCWh() []float64 { return slices.Clone(y.moduleDCWh) }
+
+// ModuleUnshadedDCWh returns each module's DC energy had no cell been
+// shaded (Wh).
+func (y *Year) ModuleUnshadedDCWh() []float64 { return slices.Clone(y.moduleUnWh) }
+
+// CheckLayout reports whether the layout fits the year and the inverter:
+// module indices in range and used once, no empty string, at most
+// inv.Inputs inputs.
+func (y *Year) CheckLayout(l Layout, inv Inverter) error {
+	if len(l.Inputs) > inv.Inputs {
+		return badf("layout.inputs", "%d inputs, the inverter has %d", len(l.Inputs), inv.Inputs)
+	}
+	used := make([]bool, y.n)
+	for a, in := range l.Inputs {
+		for b, str := range in {
+			if len(str) == 0 {
+				return badf(fmt.Sprintf("layout.inputs[%d][%d]", a, b), "empty string")
+			}
+			for _, k := range str {
+				if k < 0 || k >= y.n {
+					return badf(fmt.Sprintf("layout.inputs[%d][%d]", a, b), "module %d out of range 0..%d", k, y.n-1)
+				}
+				if used[k] {
+					return badf(fmt.Sprintf("layout.inputs[%d][%d]", a, b), "module %d used twice", k)
+				}
+				used[k] = true
+			}
+		}
+	}
+	return nil
+}
+
+// evalScratch is per-call working space.
+type evalScratch struct {
+	pairs [][]curveCount // per string of an input
+	sums  [][]float64    // per string: voltage sums on the step grid
+	is    [][]float64
+	gi    []float64
+	gs    []float64 // grid scaled for identical parallel strings
+	m     merger
+}
+
+type curveCount struct{ c, n int32 }
+
+// Evaluate returns the year's energy for a layout on an inverter. The
+// inverter and the layout are checked first (CheckLayout).
+func (y *Year) Evaluate(l Layout, inv Inverter, opt EvalOptions) (YearResult, error) {
+	if err := inv.Validate(); err != nil {
+		return YearResult{}, err
+	}
+	if err := y.CheckLayout(l, inv); err != nil {
+		return YearResult{}, err
+	}
+	eff := opt.ModuleLevelEff
+	if eff == 0 {
+		eff = 0.985
+	}
+	if opt.ModuleLevel && !(eff > 0 && eff <= 1) {
+		return YearResult{}, badf("module_level_eff", "%g must lie in (0, 1]", opt.ModuleLevelEff)
+	}
+	res := YearResult{StepACWh: make([]float64, y.steps)}
+	var sc evalScratch
+	sc.gi = make([]float64, curvePoints)
+	sc.gs = make([]float64, curvePoints)
+	prevV := make([]float64, len(l.Inputs))
+	for k := range prevV {
+		prevV[k] = math.NaN()
+	}
+	var mods []int
+	for _, in := range l.Inputs {
+		for _, str := range in {
+			mods = append(mods, str...)
+		}
+	}
+	night := inv.nightW()
+	sumHours := 0.0
+	vmin, vmax, imax := inv.MPPTMinV, inv.MPPTMaxV, inv.MaxInputCurrentA
+	for s := range y.steps {
+		h := float64(y.hours[s])
+		sumHours += h
+		row := s * y.n
+		var unDC float64
+		for _, k := range mods {
+			unDC += float64(y.unshadedW[row+k])
+		}
+		var dc, dcV float64
+		if opt.ModuleLevel {
+			for _, k := range mods {
+				dc += float64(y.curveMPP[y.modCurve[row+k]]) * eff
+			}
+			res.GlobalDCWh += dc * h
+		} else {
+			for k := range sc.gi {
+				sc.gi[k] = y.gridI0[s] + float64(k)*y.gridH[s]
+			}
+			for a, in := range l.Inputs {
+				is, vs := y.inputCurve(&sc, row, in)
+				pG, _, _ := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
+				pW, _, _ := polyMax(is, vs, vmin, vmax, math.Inf(1))
+				pC, vC, _ := polyMax(is, vs, vmin, vmax, imax)
+				p, v := pC, vC
+				if opt.Tracker == LocalClimb {
+					p, v = climb(is, vs, prevV[a], vmin, vmax, imax)
+					prevV[a] = v
+					if p <= 0 {
+						prevV[a] = math.NaN()
+					}
+				}
+				res.GlobalDCWh += pG * h
+				res.WindowLossWh += (pG - pW) * h
+				res.CurrentLimitLossWh += (pW - pC) * h
+				res.TrackerLossWh += (pC - p) * h
+				dc += p
+				dcV += p * v
+			}
+		}
+		if dc > 0 && dcV > 0 {
+			dcV /= dc
+		}
+		ac, clip := inv.ACPowerAt(dc, dcV)
+		unAC, _ := inv.ACPower(unDC)
+		res.DCWh += dc * h
+		res.ACWh += ac * h
+		res.ClippedWh += clip * h
+		res.StepACWh[s] = ac * h
+		res.UnshadedDCWh += unDC * h
+		res.UnshadedACWh += unAC * h
+		if ac <= 0 {
+			res.NightWh += night * h
+		}
+	}
+	nh := opt.NightHours
+	if nh == 0 {
+		nh = math.Max(8760-sumHours, 0)
+	}
+	if nh > 0 {
+		res.NightWh += night * nh
+	}
+	return res, nil
+}
+
+// inputCurve returns the polyline (current, voltage) of the strings of one
+// input in parallel at step row/y.n. Modules sharing a curve are added as
+// count × curve, and identical strings in parallel scale the current.
+func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []float64) {
+	ns := len(in)
+	for len(sc.pairs) < ns {
+		sc.pairs = append(sc.pairs, nil)
+		sc.sums = append(sc.sums, make([]float64, curvePoints))
+		sc.is = append(sc.is, nil)
+	}
+	for b, str := range in {
+		pr := sc.pairs[b][:0]
+	modules:
+		for _, k := range str {
+			c := y.modCurve[row+k]
+			for j := range pr {
+				if pr[j].c == c {
+					pr[j].n++
+					continue modules
+				}
+			}
+			pr = append(pr, curveCount{c, 1})
+		}
+		slices.SortFunc(pr, func(a, b curveCount) int { return int(a.c - b.c) })
+		sc.pairs[b] = pr
+	}
+	same := true
+	for b := 1; b < ns && same; b++ {
+		same = slices.Equal(sc.pairs[b], sc.pairs[0])
+	}
+	last := ns
+	if same {
+		last = 1
+	}
+	for b := range last {
+		sum := sc.sums[b]
+		clear(sum)
+		for _, p := range sc.pairs[b] {
+			cv := y.curveV[int(p.c)*curvePoints : (int(p.c)+1)*curvePoints]
+			f := float64(p.n)
+			for k, x := range cv {
+				sum[k] += f * float64(x)
+			}
+		}
+		sc.is[b] = sc.gi
+	}
+	if same {
+		if ns == 1 {
+			return sc.gi, sc.sums[0]
+		}
+		for k, x := range sc.gi {
+			sc.gs[k] = x * float64(ns)
+		}
+		return sc.gs, sc.sums[0]
+	}
+	return sc.m.parallel(sc.is[:ns], sc.sums[:ns])
+}
+
+// climb models a hill-climbing tracker: from the previous voltage (or 80 %
+// of open circuit) it steps along the curve's points towards higher power
+// while power rises, within the window and current limit, and then takes
+// the best point of the two segments around where it stopped.
+func climb(is, vs []float64, prev, vmin, vmax, imax float64) (pW, vV float64) {
+	n := len(is)
+	if n < 2 {
+		return 0, prev
+	}
+	if math.IsNaN(prev) {
+		voc, _ := voltageOn(is, vs, 0, 0)
+		prev = 0.8 * voc
+	}
+	prev = math.Min(math.Max(prev, vmin), vmax)
+	ok := func(j int) bool { return vs[j] >= vmin && vs[j] <= vmax && is[j] <= imax && is[j] >= 0 }
+	// Start at the feasible point nearest prev.
+	j, best := -1, math.Inf(1)
+	for k := range n {
+		if ok(k) && math.Abs(vs[k]-prev) < best {
+			j, best = k, math.Abs(vs[k]-prev)
+		}
+	}
+	if j < 0 {
+		return 0, prev
+	}
+	pw := func(k int) float64 { return is[k] * vs[k] }
+	for {
+		switch {
+		case j+1 < n && ok(j+1) && pw(j+1) > pw(j):
+			j++
+			continue
+		case j > 0 && ok(j-1) && pw(j-1) > pw(j):
+			j--
+			continue
+		}
+		break
+	}
+	lo, hi := max(j-1, 0), min(j+2, n)
+	p, v, _ := polyMax(is[lo:hi], vs[lo:hi], vmin, vmax, imax)
+	if p < pw(j) {
+		return pw(j), vs[j]
+	}
+	return p, v
+}
