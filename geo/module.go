@@ -14,6 +14,11 @@ type Module struct {
 	Face     string
 	Row, Col int  // row 1 at the eave, column 1 at the left seen from below the eave
 	Portrait bool // the long side runs up the slope
+	// Source is the id of the hand-drawn panel the module comes from; empty for a module
+	// placed by Fill.
+	Source string
+	// Grid is the module's cell arrangement, as Fill was given it.
+	Grid CellGrid
 
 	Origin  Vec3
 	U, V    Vec3 // unit vectors

@@ -136,13 +136,28 @@ type CrownShape int
 const (
 	CrownEllipsoid CrownShape = iota
 	CrownCone
+	// CrownSphere is a sphere of CrownRadiusM touching HeightM; its base is HeightM − 2·radius.
+	CrownSphere
 )
+
+// String returns the shape's map name.
+func (s CrownShape) String() string {
+	switch s {
+	case CrownCone:
+		return "cone"
+	case CrownSphere:
+		return "sphere"
+	}
+	return "ellipsoid"
+}
 
 // Tree is a tree with a trunk point and a crown of revolution between CrownBaseM and HeightM.
 type Tree struct {
-	ID           string
-	Index        int
-	Trunk        orb.Point
+	ID    string
+	Index int
+	Trunk orb.Point
+	// BaseM, HeightM and CrownBaseM are all above the site's ground datum (like Vec3.U):
+	// BaseM is the ground under the trunk, for ground that is not level.
 	BaseM        float64 // ground under the trunk
 	HeightM      float64 // top of the crown above ground
 	CrownRadiusM float64
