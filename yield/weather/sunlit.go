@@ -130,11 +130,16 @@ func cosUp(p sun.Position) float64 {
 // splitGHI divides an interval's mean ghi into mean dni and dhi with the Erbs et al. (1982)
 // diffuse fraction. The split is made for the sunlit part, where the mean global irradiance is
 // ghi/frac, and scaled back to the whole interval, so that dni·cos Z + dhi = ghi with cos Z at
-// the sunlit midpoint: the closure the rest of the program relies on.
-func splitGHI(ghi float64, is intervalSun) (dni, dhi float64) {
+// the sunlit midpoint: the closure the rest of the program relies on. The beam is capped at
+// the clear-sky beam of a very clean atmosphere (Linke turbidity 2) at elevation elevM, since
+// the correlation knows no upper bound near the horizon; what it loses goes to the diffuse.
+func splitGHI(ghi float64, is intervalSun, elevM float64) (dni, dhi float64) {
 	if !(ghi > 0) || is.frac == 0 {
 		return 0, math.Max(ghi, 0)
 	}
-	dni, dhi = irradiance.Erbs(ghi/is.frac, is.pos.Zenith.Degrees(), is.doy)
-	return dni * is.frac, ghi - dni*is.frac*is.cosZ
+	zen := is.pos.Zenith.Degrees()
+	dni, _ = irradiance.Erbs(ghi/is.frac, zen, is.doy)
+	_, capDNI := clearSky(zen, irradiance.ExtraterrestrialNormal(is.doy), envelopeTL, elevM)
+	dni = math.Min(dni, capDNI) * is.frac
+	return dni, math.Max(0, ghi-dni*is.cosZ)
 }

@@ -163,7 +163,7 @@ func finish(p *problems, rows []row, s *Series, obs *sun.Observer) {
 		suns := sunOver(ends, s.Interval, *obs)
 		for i, r := range rows {
 			if r.missBeam {
-				s.Records[i].DNI, s.Records[i].DHI = splitGHI(r.rec.GHI, suns[i])
+				s.Records[i].DNI, s.Records[i].DHI = splitGHI(r.rec.GHI, suns[i], obs.ElevationM)
 			}
 		}
 		s.Warnings = append(s.Warnings, fmt.Sprintf("%d hours without direct and diffuse values: split from GHI with the Erbs et al. (1982) correlation", nBeam))
