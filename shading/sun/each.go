@@ -9,31 +9,31 @@ import (
 // 0.0001° in zenith and azimuth.
 //
 // The geocentric part of the SPA (the long periodic series) changes smoothly, so it is
-// evaluated once per day of Terrestrial Time and interpolated quadratically between the three
-// nearest days, as the SPA's own appendix A.2 does for right ascension and declination; only the
-// topocentric part runs per instant. The interpolation error is below 1e−6° (the shortest
-// significant period, the lunar term of L0, is 29.5 days). When the instants are sparser than
-// one per day, each is evaluated directly.
+// evaluated once per day of Terrestrial Time and interpolated with a cubic through the four
+// nearest days (the SPA's own appendix A.2 interpolates α and δ the same way, with three days);
+// only the topocentric part runs per instant. The interpolation error is about 1e−7° (the
+// shortest significant period, the lunar term of L0, is 29.5 days; a quadratic would leave
+// 1e−5°). Near the zenith the azimuth is ill-conditioned and differs by about 1e−7°/sin(zenith).
+// When the instants are sparser than one per day, each is evaluated directly.
 func AtEach(ts []time.Time, o Observer) []Position {
 	out := make([]Position, len(ts))
 	if len(ts) == 0 {
 		return out
 	}
 	s := newSite(o)
-	jds := make([]float64, len(ts))
-	jdes := make([]float64, len(ts))
+	var dt deltaTCache
 	lo, hi := math.Inf(1), math.Inf(-1)
-	for i, t := range ts {
-		jds[i] = JulianDay(t)
-		jdes[i] = jds[i] + o.deltaT(t)/86400
-		lo = math.Min(lo, jdes[i])
-		hi = math.Max(hi, jdes[i])
+	for _, t := range ts {
+		jde := JulianDay(t) + dt.at(t, o)/86400
+		lo = math.Min(lo, jde)
+		hi = math.Max(hi, jde)
 	}
 	first := math.Floor(lo) - 1
-	nNodes := int(math.Ceil(hi)-first) + 2
+	nNodes := int(math.Floor(hi)-first) + 3
 	if !(nNodes > 0 && nNodes <= len(ts)) { // also catches NaN from absurd times
 		for i, t := range ts {
-			out[i] = s.position(jds[i], apparentOf(GeocentricAt(jds[i], o.deltaT(t))))
+			jd := JulianDay(t)
+			out[i] = s.position(jd, apparentOf(GeocentricAt(jd, dt.at(t, o))))
 		}
 		return out
 	}
@@ -41,10 +41,33 @@ func AtEach(ts []time.Time, o Observer) []Position {
 	for k := range nodes {
 		nodes[k] = nodeAt(first + float64(k))
 	}
-	for i := range ts {
-		out[i] = s.position(jds[i], interpolate(nodes, first, jds[i], jdes[i]))
+	for i, t := range ts {
+		jd := JulianDay(t)
+		out[i] = s.position(jd, interpolate(nodes, first, jd, jd+dt.at(t, o)/86400))
 	}
 	return out
+}
+
+// deltaTCache remembers ΔT for the calendar month of the last instant: the model is constant
+// within a month, and working out the month costs more than the rest of an instant's ΔT.
+type deltaTCache struct {
+	from, to int64 // Unix seconds, [from, to)
+	v        float64
+}
+
+func (c *deltaTCache) at(t time.Time, o Observer) float64 {
+	if o.DeltaTSec != nil {
+		return *o.DeltaTSec
+	}
+	u := t.Unix()
+	if c.to > c.from && u >= c.from && u < c.to {
+		return c.v
+	}
+	y, m, _ := t.UTC().Date()
+	c.from = time.Date(y, m, 1, 0, 0, 0, 0, time.UTC).Unix()
+	c.to = time.Date(y, m+1, 1, 0, 0, 0, 0, time.UTC).Unix()
+	c.v = DeltaT(t)
+	return c.v
 }
 
 // node is the geocentric state at one whole Julian Ephemeris Day.
@@ -63,30 +86,31 @@ func nodeAt(jde float64) node {
 }
 
 // interpolate evaluates the geocentric state at jde from the nodes (nodes[k] at first+k) with
-// the three-point formula of Reda & Andreas (2004), eq. A10, about the nearest node.
+// the four-point Lagrange cubic about the two nodes that bracket it.
 func interpolate(nodes []node, first, jd, jde float64) apparent {
-	k := int(math.Round(jde - first))
-	k = max(1, min(k, len(nodes)-2))
-	n := jde - (first + float64(k))
-	a, b, c := &nodes[k-1], &nodes[k], &nodes[k+1]
-	quad := func(y0, y1, y2 float64) float64 {
-		d1, d2 := y1-y0, y2-y1
-		return y1 + n*(d1+d2+(d2-d1)*n)/2
-	}
-	// Right ascension wraps at 360°: interpolate the unwrapped differences.
-	d1 := normDeg180(b.alphaDeg - a.alphaDeg)
-	d2 := normDeg180(c.alphaDeg - b.alphaDeg)
-	alpha := normDeg(b.alphaDeg + n*(d1+d2+(d2-d1)*n)/2)
-	dpsiCosEps := quad(a.dpsiCosEpsDeg, b.dpsiCosEpsDeg, c.dpsiCosEpsDeg)
+	k := int(math.Floor(jde - first))
+	k = max(1, min(k, len(nodes)-3))
+	n := jde - (first + float64(k)) // in [0, 1) between nodes k and k+1
+	a, b, c, d := &nodes[k-1], &nodes[k], &nodes[k+1], &nodes[k+2]
+	// Lagrange weights for nodes at −1, 0, 1, 2.
+	w0 := -n * (n - 1) * (n - 2) / 6
+	w1 := (n + 1) * (n - 1) * (n - 2) / 2
+	w2 := -(n + 1) * n * (n - 2) / 2
+	w3 := (n + 1) * n * (n - 1) / 6
+	cubic := func(y0, y1, y2, y3 float64) float64 { return w0*y0 + w1*y1 + w2*y2 + w3*y3 }
+	// Right ascension wraps at 360°: interpolate offsets from node k.
+	alpha := normDeg(b.alphaDeg + cubic(normDeg180(a.alphaDeg-b.alphaDeg), 0,
+		normDeg180(c.alphaDeg-b.alphaDeg), normDeg180(d.alphaDeg-b.alphaDeg)))
+	dpsiCosEps := cubic(a.dpsiCosEpsDeg, b.dpsiCosEpsDeg, c.dpsiCosEpsDeg, d.dpsiCosEpsDeg)
 
 	jc := (jd - j2000) / 36525
 	nu0 := 280.46061837 + 360.98564736629*(jd-j2000) + jc*jc*(0.000387933-jc/38710000)
 	jme := (jde - j2000) / 365250
 	return apparent{
 		alphaDeg: alpha,
-		deltaRad: quad(a.deltaDeg, b.deltaDeg, c.deltaDeg) * deg,
+		deltaRad: cubic(a.deltaDeg, b.deltaDeg, c.deltaDeg, d.deltaDeg) * deg,
 		nuDeg:    normDeg(nu0 + dpsiCosEps),
-		r:        quad(a.r, b.r, c.r),
+		r:        cubic(a.r, b.r, c.r, d.r),
 		eotMin:   equationOfTimeMin(meanLonDeg(jme), alpha, dpsiCosEps),
 	}
 }

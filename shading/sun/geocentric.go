@@ -150,13 +150,13 @@ func equationOfTimeMin(meanLonDeg, alphaDeg, dpsiCosEpsDeg float64) float64 {
 	return e
 }
 
+// normDeg reduces x to [0, 360). Floor, not math.Mod: Mod is exact but several times slower,
+// and the inputs (sidereal time reaches millions of degrees) carry no more precision than
+// Floor keeps.
 func normDeg(x float64) float64 {
-	x = math.Mod(x, 360)
-	if x < 0 {
-		x += 360
-		if x == 360 { // x was a tiny negative number
-			x = 0
-		}
+	x -= 360 * math.Floor(x/360)
+	if x >= 360 || x < 0 { // rounding at the edges
+		x = 0
 	}
 	return x
 }
