@@ -40,14 +40,15 @@
 //
 // # Diffuse
 //
-// Diffuse counts, from the module's centre, 96² directions that split the hemisphere in
-// front of the module into parts of equal projected solid angle (stratified concentric map,
-// Shirley & Chiu 1997). SkyView is the visible share of the ones above the horizontal and
-// above the far horizon (isotropic sky); HorizonView the same for the band between elevation
-// 0 and HorizonBandDeg (6°, our choice for the band diffuse models brighten); GroundView of
-// the ones below the horizontal (what the objects leave of the ground). Tree crowns pass
-// their mean transmittance over the year. Accuracy: the count reproduces the isotropic
-// (1+cos β)/2 to better than 0.5 %, and a long wall's view factor to about 1 % (tests).
+// Diffuse traces, from the module's centre, a grid of directions over the sphere (2° of
+// azimuth; 0.5° of elevation within 15° of the horizontal, 3° beyond), each weighted by the
+// exact solid angle of its bin times the cosine to the module's normal. SkyView is the
+// visible share of the weight above the horizontal and above the far horizon (isotropic sky);
+// HorizonView the same for the band between elevation 0 and HorizonBandDeg (6°, our choice
+// for the band that diffuse models brighten); GroundView the share below the horizontal that
+// no object hides (the ground, for reflected light). Tree crowns pass their mean transmittance
+// over the year. Accuracy (tests): the weights reproduce the isotropic (1+cos β)/2 to 1e-3,
+// a long wall's view factor and a uniform far horizon's sin²ε to about 1 %.
 // The circumsolar part of the diffuse light follows the beam: the caller applies the
 // module-step's LitFraction to it.
 //
