@@ -62,7 +62,7 @@ type YearResult struct {
 	// limit, TrackerLossWh the part lost by a LocalClimb tracker stuck on a
 	// local maximum. GlobalDCWh − the three = DCWh for string inverters.
 	GlobalDCWh, WindowLossWh, CurrentLimitLossWh, TrackerLossWh float64
-	NightWh float64
+	NightWh                                                     float64
 	// UnshadedDCWh is the same modules' DC energy with no cell shaded, each
 	// at its own maximum; UnshadedACWh that energy through the same
 	// inverter (AC stage only). They are the reference for shade loss.
