@@ -27,3 +27,74 @@ func TestIneichenPerez(t *testing.T) {
 		})
 	}
 }
+
+func TestClearSkyYear(t *testing.T) {
+	s := ClearSky(midEurope.site, nil)
+	if s.Source != SourceIndicative || len(s.Records) != 8760 {
+		t.Fatalf("source %q, %d records; want indicative and 8760", s.Source, len(s.Records))
+	}
+	checkInvariants(t, s, false)
+	mo := s.Monthly()
+	annual := 0.0
+	for _, m := range mo {
+		annual += m.GHIKWhM2
+	}
+	cases := []struct {
+		name           string
+		got, want, tol float64
+	}{
+		// A cloudless year at 47° N holds roughly 1.5–1.7 times the measured ~1200 kWh/m²
+		// (from memory): 1750–2000 kWh/m².
+		{"annual clear-sky GHI 47° N", annual, 1875, 125},
+		// Default temperatures pass through as monthly means (shifted to match exactly).
+		{"January temperature", mo[0].TempC, DefaultTempC[0], 1e-9},
+		{"July temperature", mo[6].TempC, DefaultTempC[6], 1e-9},
+		// June holds about four times December's clear-sky GHI at 47° N [calc, from the
+		// daily extraterrestrial ratio ~4.3 (Duffie & Beckman Table 1.10.1, from memory)].
+		{"June/December", mo[5].GHIKWhM2 / mo[11].GHIKWhM2, 4.5, 1},
+	}
+	for _, c := range cases {
+		if !scalar.EqualWithinAbs(c.got, c.want, c.tol) {
+			t.Errorf("%s = %.4g, want %.4g ± %.3g", c.name, c.got, c.want, c.tol)
+		}
+	}
+	// Southern hemisphere: default temperatures shifted by six months; given ones pass through.
+	south := ClearSky(highveld.site, nil).Monthly()
+	if !scalar.EqualWithinAbs(south[0].TempC, DefaultTempC[6], 1e-9) {
+		t.Errorf("southern January %.3f, want the northern July default %.3f", south[0].TempC, DefaultTempC[6])
+	}
+	given := ClearSky(highveld.site, &highveld.temp).Monthly()
+	if !scalar.EqualWithinAbs(given[5].TempC, highveld.temp[5], 1e-9) {
+		t.Errorf("given June temperature %.3f, want %.3f", given[5].TempC, highveld.temp[5])
+	}
+}
+
+func TestCheckSite(t *testing.T) {
+	withLoc := &Series{HasLocation: true, LatDeg: 47.07, LonDeg: 15.44, ElevationM: 360, TZOffsetHours: 1}
+	cases := []struct {
+		name  string
+		s     *Series
+		site  Site
+		wantN int
+		want  string
+	}{
+		{"same place", withLoc, Site{LatDeg: 47.07, LonDeg: 15.44, ElevationM: 360, Zone: zoneVienna}, 0, ""},
+		// 1° of latitude is 111.2 km on the mean sphere [calc].
+		{"far away", withLoc, Site{LatDeg: 48.07, LonDeg: 15.44, ElevationM: 360, Zone: zoneVienna}, 1, "is 111 km from the site"},
+		{"other zone", withLoc, Site{LatDeg: 47.07, LonDeg: 15.44, ElevationM: 360, Zone: zoneJoburg}, 1, "keeps standard time UTC+2 h"},
+		{"high", withLoc, Site{LatDeg: 47.07, LonDeg: 15.44, ElevationM: 1500, Zone: zoneVienna}, 1, "differs from the site's 1500 m"},
+		{"no location", &Series{}, Site{}, 1, "carries no location"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			w := c.s.CheckSite(c.site)
+			if len(w) != c.wantN || (c.want != "" && !hasWarning(w, c.want)) {
+				t.Errorf("warnings %q, want %d containing %q", w, c.wantN, c.want)
+			}
+		})
+	}
+	// Standard time of a zone with daylight saving time is its winter offset.
+	if got := StandardOffsetHours(zoneVienna); !scalar.EqualWithinAbs(got, 1, 0) {
+		t.Errorf("Europe/Vienna standard offset %g, want +1 (IANA tz database)", got)
+	}
+}

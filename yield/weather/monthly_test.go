@@ -8,6 +8,7 @@ import (
 	"strings"
 	"testing"
 	"time"
+	_ "time/tzdata" // zones in tests must not depend on the machine
 
 	"sunstring/shading/sun"
 	"sunstring/yield/irradiance"
