@@ -148,7 +148,15 @@ type work struct {
 func newWork(cells int) *work { return &work{row: make([]uint8, cells)} }
 
 // quantize maps a transmittance to 0..255.
-func quantize(t float64) uint8 { return uint8(math.Round(math.Max(0, math.Min(1, t)) * 255)) }
+func quantize(t float64) uint8 {
+	switch {
+	case t <= 0:
+		return 0
+	case t >= 1:
+		return 255
+	}
+	return uint8(t*255 + 0.5)
+}
 
 // store appends a cell row to mr unless it is uniform.
 func store(mr *modResult, s int, row []uint8) {
@@ -183,8 +191,12 @@ func (sc *Scene) fastModule(i int, info []stepInfo, w *work) modResult {
 			if !c.contains(d) {
 				continue
 			}
-			if p.front[j] && d.Dot(sc.objs[p.objs[j]].n) >= 0 {
+			o := &sc.objs[p.objs[j]]
+			if p.front[j] && d.Dot(o.n) >= 0 {
 				// The module lies in front of this face and the ray moves away from it.
+				continue
+			}
+			if !o.mayHit(p.centre, d, p.rad) {
 				continue
 			}
 			w.cand = append(w.cand, int32(j))

@@ -45,10 +45,11 @@ type object struct {
 	centre geo.Vec3
 	radius float64
 
-	// Plan outline without its closing vertex (faces and blocks) and its plan bounding box.
+	// Plan outline without its closing vertex (faces and blocks) and its bounding box.
 	poly       []orb.Point
 	minE, maxE float64
 	minN, maxN float64
+	minU, maxU float64
 
 	// Face: the plane n·x = k.
 	n geo.Vec3
@@ -103,13 +104,14 @@ func (o *object) setPlanBox() {
 	o.minE, o.minN = math.Inf(1), math.Inf(1)
 	o.maxE, o.maxN = math.Inf(-1), math.Inf(-1)
 	for _, p := range o.poly {
-		o.minE, o.maxE = math.Min(o.minE, p[0]), math.Max(o.maxE, p[0])
-		o.minN, o.maxN = math.Min(o.minN, p[1]), math.Max(o.maxN, p[1])
+		o.minE, o.maxE = min(o.minE, p[0]), max(o.maxE, p[0])
+		o.minN, o.maxN = min(o.minN, p[1]), max(o.maxN, p[1])
 	}
 }
 
 // setSphereFromBox encloses the box [minE,maxE]×[minN,maxN]×[lo,hi].
 func (o *object) setSphereFromBox(lo, hi float64) {
+	o.minU, o.maxU = lo, hi
 	o.centre = geo.Vec3{E: (o.minE + o.maxE) / 2, N: (o.minN + o.maxN) / 2, U: (lo + hi) / 2}
 	o.radius = geo.Vec3{E: o.maxE - o.minE, N: o.maxN - o.minN, U: hi - lo}.Norm() / 2
 }
@@ -146,7 +148,7 @@ func faceObject(f *geo.Face) (object, error) {
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for _, p := range o.poly {
 		z := f.HeightAt(p)
-		lo, hi = math.Min(lo, z), math.Max(hi, z)
+		lo, hi = min(lo, z), max(hi, z)
 	}
 	o.setSphereFromBox(lo, hi)
 	return o, nil
@@ -175,7 +177,7 @@ func blockObject(b *geo.Block) (object, error) {
 		o.across = orb.Point{math.Cos(a), -math.Sin(a)}
 		half := 0.0
 		for _, p := range o.poly {
-			half = math.Max(half, math.Abs((p[0]-o.ridgeC[0])*o.across[0]+(p[1]-o.ridgeC[1])*o.across[1]))
+			half = max(half, math.Abs((p[0]-o.ridgeC[0])*o.across[0]+(p[1]-o.ridgeC[1])*o.across[1]))
 		}
 		if half > 0 {
 			o.gable = true
@@ -203,6 +205,29 @@ func treeObject(t *geo.Tree) (object, error) {
 	o.minN, o.maxN = t.Trunk[1]-t.CrownRadiusM, t.Trunk[1]+t.CrownRadiusM
 	o.setSphereFromBox(t.CrownBaseM, t.HeightM)
 	return o, nil
+}
+
+// boxSlab narrows [lo, hi] to the ts where a ≤ p + t·d ≤ b.
+func boxSlab(lo, hi *float64, p, d, a, b float64) bool {
+	if d == 0 {
+		return p >= a && p <= b
+	}
+	t0, t1 := (a-p)/d, (b-p)/d
+	if t0 > t1 {
+		t0, t1 = t1, t0
+	}
+	*lo, *hi = max(*lo, t0), min(*hi, t1)
+	return *lo <= *hi
+}
+
+// mayHit reports whether a ray from any point within distance r of p, in direction d, can
+// meet the object's bounding box: the box grown by r contains the Minkowski sum of the box
+// and the ball, so a false answer is certain, a true one is only possible.
+func (o *object) mayHit(p, d geo.Vec3, r float64) bool {
+	lo, hi := -r, farT
+	return boxSlab(&lo, &hi, p.E, d.E, o.minE-r, o.maxE+r) &&
+		boxSlab(&lo, &hi, p.N, d.N, o.minN-r, o.maxN+r) &&
+		boxSlab(&lo, &hi, p.U, d.U, o.minU-r, o.maxU+r)
 }
 
 // hit reports whether the ray from p in direction d (a unit vector) meets the object at a
@@ -246,9 +271,9 @@ func clip(lo, hi *float64, g0, g1 float64) bool {
 	}
 	t := -g0 / g1
 	if g1 > 0 {
-		*hi = math.Min(*hi, t)
+		*hi = min(*hi, t)
 	} else {
-		*lo = math.Max(*lo, t)
+		*lo = max(*lo, t)
 	}
 	return *lo <= *hi
 }
@@ -271,8 +296,8 @@ func (o *object) hitBlock(p, d geo.Vec3) bool {
 	// What is left is a plan segment; the solid is hit when the segment meets the footprint.
 	ax, ay := p.E+lo*d.E, p.N+lo*d.N
 	bx, by := p.E+hi*d.E, p.N+hi*d.N
-	if math.Max(ax, bx) < o.minE || math.Min(ax, bx) > o.maxE ||
-		math.Max(ay, by) < o.minN || math.Min(ay, by) > o.maxN {
+	if max(ax, bx) < o.minE || min(ax, bx) > o.maxE ||
+		max(ay, by) < o.minN || min(ay, by) > o.maxN {
 		return false
 	}
 	if inRing(o.poly, ax, ay) || inRing(o.poly, bx, by) {
