@@ -213,6 +213,7 @@ func (d *decoder) structure(root *jnode) []*rawFeature {
 			}
 		}
 		d.problem(orNode(t, root), -1, "", "type", "the map must be a FeatureCollection, got "+got)
+		return nil
 	}
 	if c := root.member("crs"); c != nil {
 		d.problem(c, -1, "", "crs", "RFC 7946 maps are in WGS 84 longitude/latitude and carry no crs; reproject and remove crs")
