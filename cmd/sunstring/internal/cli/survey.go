@@ -1,0 +1,263 @@
+package cli
+
+import (
+	"fmt"
+	"os"
+	"strings"
+	"time"
+
+	"github.com/spf13/cobra"
+	"gonum.org/v1/plot/vg"
+
+	"sunstring/geo"
+	"sunstring/yield"
+	"sunstring/yield/irradiance"
+	"sunstring/yield/report"
+	"sunstring/yield/weather"
+)
+
+func newSurveyCmd() *cobra.Command {
+	var (
+		out     string
+		svg     bool
+		timeout time.Duration
+	)
+	c := &cobra.Command{
+		Use:   "survey SITE.yaml -o DIR",
+		Short: "Estimate the yield, rank string layouts and write the report",
+		Long: `Run the whole survey: place modules on every roof face, compute the sun for every
+hour of the year and the shade on every cell of every module, simulate the strings and
+the inverter, rank string layouts, and write into DIR:
+
+  summary.json      key figures, losses, layouts and per-module results
+  modules.geojson   the placed modules (id, face, string, shade loss) and the drawing
+  monthly.png       monthly AC energy, with and without shade
+
+DIR is replaced only when the run succeeds; an earlier report stays as it was otherwise.
+Estimates only: local codes and a licensed installer have the final word.`,
+		Example: "  sunstring survey examples/sample-house/site.yaml -o out",
+		Args:    args(cobra.ExactArgs(1)),
+	}
+	bind := bindSiteFlags(c.Flags())
+	f := c.Flags()
+	f.StringVarP(&out, "out", "o", "", "output folder (required)")
+	f.BoolVar(&svg, "svg", false, "also write the charts as SVG")
+	f.DurationVar(&timeout, "timeout", 0, "give up after this long (e.g. 2m; 0: no limit)")
+	c.RunE = func(c *cobra.Command, a []string) error {
+		if out == "" {
+			return usageError{fmt.Errorf("survey: -o DIR is required: the folder to write the report into")}
+		}
+		ctx := c.Context()
+		if timeout > 0 {
+			var cancel func()
+			ctx, cancel = contextWithTimeout(ctx, timeout)
+			defer cancel()
+		}
+		p, err := loadProject(a[0], c.Flags(), bind)
+		if err != nil {
+			return err
+		}
+		if len(p.Modules) == 0 {
+			return inputError{fmt.Errorf("%s: no module fits on any roof face (check the faces, the setback and the module size)", a[0])}
+		}
+		ws, err := p.loadWeather()
+		if err != nil {
+			return err
+		}
+		sky, _ := irradiance.ParseSkyModel(strings.ToLower(p.Cfg.Model.Sky))
+		iam := yield.IAMMartinRuiz
+		if strings.EqualFold(p.Cfg.Model.IAM, "ashrae") {
+			iam = yield.IAMASHRAE
+		}
+		prog := newProgress(c.ErrOrStderr())
+		defer prog.Done()
+		in := yield.Input{
+			Site: p.Site, Modules: p.Modules, Weather: ws, Observer: p.Observer, Zone: p.Cfg.Zone,
+			Horizon: p.Horizon, Progress: prog.Update,
+			System: yield.System{
+				Module: p.Datasheet, Inverter: p.Inverter, Albedo: p.Cfg.Climate.Albedo, Sky: sky, IAM: iam,
+				Losses: yield.Losses{
+					SoilingPct: p.Cfg.Losses.SoilingPct, WiringPct: p.Cfg.Losses.WiringPct,
+					MismatchPct: p.Cfg.Losses.MismatchPct, AvailabilityPct: p.Cfg.Losses.AvailabilityPct,
+				},
+			},
+		}
+		model, err := yield.Prepare(ctx, in)
+		if err != nil {
+			return err
+		}
+		layouts, err := p.layouts(model)
+		if err != nil {
+			return err
+		}
+		prog.Done()
+		sum := p.summary(model, ws, layouts)
+		files, err := p.outputs(model, sum, layouts, svg)
+		if err != nil {
+			return err
+		}
+		if err := files.commit(out); err != nil {
+			return err
+		}
+		w := c.OutOrStdout()
+		best := sum
+		fmt.Fprintf(w, "%s: %d modules, %.2f kWp\n", p.Cfg.Name, best.Modules, best.DCkWp)
+		fmt.Fprintf(w, "annual AC energy %s kWh, specific yield %s kWh/kWp, performance ratio %.2f\n",
+			thousands(best.AnnualACkWh, 0), thousands(best.SpecificYield, 0), best.PerformanceRatio)
+		if len(best.Layouts) > 0 {
+			fmt.Fprintf(w, "best layout %q loses %.1f %% to shade\n", best.Layouts[0].Name, best.Layouts[0].ShadeLossPct)
+		}
+		for _, s := range best.Warnings {
+			fmt.Fprintln(c.ErrOrStderr(), "warning:", s)
+		}
+		fmt.Fprintln(w, "caution: estimates only; local codes and a licensed installer have the final word on voltages, currents and layouts.")
+		fmt.Fprintf(w, "wrote %s\n", out)
+		return nil
+	}
+	return c
+}
+
+// rankedLayout is one evaluated layout with its module ids.
+type rankedLayout struct {
+	Name    string
+	Strings [][]string
+	Inputs  []int
+	Result  yield.LayoutResult
+	CableM  float64
+	Note    string
+}
+
+// summary builds summary.json from the model and the ranked layouts (best first).
+func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout) *report.Summary {
+	kwp := float64(len(p.Modules)) * p.Datasheet.PowerW / 1000
+	s := &report.Summary{
+		Site:    report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
+		Modules: len(p.Modules),
+		DCkWp:   kwp,
+		Climate: report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
+		Models: []string{
+			"sun: Reda & Andreas (2004) SPA, NREL/TP-560-34302",
+			"sky: " + p.Cfg.Model.Sky + " transposition (Perez et al. 1990 by default)",
+			"incidence-angle modifier: " + p.Cfg.Model.IAM,
+			"cell temperature: Faiman (2008)",
+			"module: single-diode model, De Soto et al. (2006), per cell with bypass diodes",
+		},
+		Cautions: report.Cautions,
+	}
+	for _, mo := range ws.Monthly() {
+		s.Climate.AnnualGHIkWhM2 += mo.GHIKWhM2
+	}
+	if ws.Source == weather.Source("indicative") {
+		s.Warnings = append(s.Warnings, IndicativeWarning)
+	}
+	s.Warnings = append(s.Warnings, ws.Warnings...)
+	s.Warnings = append(s.Warnings, p.Site.Warnings...)
+	s.Warnings = append(s.Warnings, p.Notes...)
+	for _, f := range geo.Summarize(p.Site, p.Modules) {
+		s.Faces = append(s.Faces, report.Face{ID: f.ID, PitchDeg: f.PitchDeg, AspectDeg: f.AspectDeg, PlanAreaM2: f.PlanAreaM2,
+			SlopedAreaM2: f.SlopedAreaM2, Modules: f.Modules, KWp: float64(f.Modules) * p.Datasheet.PowerW / 1000})
+	}
+	stringOf := map[string]string{}
+	if len(ls) > 0 {
+		best := ls[0]
+		r := best.Result
+		s.AnnualACkWh = r.ACkWh
+		s.SpecificYield = r.ACkWh / kwp
+		if m.RefPOAKWhM2 > 0 {
+			// IEC 61724-1: final yield over reference yield (in-plane irradiation / 1 kW/m²).
+			s.PerformanceRatio = s.SpecificYield / m.RefPOAKWhM2
+		}
+		s.MonthlyACkWh = r.MonthlyACkWh
+		s.MonthlyUnshaded = r.MonthlyUnshadedACkWh
+		for _, l := range r.Losses {
+			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
+		}
+		for i, st := range best.Strings {
+			for _, id := range st {
+				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], i+1)
+			}
+		}
+		for _, l := range ls {
+			s.Layouts = append(s.Layouts, report.Layout{
+				Name: l.Name, AnnualACkWh: l.Result.ACkWh, ShadeLossPct: l.Result.ShadeLossPct,
+				BehindBestKWh: best.Result.ACkWh - l.Result.ACkWh, CableM: l.CableM,
+				Strings: l.Strings, Inputs: l.Inputs, Note: l.Note,
+			})
+		}
+	}
+	for i, mod := range p.Modules {
+		st := m.Stats[i]
+		s.ModuleResults = append(s.ModuleResults, report.ModuleResult{
+			ID: mod.ID, Face: mod.Face, AnnualPOAkWhM2: st.POAKWhM2, ShadeLossPct: st.ShadeLossPct,
+			BeamShadeLossPct: st.BeamShadeLossPct, SolarAccessPct: 100 - st.ShadeLossPct, SkyViewPct: 100 * st.SkyView,
+			String: stringOf[mod.ID],
+		})
+	}
+	return s
+}
+
+// outputs renders every file of the report.
+func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, svg bool) (outputSet, error) {
+	files := outputSet{}
+	js, err := s.JSON()
+	if err != nil {
+		return nil, err
+	}
+	files["summary.json"] = js
+	gj, err := geo.ExportGeoJSON(p.Site, p.Modules, func(i int) map[string]any {
+		r := s.ModuleResults[i]
+		props := map[string]any{
+			"shade_loss_pct":      report.Round(r.ShadeLossPct, 2),
+			"beam_shade_loss_pct": report.Round(r.BeamShadeLossPct, 2),
+			"annual_poa_kwh_m2":   report.Round(r.AnnualPOAkWhM2, 1),
+		}
+		if r.String != "" {
+			props["string"] = r.String
+		}
+		return props
+	})
+	if err != nil {
+		return nil, fmt.Errorf("modules.geojson: %w", err)
+	}
+	files["modules.geojson"] = gj
+	note := ""
+	if s.Climate.Source == "indicative" {
+		note = "INDICATIVE: clear-sky year, no climate data"
+	}
+	formats := []report.Format{report.PNG}
+	if svg {
+		formats = append(formats, report.SVG)
+	}
+	for _, f := range formats {
+		b, err := report.Render(report.MonthlyChart(&s.MonthlyACkWh, &s.MonthlyUnshaded, note), 16*vg.Centimeter, 9*vg.Centimeter, f)
+		if err != nil {
+			return nil, err
+		}
+		files["monthly"+f.Ext()] = b
+	}
+	return files, nil
+}
+
+// thousands formats x with d decimals and thin-space-free comma thousands separators.
+func thousands(x float64, d int) string {
+	s := fmt.Sprintf("%.*f", d, x)
+	neg := strings.HasPrefix(s, "-")
+	s = strings.TrimPrefix(s, "-")
+	intPart, frac := s, ""
+	if i := strings.IndexByte(s, '.'); i >= 0 {
+		intPart, frac = s[:i], s[i:]
+	}
+	var b strings.Builder
+	for i, r := range intPart {
+		if i > 0 && (len(intPart)-i)%3 == 0 {
+			b.WriteByte(',')
+		}
+		b.WriteRune(r)
+	}
+	if neg {
+		return "-" + b.String() + frac
+	}
+	return b.String() + frac
+}
+
+var _ = os.Stderr

@@ -1,0 +1,11 @@
+// Package yield turns a site model, its placed modules and a weather year into energy: it
+// finds the sun for every time step, asks the shading engine what each cell sees, transposes
+// the sky's light onto every module (Perez et al. 1990 by default), applies incidence-angle
+// losses (Martin & Ruiz 2001) and cell temperature (Faiman 2008), builds the year of module
+// I-V curves once (package electric) and evaluates string layouts on it: annual and monthly
+// AC energy with a loss breakdown from plane-of-array irradiation to AC.
+//
+// Sub-packages: weather (series, readers, synthetic years), irradiance (sky models),
+// electric (module, string and inverter electrics), layout (string-layout search) and
+// report (charts, PDF, GeoJSON and summary output).
+package yield

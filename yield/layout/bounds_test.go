@@ -1,0 +1,86 @@
+package layout
+
+import (
+	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+
+	"sunstring/yield/electric"
+)
+
+func TestStringBoundsWorkedExample(t *testing.T) {
+	// Worked hand calculation (IEC 62548-1 rule, numbers [calc] in the project's reference
+	// sheet): Voc 40.0 V, −0.30 %/K, −10 °C → 40.0·(1 − 0.003·(−35)) = 44.20 V a module;
+	// 1000 V / 44.20 V = 22.6 → at most 22 modules. Vmp 33.0 V, −0.37 %/K at a 70 °C cell →
+	// 33.0·(1 − 0.0037·45) = 27.51 V; 200 V / 27.51 V = 7.27 → at least 8.
+	ds := electric.Datasheet{VocV: 40, VmpV: 33, ImpA: 9, TempCoeffVocPct: -0.30, TempCoeffPmaxPct: -0.37}
+	inv := electric.Inverter{MaxDCVoltageV: 1000, MPPTMinV: 200, MPPTMaxV: 2000, MaxInputCurrentA: 20}
+	b, err := StringBounds(ds, inv, Limits{LowTempC: -10, HighTempC: 70 - HotCellRiseK})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !scalar.EqualWithinAbs(b.VocColdV, 44.20, 0.005) || !scalar.EqualWithinAbs(b.VmpHotV, 27.51, 0.005) {
+		t.Errorf("Voc cold %.3f V (want 44.20), Vmp hot %.3f V (want 27.51)", b.VocColdV, b.VmpHotV)
+	}
+	if b.MaxSeries != 22 || b.MinSeries != 8 || b.MaxParallel != 2 {
+		t.Errorf("bounds %+v, want 8..22 in series, 2 in parallel (20 A / 9 A)", b)
+	}
+}
+
+func TestSequential(t *testing.T) {
+	for _, c := range []struct {
+		name    string
+		n       int
+		inputs  int
+		b       Bounds
+		lengths [][]int // per input, per string
+		left    int
+	}{
+		{"one string", 10, 2, Bounds{MinSeries: 4, MaxSeries: 14, MaxParallel: 1}, [][]int{{10}}, 0},
+		{"split over two inputs", 17, 2, Bounds{MinSeries: 4, MaxSeries: 14, MaxParallel: 1}, [][]int{{8}, {9}}, 0},
+		{"too many modules", 30, 2, Bounds{MinSeries: 4, MaxSeries: 14, MaxParallel: 1}, [][]int{{14}, {14}}, 2},
+		{"parallel strings equal", 36, 1, Bounds{MinSeries: 4, MaxSeries: 14, MaxParallel: 3}, [][]int{{12, 12, 12}}, 0},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			order := make([]int, c.n)
+			for i := range order {
+				order[i] = i
+			}
+			l, left, err := Sequential(order, c.inputs, c.b)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if left != c.left {
+				t.Errorf("left out %d, want %d", left, c.left)
+			}
+			var got [][]int
+			used := map[int]bool{}
+			for _, in := range l.Inputs {
+				var ls []int
+				for _, s := range in {
+					ls = append(ls, len(s))
+					for _, m := range s {
+						if used[m] {
+							t.Errorf("module %d used twice", m)
+						}
+						used[m] = true
+					}
+				}
+				got = append(got, ls)
+			}
+			if len(got) != len(c.lengths) {
+				t.Fatalf("inputs %v, want %v", got, c.lengths)
+			}
+			for i := range got {
+				if len(got[i]) != len(c.lengths[i]) {
+					t.Fatalf("inputs %v, want %v", got, c.lengths)
+				}
+				for j := range got[i] {
+					if got[i][j] != c.lengths[i][j] {
+						t.Errorf("inputs %v, want %v", got, c.lengths)
+					}
+				}
+			}
+		})
+	}
+}

@@ -1,0 +1,181 @@
+package report
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+)
+
+// Summary is the summary.json document. Field names and meanings are DESIGN.md's output
+// contract; fields beyond it are documented in README.md.
+type Summary struct {
+	Site             SiteInfo       `json:"site"`
+	Modules          int            `json:"modules"`
+	DCkWp            float64        `json:"dc_kwp"`
+	Climate          ClimateInfo    `json:"climate"`
+	AnnualACkWh      float64        `json:"annual_ac_kwh"`
+	SpecificYield    float64        `json:"specific_yield_kwh_per_kwp"`
+	PerformanceRatio float64        `json:"performance_ratio"`
+	MonthlyACkWh     [12]float64    `json:"monthly_ac_kwh"`
+	MonthlyUnshaded  [12]float64    `json:"monthly_ac_unshaded_kwh"`
+	Losses           []Loss         `json:"losses"`
+	Layouts          []Layout       `json:"layouts"`
+	ModuleResults    []ModuleResult `json:"module_results"`
+	Faces            []Face         `json:"faces"`
+	Checks           []Check        `json:"checks"`
+	Warnings         []string       `json:"warnings"`
+	Cautions         []string       `json:"cautions"`
+	Models           []string       `json:"models"`
+}
+
+// SiteInfo names the site.
+type SiteInfo struct {
+	Name      string  `json:"name"`
+	Latitude  float64 `json:"latitude"`
+	Longitude float64 `json:"longitude"`
+	Timezone  string  `json:"timezone"`
+}
+
+// ClimateInfo says which climate was used.
+type ClimateInfo struct {
+	Source         string  `json:"source"` // file | monthly | indicative
+	AnnualGHIkWhM2 float64 `json:"annual_ghi_kwh_m2"`
+	File           string  `json:"file,omitempty"`
+}
+
+// Loss is one step of the loss breakdown from plane-of-array irradiation to AC energy.
+type Loss struct {
+	Step string  `json:"step"`
+	KWh  float64 `json:"kwh"` // energy lost at this step (the first row: the starting amount)
+	Pct  float64 `json:"pct"` // of the energy entering this step
+}
+
+// Layout is one ranked string layout.
+type Layout struct {
+	Name          string     `json:"name"`
+	AnnualACkWh   float64    `json:"annual_ac_kwh"`
+	ShadeLossPct  float64    `json:"shade_loss_pct"`
+	BehindBestKWh float64    `json:"behind_best_kwh"`
+	CableM        float64    `json:"cable_m"`
+	Strings       [][]string `json:"strings"`
+	Inputs        []int      `json:"inputs"` // inverter input (1-based) of each string
+	Note          string     `json:"note,omitempty"`
+}
+
+// ModuleResult is one module's annual irradiation and shade.
+type ModuleResult struct {
+	ID               string  `json:"id"`
+	Face             string  `json:"face"`
+	AnnualPOAkWhM2   float64 `json:"annual_poa_kwh_m2"`
+	ShadeLossPct     float64 `json:"shade_loss_pct"`
+	BeamShadeLossPct float64 `json:"beam_shade_loss_pct"`
+	SolarAccessPct   float64 `json:"solar_access_pct"`
+	SkyViewPct       float64 `json:"sky_view_pct"`
+	String           string  `json:"string,omitempty"`
+}
+
+// Face is one roof face's summary.
+type Face struct {
+	ID           string  `json:"id"`
+	PitchDeg     float64 `json:"pitch_deg"`
+	AspectDeg    float64 `json:"aspect_deg"`
+	PlanAreaM2   float64 `json:"plan_area_m2"`
+	SlopedAreaM2 float64 `json:"sloped_area_m2"`
+	Modules      int     `json:"modules"`
+	KWp          float64 `json:"kwp"`
+}
+
+// Check is one electrical check of the reported layout.
+type Check struct {
+	Severity string  `json:"severity"` // error | warning | info
+	Subject  string  `json:"subject"`
+	Message  string  `json:"message"`
+	Value    float64 `json:"value"`
+	Limit    float64 `json:"limit"`
+	Unit     string  `json:"unit"`
+}
+
+// Cautions are shown wherever the tool gives a voltage, current or layout.
+var Cautions = []string{
+	"This is an estimate, not a design: local codes, the equipment's instructions and a licensed installer have the final word on every voltage, current, layout and fixing.",
+	"PV modules make voltage whenever light falls on them; a string's DC voltage can be lethal and cannot be switched off at the modules. DC arcs do not extinguish themselves and can start fires: only qualified people may connect or disconnect DC circuits, and never under load.",
+	"Working on roofs risks falls: use edge protection or fall arrest, never work alone, and keep off fragile roof areas and skylights.",
+	"String voltages are checked at the coldest expected temperature given in the site file; a colder morning raises the open-circuit voltage further.",
+	"Keep fire-service access paths and setbacks required locally; they may be wider than the setback used here.",
+}
+
+// JSON returns the document, indented, with numbers rounded for people (and stable across
+// runs: the same inputs give the same bytes).
+func (s *Summary) JSON() ([]byte, error) {
+	c := *s
+	if c.Warnings == nil {
+		c.Warnings = []string{}
+	}
+	if c.Checks == nil {
+		c.Checks = []Check{}
+	}
+	if c.Layouts == nil {
+		c.Layouts = []Layout{}
+	}
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode(roundAll(c)); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
+
+// Round rounds x to d decimals.
+func Round(x float64, d int) float64 {
+	p := math.Pow(10, float64(d))
+	return math.Round(x*p) / p
+}
+
+func roundAll(s Summary) Summary {
+	s.DCkWp = Round(s.DCkWp, 3)
+	s.Climate.AnnualGHIkWhM2 = Round(s.Climate.AnnualGHIkWhM2, 1)
+	s.AnnualACkWh = Round(s.AnnualACkWh, 1)
+	s.SpecificYield = Round(s.SpecificYield, 1)
+	s.PerformanceRatio = Round(s.PerformanceRatio, 4)
+	for i := range s.MonthlyACkWh {
+		s.MonthlyACkWh[i] = Round(s.MonthlyACkWh[i], 1)
+		s.MonthlyUnshaded[i] = Round(s.MonthlyUnshaded[i], 1)
+	}
+	s.Losses = append([]Loss(nil), s.Losses...)
+	for i := range s.Losses {
+		s.Losses[i].KWh = Round(s.Losses[i].KWh, 1)
+		s.Losses[i].Pct = Round(s.Losses[i].Pct, 2)
+	}
+	s.Layouts = append([]Layout(nil), s.Layouts...)
+	for i := range s.Layouts {
+		l := &s.Layouts[i]
+		l.AnnualACkWh = Round(l.AnnualACkWh, 1)
+		l.ShadeLossPct = Round(l.ShadeLossPct, 2)
+		l.BehindBestKWh = Round(l.BehindBestKWh, 1)
+		l.CableM = Round(l.CableM, 1)
+	}
+	s.ModuleResults = append([]ModuleResult(nil), s.ModuleResults...)
+	for i := range s.ModuleResults {
+		m := &s.ModuleResults[i]
+		m.AnnualPOAkWhM2 = Round(m.AnnualPOAkWhM2, 1)
+		m.ShadeLossPct = Round(m.ShadeLossPct, 2)
+		m.BeamShadeLossPct = Round(m.BeamShadeLossPct, 2)
+		m.SolarAccessPct = Round(m.SolarAccessPct, 2)
+		m.SkyViewPct = Round(m.SkyViewPct, 1)
+	}
+	s.Faces = append([]Face(nil), s.Faces...)
+	for i := range s.Faces {
+		f := &s.Faces[i]
+		f.PitchDeg, f.AspectDeg = Round(f.PitchDeg, 1), Round(f.AspectDeg, 1)
+		f.PlanAreaM2, f.SlopedAreaM2 = Round(f.PlanAreaM2, 2), Round(f.SlopedAreaM2, 2)
+		f.KWp = Round(f.KWp, 3)
+	}
+	s.Checks = append([]Check(nil), s.Checks...)
+	for i := range s.Checks {
+		s.Checks[i].Value = Round(s.Checks[i].Value, 2)
+		s.Checks[i].Limit = Round(s.Checks[i].Limit, 2)
+	}
+	return s
+}
