@@ -26,7 +26,8 @@ const bisectSteps = 13
 // length interval. It evaluates the sun at every boundary and midpoint; where the sun rises or
 // sets inside an interval it finds the crossing by bisection, so the sunlit part is known to
 // within a second. The mean cosine over the interval is Simpson's rule over the sunlit part
-// (the cosine is zero at the crossings).
+// (the cosine is zero at the crossings). All bisections advance together, one sun.AtEach call
+// a step, so that the year's crossings share the sun package's per-day work.
 func sunOver(ends []time.Time, interval time.Duration, obs sun.Observer) []intervalSun {
 	n := len(ends)
 	if n == 0 {
@@ -38,86 +39,126 @@ func sunOver(ends []time.Time, interval time.Duration, obs sun.Observer) []inter
 		ts = append(ts, e.Add(-interval/2), e)
 	}
 	pos := sun.AtEach(ts, obs)
+
+	// Crossing searches: each has a bracket [lo, hi] with the sun's state at lo.
+	type search struct {
+		lo, hi time.Time
+		upLo   bool
+	}
+	var searches []search
+	find := func(lo, hi time.Time, upLo bool) int {
+		searches = append(searches, search{lo, hi, upLo})
+		return len(searches) - 1
+	}
+	// part records, per interval, which searches give the ends of its sunlit part (-1: the
+	// interval's own end).
+	type part struct{ a, b, c1, c2 int }
+	parts := make([]part, n)
 	out := make([]intervalSun, n)
 	for i := range ends {
 		p0, pm, p1 := pos[2*i], pos[2*i+1], pos[2*i+2]
-		t0, t1 := ts[2*i], ts[2*i+2]
-		out[i] = intervalFrom(t0, t1, p0, pm, p1, obs)
-	}
-	return out
-}
-
-func intervalFrom(t0, t1 time.Time, p0, pm, p1 sun.Position, obs sun.Observer) intervalSun {
-	tm := t0.Add(t1.Sub(t0) / 2)
-	length := t1.Sub(t0).Seconds()
-	u0, um, u1 := p0.Up(), pm.Up(), p1.Up()
-	var is intervalSun
-	at := tm
-	switch {
-	case u0 && um && u1:
-		is.frac = 1
-		is.pos = pm
-		is.meanC = (cosUp(p0) + 4*cosUp(pm) + cosUp(p1)) / 6
-	case !u0 && !um && !u1:
-		is.pos = pm
-	default:
-		// The sunlit part [a, b]: its ends are the interval's ends where the sun is up, and
-		// crossings found by bisection otherwise. Twice-crossing intervals (the sun grazing
-		// the horizon near the poles) keep the longer sunlit piece.
-		a, b := t0, t1
+		t0, tm, t1 := ts[2*i], ts[2*i+1], ts[2*i+2]
+		u0, um, u1 := p0.Up(), pm.Up(), p1.Up()
+		pt := part{-1, -1, -1, -1}
 		switch {
+		case u0 && um && u1:
+			out[i] = intervalSun{frac: 1, pos: pm, meanC: (cosUp(p0) + 4*cosUp(pm) + cosUp(p1)) / 6, doy: tm.UTC().YearDay()}
+		case !u0 && !um && !u1:
+			out[i] = intervalSun{pos: pm, doy: tm.UTC().YearDay()}
 		case !u0 && um && u1:
-			a = crossing(t0, tm, obs)
+			pt.a = find(t0, tm, false)
 		case u0 && um && !u1:
-			b = crossing(tm, t1, obs)
+			pt.b = find(tm, t1, true)
 		case !u0 && um && !u1:
-			a, b = crossing(t0, tm, obs), crossing(tm, t1, obs)
+			pt.a, pt.b = find(t0, tm, false), find(tm, t1, true)
 		case !u0 && !um && u1:
-			a = crossing(tm, t1, obs)
+			pt.a = find(tm, t1, false)
 		case u0 && !um && !u1:
-			b = crossing(t0, tm, obs)
-		default: // up, down, up
-			c1, c2 := crossing(t0, tm, obs), crossing(tm, t1, obs)
-			if c1.Sub(t0) >= t1.Sub(c2) {
+			pt.b = find(t0, tm, true)
+		default: // up, down, up: the sun grazing the horizon near the poles
+			pt.c1, pt.c2 = find(t0, tm, true), find(tm, t1, false)
+		}
+		parts[i] = pt
+	}
+	if len(searches) == 0 {
+		finishCos(out)
+		return out
+	}
+	probe := make([]time.Time, len(searches))
+	for range bisectSteps {
+		for k, sr := range searches {
+			probe[k] = sr.lo.Add(sr.hi.Sub(sr.lo) / 2)
+		}
+		ps := sun.AtEach(probe, obs)
+		for k := range searches {
+			if ps[k].Up() == searches[k].upLo {
+				searches[k].lo = probe[k]
+			} else {
+				searches[k].hi = probe[k]
+			}
+		}
+	}
+	at := func(k int) time.Time { return searches[k].lo.Add(searches[k].hi.Sub(searches[k].lo) / 2) }
+
+	// Sunlit parts and their midpoints, evaluated together.
+	type lit struct {
+		i    int
+		a, b time.Time
+	}
+	var lits []lit
+	for i, pt := range parts {
+		if pt == (part{-1, -1, -1, -1}) {
+			continue
+		}
+		a, b := ts[2*i], ts[2*i+2]
+		if pt.a >= 0 {
+			a = at(pt.a)
+		}
+		if pt.b >= 0 {
+			b = at(pt.b)
+		}
+		if pt.c1 >= 0 { // keep the longer of the two sunlit pieces
+			c1, c2 := at(pt.c1), at(pt.c2)
+			if c1.Sub(a) >= b.Sub(c2) {
 				b = c1
 			} else {
 				a = c2
 			}
 		}
-		at = a.Add(b.Sub(a) / 2)
-		is.pos = sun.At(at, obs)
-		is.frac = b.Sub(a).Seconds() / length
+		lits = append(lits, lit{i, a, b})
+	}
+	mids := make([]time.Time, len(lits))
+	for k, l := range lits {
+		mids[k] = l.a.Add(l.b.Sub(l.a) / 2)
+	}
+	mp := sun.AtEach(mids, obs)
+	for k, l := range lits {
+		i := l.i
+		t0, t1 := ts[2*i], ts[2*i+2]
+		is := intervalSun{pos: mp[k], frac: l.b.Sub(l.a).Seconds() / t1.Sub(t0).Seconds(), doy: mids[k].UTC().YearDay()}
 		ca, cb := 0.0, 0.0
-		if a.Equal(t0) {
-			ca = cosUp(p0)
+		if l.a.Equal(t0) {
+			ca = cosUp(pos[2*i])
 		}
-		if b.Equal(t1) {
-			cb = cosUp(p1)
+		if l.b.Equal(t1) {
+			cb = cosUp(pos[2*i+2])
 		}
 		is.meanC = is.frac * (ca + 4*cosUp(is.pos) + cb) / 6
+		out[i] = is
 	}
-	is.cosZ = cosUp(is.pos)
-	if is.frac > 0 && is.cosZ == 0 {
-		// Refraction lifts the sun above the horizon while cos of the zenith rounds to zero:
-		// treat such slivers as dark rather than divide by a vanishing cosine.
-		is.frac, is.meanC = 0, 0
-	}
-	is.doy = at.UTC().YearDay()
-	return is
+	finishCos(out)
+	return out
 }
 
-// crossing returns the instant in [lo, hi] where the sun's Up state changes.
-func crossing(lo, hi time.Time, obs sun.Observer) time.Time {
-	upLo := sun.At(lo, obs).Up()
-	for range bisectSteps {
-		mid := lo.Add(hi.Sub(lo) / 2)
-		if sun.At(mid, obs).Up() == upLo {
-			lo = mid
-		} else {
-			hi = mid
+// finishCos sets cos Z. Refraction can lift the sun above the horizon while the cosine of its
+// zenith rounds to zero: such slivers count as dark rather than divide by a vanishing cosine.
+func finishCos(out []intervalSun) {
+	for i := range out {
+		out[i].cosZ = cosUp(out[i].pos)
+		if out[i].frac > 0 && out[i].cosZ == 0 {
+			out[i].frac, out[i].meanC = 0, 0
 		}
 	}
-	return lo.Add(hi.Sub(lo) / 2)
 }
 
 func cosUp(p sun.Position) float64 {
