@@ -161,7 +161,8 @@ func sandiaAC(s SandiaParams, pdc, vdc float64) float64 {
 
 // EuropeanEfficiency returns the European weighted efficiency of eff, a
 // function of load fraction: ηEU = 0.03η5% + 0.06η10% + 0.13η20% + 0.10η30%
-// + 0.48η50% + 0.20η100% (the weights published with EN 50530).
+// + 0.48η50% + 0.20η100% (the European weighting, restated in EN 50530;
+// from memory).
 func EuropeanEfficiency(eff func(loadFrac float64) float64) float64 {
 	loads := [...]float64{0.05, 0.10, 0.20, 0.30, 0.50, 1.00}
 	weights := [...]float64{0.03, 0.06, 0.13, 0.10, 0.48, 0.20}

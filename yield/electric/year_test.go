@@ -1,0 +1,331 @@
+package electric
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+)
+
+// shadeYear builds a Year of n modules over steps with a seeded shade
+// pattern: a daily sine of irradiance, and in a fraction of the steps a
+// shadow edge crossing some modules (a few rows dark, one row partial).
+func shadeYear(tb testing.TB, m *Module, n, steps int, shadeFrac float64, seed uint64) *Year {
+	tb.Helper()
+	cols, rows := m.Grid()
+	y, err := NewYear(m, n, steps, func(s int, d *StepInput) {
+		rng := rand.New(rand.NewPCG(seed, uint64(s)))
+		g := 50 + 950*math.Abs(math.Sin(float64(s)*0.27))
+		tc := 10 + 0.03*g
+		shaded := rng.Float64() < shadeFrac
+		first, count := rng.IntN(n), 1+rng.IntN(n/4+1)
+		depth := rng.IntN(rows)
+		for k := range n {
+			for c := range d.CellIrr[k] {
+				d.CellIrr[k][c] = g
+			}
+			d.TempC[k] = tc
+			d.UnshadedIrr[k] = g
+			if shaded && k >= first && k < first+count {
+				for r := range depth {
+					for c := range cols {
+						d.CellIrr[k][r*cols+c] = 0.15 * g
+					}
+				}
+				for c := range cols {
+					d.CellIrr[k][depth*cols+c] = g * (0.15 + 0.85*float64(c)/float64(cols))
+				}
+			}
+		}
+	})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return y
+}
+
+func layout6x20() Layout {
+	var l Layout
+	for a := range 2 {
+		var in [][]int
+		for b := range 3 {
+			str := make([]int, 20)
+			for k := range str {
+				str[k] = (a*3+b)*20 + k
+			}
+			in = append(in, str)
+		}
+		l.Inputs = append(l.Inputs, in)
+	}
+	return l
+}
+
+var bigInverter = Inverter{ACPowerW: 50000, MaxDCVoltageV: 1000, MPPTMinV: 200, MPPTMaxV: 900, Inputs: 2,
+	MaxInputCurrentA: 60, Efficiency: []EffPoint{{1, 0.97}}}
+
+func TestYearUnshaded(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	y := shadeYear(t, m, 120, 50, 0, 1)
+	if y.Curves() != 50 {
+		t.Errorf("unshaded steps must share one curve a step: %d curves", y.Curves())
+	}
+	r, err := y.Evaluate(layout6x20(), bigInverter, EvalOptions{NightHours: -1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var modSum float64
+	for _, e := range y.ModuleDCWh() {
+		modSum += e
+	}
+	tests := []struct {
+		name      string
+		got, want float64
+		tol       float64
+	}{
+		// No shade: the layout's DC is the sum of its modules' (float32 storage).
+		{"DC = Σ modules", r.DCWh, modSum, 1e-4},
+		{"DC = unshaded", r.DCWh, r.UnshadedDCWh, 1e-4},
+		// Flat 97 %, no clipping at ≤ 48 kW DC.
+		{"AC = 0.97 DC", r.ACWh, 0.97 * r.DCWh, 1e-9},
+		{"no window loss", r.WindowLossWh, 0, 1e-9},
+		{"no current loss", r.CurrentLimitLossWh, 0, 1e-9},
+		{"no night", r.NightWh, 0, 1e-9},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if !scalar.EqualWithinAbsOrRel(tc.got, tc.want, 1e-6, tc.tol) {
+				t.Errorf("got %.3f, want %.3f", tc.got, tc.want)
+			}
+		})
+	}
+}
+
+// TestYearProperties: seeded shade. Energy is never negative, never above
+// the unshaded modules, module-level electronics (before conversion loss)
+// never below string inverters, and the loss terms add up.
+func TestYearProperties(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for seed := range uint64(4) {
+		y := shadeYear(t, m, 120, 60, 0.7, seed)
+		l := layout6x20()
+		r, err := y.Evaluate(l, bigInverter, EvalOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ml, err := y.Evaluate(l, bigInverter, EvalOptions{ModuleLevel: true, ModuleLevelEff: 1})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if r.DCWh < 0 || r.DCWh > r.UnshadedDCWh || ml.DCWh < r.DCWh*(1-1e-6) || ml.DCWh > r.UnshadedDCWh*(1+1e-6) {
+			t.Errorf("seed %d: DC %g, module-level %g, unshaded %g", seed, r.DCWh, ml.DCWh, r.UnshadedDCWh)
+		}
+		sum := r.DCWh + r.WindowLossWh + r.CurrentLimitLossWh + r.TrackerLossWh
+		if !scalar.EqualWithinRel(sum, r.GlobalDCWh, 1e-9) {
+			t.Errorf("seed %d: losses do not add up: %g vs %g", seed, sum, r.GlobalDCWh)
+		}
+		var steps float64
+		for _, e := range r.StepACWh {
+			if e < 0 {
+				t.Fatalf("negative step energy %g", e)
+			}
+			steps += e
+		}
+		if !scalar.EqualWithinRel(steps, r.ACWh, 1e-9) {
+			t.Errorf("step energies %g vs total %g", steps, r.ACWh)
+		}
+	}
+}
+
+// TestYearLimits: a window above the string voltage and a tight current
+// limit cost energy in their own loss terms; clipping caps AC.
+func TestYearLimits(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	y := shadeYear(t, m, 120, 20, 0, 3)
+	l := layout6x20()
+	tests := []struct {
+		name  string
+		inv   func(*Inverter)
+		check func(YearResult) bool
+	}{
+		// 20 × ~31 V ≈ 620 V MPP; a 700 V floor forces the point up the curve.
+		{"window", func(i *Inverter) { i.MPPTMinV = 700 }, func(r YearResult) bool { return r.WindowLossWh > 0.05*r.GlobalDCWh }},
+		// 3 strings × ~13 A = 39 A > 20 A.
+		{"current", func(i *Inverter) { i.MaxInputCurrentA = 20 }, func(r YearResult) bool { return r.CurrentLimitLossWh > 0.2*r.GlobalDCWh }},
+		{"clipping", func(i *Inverter) { i.ACPowerW = 20000 }, func(r YearResult) bool {
+			return r.ClippedWh > 0 && r.ACWh <= 20000*20*(1+1e-9)
+		}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			inv := bigInverter
+			tc.inv(&inv)
+			r, err := y.Evaluate(l, inv, EvalOptions{NightHours: -1})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !tc.check(r) {
+				t.Errorf("%+v", r)
+			}
+		})
+	}
+}
+
+// TestTrackerStuck: the regression module with one cell at half light
+// (REFERENCES.md): the global maximum is the high-current point (172.1 W),
+// a local one near half current sits at a higher voltage. A hill climber
+// starting from 80 % of Voc climbs onto the local one and stays there.
+func TestTrackerStuck(t *testing.T) {
+	m := bypassCase()
+	y, err := NewYear(m, 1, 5, func(s int, d *StepInput) {
+		for c := range d.CellIrr[0] {
+			d.CellIrr[0][c] = 1000
+		}
+		d.CellIrr[0][0] = 500
+		d.TempC[0] = 25
+		d.UnshadedIrr[0] = 1000
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	inv := Inverter{ACPowerW: 1000, MaxDCVoltageV: 60, MPPTMinV: 5, MPPTMaxV: 50, Inputs: 1, MaxInputCurrentA: 20, Efficiency: []EffPoint{{1, 1}}}
+	l := Layout{Inputs: [][][]int{{{0}}}}
+	g, err := y.Evaluate(l, inv, EvalOptions{NightHours: -1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := y.Evaluate(l, inv, EvalOptions{Tracker: LocalClimb, NightHours: -1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	local := maxLocal(m, 28)
+	tests := []struct {
+		name      string
+		got, want float64
+		tol       float64
+	}{
+		{"global", g.DCWh, 5 * 172.1, 0.5}, // [calc] REFERENCES.md
+		{"stuck", c.DCWh, 5 * local, 1e-3}, // the local maximum
+		{"cost", c.TrackerLossWh, g.DCWh - c.DCWh, 1e-6},
+		{"no tracker loss for global", g.TrackerLossWh, 0, 1e-12},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if !scalar.EqualWithinAbs(tc.got, tc.want, tc.tol) {
+				t.Errorf("got %.3f, want %.3f", tc.got, tc.want)
+			}
+		})
+	}
+	if c.TrackerLossWh < 5*10 {
+		t.Errorf("tracker loss %.1f Wh, want at least 10 W a step", c.TrackerLossWh)
+	}
+}
+
+func maxLocal(m *Module, vmin float64) float64 {
+	irr := uniformIrr(60, 1000)
+	irr[0] = 500
+	p, _, _ := m.Curve(irr, 25).MaxPower(vmin, math.Inf(1))
+	return p
+}
+
+func TestYearBadInput(t *testing.T) {
+	m := bypassCase()
+	if _, err := NewYear(m, 1, 1, func(s int, d *StepInput) { d.CellIrr[0][3] = math.NaN() }); err == nil {
+		t.Error("NaN irradiance accepted")
+	}
+	if _, err := NewYear(m, 1, 1, func(s int, d *StepInput) { d.CellIrr[0] = nil }); err == nil {
+		t.Error("short cell slice accepted")
+	}
+	if _, err := NewYear(nil, 1, 1, nil); err == nil {
+		t.Error("nil module accepted")
+	}
+	y, err := NewYear(m, 2, 1, func(s int, d *StepInput) {})
+	if err != nil {
+		t.Fatal(err)
+	}
+	inv := Inverter{ACPowerW: 1000, MaxDCVoltageV: 60, MPPTMinV: 5, MPPTMaxV: 50, Inputs: 1, MaxInputCurrentA: 20}
+	for _, l := range []Layout{
+		{Inputs: [][][]int{{{0, 2}}}},
+		{Inputs: [][][]int{{{0, 0}}}},
+		{Inputs: [][][]int{{{0}}, {{1}}}},
+		{Inputs: [][][]int{{{}}}},
+	} {
+		if _, err := y.Evaluate(l, inv, EvalOptions{}); err == nil {
+			t.Errorf("layout %v accepted", l)
+		}
+	}
+	// Dark year: no energy, night consumption over the whole year.
+	inv.NightW = 2
+	r, err := y.Evaluate(Layout{Inputs: [][][]int{{{0, 1}}}}, inv, EvalOptions{})
+	if err != nil || r.ACWh != 0 || !scalar.EqualWithinAbs(r.NightWh, 2*8760, 1e-9) {
+		t.Errorf("dark year: %+v, %v", r, err)
+	}
+}
+
+func BenchmarkModuleCurve(b *testing.B) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, bc := range []struct {
+		name string
+		irr  []float64
+	}{
+		{"unshaded", uniformIrr(120, 900)},
+		{"shadow-edge", func() []float64 {
+			irr := uniformIrr(120, 900)
+			for r := range 3 {
+				for c := range 6 {
+					irr[r*6+c] = 120
+				}
+			}
+			for c := range 6 {
+				irr[18+c] = 120 + 130*float64(c) // partial row
+			}
+			return irr
+		}()},
+	} {
+		b.Run(bc.name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				m.Curve(bc.irr, 40)
+			}
+		})
+	}
+}
+
+func BenchmarkYearEvaluate(b *testing.B) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		b.Fatal(err)
+	}
+	y := shadeYear(b, m, 120, 4400, 0.3, 7)
+	l := layout6x20()
+	b.ReportAllocs()
+	b.ResetTimer()
+	for b.Loop() {
+		if _, err := y.Evaluate(l, bigInverter, EvalOptions{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkNewYear(b *testing.B) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		shadeYear(b, m, 120, 4400, 0.3, 7)
+	}
+}
