@@ -39,15 +39,19 @@ type Geocentric struct {
 // GeocentricAt evaluates the geocentric part of the SPA at Julian Day jd (UT) with
 // TT − UT = deltaTSec seconds.
 func GeocentricAt(jd, deltaTSec float64) Geocentric {
+	jme := (jd + deltaTSec/86400 - j2000) / 365250
+	// Eqs. 9–11: heliocentric coordinates from the truncated VSOP87 series.
+	return geocentricFrom(jd, deltaTSec, series(earthL[:], jme), series(earthB[:], jme), series(earthR[:], jme))
+}
+
+// geocentricFrom completes GeocentricAt from the sums of the heliocentric series: L and B in
+// radians, R in AU.
+func geocentricFrom(jd, deltaTSec, lRad, bRad, r float64) Geocentric {
 	g := Geocentric{JD: jd, JDE: jd + deltaTSec/86400}
 	jc := (jd - j2000) / 36525
 	jce := (g.JDE - j2000) / 36525
 	jme := jce / 10
 
-	// Eqs. 9–11: heliocentric coordinates from the truncated VSOP87 series.
-	lRad := series(earthL[:], jme)
-	bRad := series(earthB[:], jme)
-	r := series(earthR[:], jme)
 	lDeg := normDeg(lRad / deg)
 	bDeg := bRad / deg
 	g.HelioLon = s1.Angle(lDeg * deg)

@@ -171,15 +171,23 @@ func newSite(o Observer) site {
 func (s *site) position(jd float64, a apparent) Position {
 	hDeg := normDeg(a.nuDeg + s.lonDeg - a.alphaDeg) // eq. 32
 	xi := 8.794 / (3600 * a.r) * deg                 // eq. 33, equatorial horizontal parallax
-	sinXi := math.Sin(xi)
+	// ξ and the parallax in right ascension Δα stay below 5e-5 rad, so their sines, cosines
+	// and arc tangents are taken from Taylor series (exact to 1e-19 rad): AtEach runs this per
+	// instant, and these save half its trigonometric calls.
+	sinXi := xi - xi*xi*xi/6
 	sinH, cosH := math.Sincos(hDeg * deg)
 	sinD, cosD := math.Sincos(a.deltaRad)
-	den := cosD - s.x*sinXi*cosH
-	dAlpha := math.Atan2(-s.x*sinXi*sinH, den)                   // eq. 40
-	deltaP := math.Atan2((sinD-s.y*sinXi)*math.Cos(dAlpha), den) // eq. 41
-	hP := hDeg*deg - dAlpha                                      // eq. 43
-	sinHp, cosHp := math.Sincos(hP)
-	sinDp, cosDp := math.Sincos(deltaP)
+	den := cosD - s.x*sinXi*cosH // > 0: the sun's |δ| < 24°
+	z := -s.x * sinXi * sinH / den
+	dAlpha := z - z*z*z/3 // eq. 40
+	sinDA, cosDA := dAlpha-dAlpha*dAlpha*dAlpha/6, 1-dAlpha*dAlpha/2
+	num := (sinD - s.y*sinXi) * cosDA
+	deltaP := math.Atan2(num, den) // eq. 41
+	hyp := math.Sqrt(num*num + den*den)
+	sinDp, cosDp := num/hyp, den/hyp
+	hP := hDeg*deg - dAlpha // eq. 43
+	sinHp := sinH*cosDA - cosH*sinDA
+	cosHp := cosH*cosDA + sinH*sinDA
 	e0 := math.Asin(s.sinLat*sinDp+s.cosLat*cosDp*cosHp) / deg // eq. 44
 	de := refraction(e0, s.pressureMbar, s.tempC)              // eq. 45
 	gamma := math.Atan2(sinHp, cosHp*s.sinLat-sinDp/cosDp*s.cosLat)
