@@ -171,7 +171,7 @@ func (p *project) loadWeather() (*weather.Series, error) {
 		case ".epw":
 			s, err = weather.ReadEPW(bytes.NewReader(b), wp)
 		case ".csv":
-			s, err = weather.ReadCSV(bytes.NewReader(b), wp)
+			s, err = weather.ReadCSVAt(bytes.NewReader(b), wp, ws)
 		default:
 			return nil, inputError{fmt.Errorf("%s: climate.file: the weather file must end in .epw or .csv", cfg.File)}
 		}
