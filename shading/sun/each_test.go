@@ -75,6 +75,21 @@ func TestAtEachMatchesAt(t *testing.T) {
 	}
 }
 
+func TestAtEachTableA51(t *testing.T) {
+	// The worked example of Table A5.1 (Reda & Andreas 2004, rev. 2008) through the
+	// interpolating path: zenith 50.11162°, azimuth 194.34024°, printed to 5 decimals.
+	tm, o := spaExample()
+	var ts []time.Time
+	for h := -36; h <= 36; h++ {
+		ts = append(ts, tm.Add(time.Duration(h)*time.Hour+17*time.Minute))
+	}
+	ts = append(ts, tm)
+	p := AtEach(ts, o)[len(ts)-1]
+	if !scalar.EqualWithinAbs(p.Zenith.Degrees(), 50.11162, 5e-6) || !scalar.EqualWithinAbs(p.Azimuth.Degrees(), 194.34024, 5e-6) {
+		t.Errorf("AtEach at the example: zenith %.6f azimuth %.6f, want 50.11162 194.34024 ± 5e-6", p.Zenith.Degrees(), p.Azimuth.Degrees())
+	}
+}
+
 func TestAtEachSparseAndEmpty(t *testing.T) {
 	if got := AtEach(nil, Observer{}); len(got) != 0 {
 		t.Errorf("AtEach(nil) returned %d positions", len(got))
