@@ -32,7 +32,7 @@ type Geocentric struct {
 
 	// SiderealTime is ν, the apparent sidereal time at Greenwich, [0, 360°).
 	SiderealTime s1.Angle
-	// meanLonDeg is M of eq. A1 (equation of time), degrees, not reduced.
+	// meanLonDeg is M of eq. A2 (for the equation of time), degrees, not reduced.
 	meanLonDeg float64
 }
 

@@ -33,6 +33,9 @@ func RiseTransitSet(day time.Time, o Observer) Day {
 	var out Day
 	var found [3]bool
 	for _, k := range [...]int{0, -1, 1} {
+		if found[0] && (found[1] && found[2] || out.PolarDay || out.PolarNight) {
+			break
+		}
 		day0 := time.Date(uy, um, ud+k, 0, 0, 0, 0, time.UTC)
 		ev, polar := rtsUTDay(JulianDay(day0), o, o.deltaT(day0))
 		if k == 0 {
