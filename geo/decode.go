@@ -33,6 +33,10 @@ const (
 	EaveAgreeM     = 0.15
 	// MaxMapBytes bounds the map read into memory.
 	MaxMapBytes = 64 << 20
+	// maxFeatures and maxRingPositions bound the work of the pairwise checks (crossing
+	// edges, overlapping faces), which grow with the square of the count.
+	maxFeatures      = 5000
+	maxRingPositions = 2000
 	// overlapTolM is how deep one face may reach into another in plan before it counts as an
 	// overlap: drawings snap to a few centimetres at best.
 	overlapTolM = 0.02
@@ -223,6 +227,10 @@ func (d *decoder) structure(root *jnode) []*rawFeature {
 		d.problem(orNode(fs, root), -1, "", "features", "a FeatureCollection needs a features array")
 		return nil
 	}
+	if len(fs.vals) > maxFeatures {
+		d.problem(fs, -1, "", "features", fmt.Sprintf("%d features; a site map has at most %d", len(fs.vals), maxFeatures))
+		return nil
+	}
 	var out []*rawFeature
 	ids := map[string]int{}
 	for i, fn := range fs.vals {
@@ -363,6 +371,10 @@ func (d *decoder) geometry(f *rawFeature) {
 	rn := c.vals[0]
 	if rn.kind != 'a' {
 		d.fproblem(f, rn, "geometry", "a ring must be an array of positions, got "+rn.typeName())
+		return
+	}
+	if len(rn.vals) > maxRingPositions {
+		d.fproblem(f, rn, "geometry", fmt.Sprintf("%d positions; an outline on a site map has at most %d", len(rn.vals), maxRingPositions))
 		return
 	}
 	ring := make([]rawPos, 0, len(rn.vals))
