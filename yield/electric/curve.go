@@ -241,7 +241,18 @@ func polyMax(is, vs []float64, vlo, vhi, imax float64) (pW, vV, iA float64) {
 	for j := range n - 1 {
 		ia, va, ib, vb := is[j], vs[j], is[j+1], vs[j+1]
 		// Cheap bound: power on the segment is at most max(I)·max(V).
-		if ib <= 0 || va <= vlo && vb < vlo || math.Min(ib, imax)*math.Min(va, vhi) <= pW {
+		if ib <= 0 || va <= vlo && vb < vlo {
+			continue
+		}
+		// Plain comparisons: math.Min's NaN handling is slow in this loop.
+		bi, bv := ib, va
+		if imax < bi {
+			bi = imax
+		}
+		if vhi < bv {
+			bv = vhi
+		}
+		if bi*bv <= pW {
 			continue
 		}
 		di, dv := ib-ia, vb-va

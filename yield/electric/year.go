@@ -210,22 +210,17 @@ func NewYear(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (
 	return y, nil
 }
 
-// hashCells is FNV-1a over the bits of the irradiances and temperature.
+// hashCells mixes the bits of the irradiances and temperature a 64-bit word
+// at a time (multiply and xor-shift); equal inputs give equal hashes, and
+// NewYear compares the values on a hash match, so collisions cost only time.
 func hashCells(irr []float64, t float64) uint64 {
 	h := uint64(14695981039346656037)
-	mix := func(x float64) {
-		b := math.Float64bits(x)
-		for range 8 {
-			h ^= b & 0xff
-			h *= 1099511628211
-			b >>= 8
-		}
-	}
 	for _, x := range irr {
-		mix(x)
+		h = (h ^ math.Float64bits(x)) * 0x9E3779B97F4A7C15
+		h ^= h >> 29
 	}
-	mix(t)
-	return h
+	h = (h ^ math.Float64bits(t)) * 0x9E3779B97F4A7C15
+	return h ^ h>>32
 }
 
 // Modules returns the number of modules.
@@ -337,9 +332,16 @@ func (y *Year) Evaluate(l Layout, inv Inverter, opt EvalOptions) (YearResult, er
 			}
 			for a, in := range l.Inputs {
 				is, vs := y.inputCurve(&sc, row, in)
-				pG, _, _ := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
-				pW, _, _ := polyMax(is, vs, vmin, vmax, math.Inf(1))
-				pC, vC, _ := polyMax(is, vs, vmin, vmax, imax)
+				pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
+				pW, pC, vC := pG, pG, vG
+				// Usually the global maximum is inside the window and the
+				// current limit: then the constrained searches are not needed.
+				if vG < vmin || vG > vmax {
+					pW, _, _ = polyMax(is, vs, vmin, vmax, math.Inf(1))
+					pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
+				} else if iG > imax {
+					pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
+				}
 				p, v := pC, vC
 				if opt.Tracker == LocalClimb {
 					p, v = climb(is, vs, prevV[a], vmin, vmax, imax)
