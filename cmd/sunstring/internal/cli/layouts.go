@@ -123,7 +123,7 @@ func fixedLayout(file string, li int, name string, strs [][]string, inputs []flo
 		if len(lens) > b.MaxParallel {
 			probs = append(probs, fmt.Sprintf("%s: %s: input %d has %d strings in parallel; its current limit allows %d", file, key, in+1, len(lens), b.MaxParallel))
 		}
-		for _, n := range lens[1:] {
+		for _, n := range lens {
 			if n != lens[0] {
 				probs = append(probs, fmt.Sprintf("%s: %s: input %d has parallel strings of %v modules; strings in parallel must be of equal length", file, key, in+1, lens))
 				break

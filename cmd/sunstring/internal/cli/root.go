@@ -3,6 +3,7 @@ package cli
 import (
 	"errors"
 	"fmt"
+	"strings"
 
 	"github.com/spf13/cobra"
 )
@@ -22,6 +23,10 @@ func ExitCode(err error) int {
 	}
 	var bi interface{ BadInput() bool }
 	if errors.As(err, &bi) && bi.BadInput() {
+		return 2
+	}
+	// cobra reports an unknown subcommand with a plain error of its own.
+	if strings.HasPrefix(err.Error(), "unknown command ") {
 		return 2
 	}
 	return 1
