@@ -38,6 +38,10 @@
 // paths give the same transmittances; the tests check per-module annual beam agreement
 // within 0.5 % on seeded random scenes anyway, to catch a culling bug.
 //
+// Cost (BenchmarkComputeBenchScene: 120 modules of 6×20 cells on four faces, 40 blocks, 15
+// trees, 4 380 sun-up hours): about 1.1 CPU-seconds on the fast path against 32 on the
+// brute-force path (28×), 12 MB of results, under 60 MB of process memory.
+//
 // # Diffuse
 //
 // Diffuse traces, from the module's centre, a grid of directions over the sphere (2° of
