@@ -8,7 +8,42 @@ import (
 	"github.com/spf13/cobra"
 
 	"sunstring/geo"
+	"sunstring/yield/layout"
+	"sunstring/yield/report"
 )
+
+// checkElectrics gives the string-length window of the module and inverter and the checks of
+// every fixed layout; bad is an input error when a fixed layout breaks a limit.
+func (p *project) checkElectrics() (checks []report.Check, bad error, err error) {
+	cfg := p.Cfg
+	b, err := layout.StringBounds(p.Datasheet, p.Inverter, layout.Limits{
+		LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
+	})
+	if err != nil {
+		return nil, nil, inputError{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
+	}
+	checks = append(checks, report.Check{Severity: "info", Subject: "strings", Unit: "modules", Value: float64(b.MaxSeries), Limit: float64(b.MinSeries),
+		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %g °C cell); at most %d string(s) per input",
+			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), b.MaxParallel)})
+	index := make(map[string]int, len(p.Modules))
+	for i, m := range p.Modules {
+		index[m.ID] = i
+	}
+	for i, fl := range cfg.Layouts.Fixed {
+		l, err := fixedLayout(cfg.File, i, fl.Name, fl.Strings, fl.Inputs, index, p.Inverter.Inputs, b)
+		if err != nil {
+			return nil, nil, err
+		}
+		cs := p.electricalChecks(fl.Name, lengths(l))
+		for _, c := range cs {
+			if c.Severity == "error" && bad == nil {
+				bad = inputError{fmt.Errorf("%s: layouts.fixed[%d] (%q): %s", cfg.File, i, fl.Name, c.Message)}
+			}
+		}
+		checks = append(checks, cs...)
+	}
+	return checks, bad, nil
+}
 
 func newCheckCmd() *cobra.Command {
 	var asJSON bool
@@ -28,6 +63,10 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 			return err
 		}
 		faces := geo.Summarize(p.Site, p.Modules)
+		elec, bad, err := p.checkElectrics()
+		if err != nil {
+			return err
+		}
 		kw := p.Datasheet.PowerW / 1000
 		warnings := append(append([]string{}, p.Site.Warnings...), p.Notes...)
 		w := c.OutOrStdout()
@@ -37,12 +76,15 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 				KWp float64 `json:"kwp"`
 			}
 			out := struct {
-				Name     string   `json:"name"`
-				Faces    []face   `json:"faces"`
-				Modules  int      `json:"modules"`
-				KWp      float64  `json:"dc_kwp"`
-				Warnings []string `json:"warnings"`
-			}{Name: p.Cfg.Name, Modules: len(p.Modules), KWp: float64(len(p.Modules)) * kw, Warnings: warnings}
+				Name     string         `json:"name"`
+				Faces    []face         `json:"faces"`
+				Modules  int            `json:"modules"`
+				KWp      float64        `json:"dc_kwp"`
+				Warnings []string       `json:"warnings"`
+				Checks   []report.Check `json:"checks"`
+				Cautions []string       `json:"cautions"`
+			}{Name: p.Cfg.Name, Modules: len(p.Modules), KWp: float64(len(p.Modules)) * kw, Warnings: warnings,
+				Checks: elec, Cautions: report.Cautions}
 			for _, f := range faces {
 				out.Faces = append(out.Faces, face{f, float64(f.Modules) * kw})
 			}
@@ -51,7 +93,10 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 			}
 			enc := json.NewEncoder(w)
 			enc.SetIndent("", "  ")
-			return enc.Encode(out)
+			if err := enc.Encode(out); err != nil {
+				return err
+			}
+			return bad
 		}
 		fmt.Fprintf(w, "%s — %.5f, %.5f (%s)\n\n", p.Cfg.Name, p.LatDeg, p.LonDeg, p.Cfg.Timezone)
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
@@ -64,7 +109,15 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 		for _, s := range warnings {
 			fmt.Fprintln(w, "warning:", s)
 		}
-		return nil
+		fmt.Fprintln(w)
+		for _, ck := range elec {
+			fmt.Fprintf(w, "%-7s %s: %s\n", ck.Severity, ck.Subject, ck.Message)
+		}
+		fmt.Fprintln(w)
+		for _, ct := range report.Cautions {
+			fmt.Fprintln(w, "caution:", ct)
+		}
+		return bad
 	}
 	return c
 }

@@ -170,6 +170,7 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 		for _, l := range r.Losses {
 			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
 		}
+		s.Checks = p.electricalChecks(best.Name, lengths(best.Result.Layout))
 		for i, st := range best.Strings {
 			for _, id := range st {
 				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], i+1)

@@ -1,0 +1,86 @@
+package cli
+
+import (
+	"fmt"
+
+	"sunstring/yield/electric"
+	"sunstring/yield/layout"
+	"sunstring/yield/report"
+)
+
+// hotCellC is the hottest expected cell temperature: the hottest air plus the rise of a
+// roof-mounted module in full sun.
+func (p *project) hotCellC() float64 { return p.Cfg.Climate.HighTempC + layout.HotCellRiseK }
+
+// electricalChecks gives, for a layout's string lengths per inverter input, the numbers a
+// surveyor must see (open-circuit voltage at the coldest, MPP voltage at the hottest, input
+// current) and every limit broken, each in volts or amperes, and the leakage estimate for a
+// transformerless inverter.
+func (p *project) electricalChecks(name string, lens [][]int) []report.Check {
+	ds, inv := p.Datasheet, p.Inverter
+	low, hot := p.Cfg.Climate.LowTempC, p.hotCellC()
+	var out []report.Check
+	for a, ls := range lens {
+		if len(ls) == 0 {
+			continue
+		}
+		longest, shortest := ls[0], ls[0]
+		for _, n := range ls {
+			longest, shortest = max(longest, n), min(shortest, n)
+		}
+		subj := fmt.Sprintf("%s, input %d", name, a+1)
+		voc := float64(longest) * electric.VocAt(ds, low)
+		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "V", Value: voc, Limit: inv.MaxDCVoltageV,
+			Message: fmt.Sprintf("%d modules in series: %.1f V open circuit at %g °C (inverter maximum %.0f V)", longest, voc, low, inv.MaxDCVoltageV)})
+		if ms := p.Cfg.Module.MaxSystemVoltage; ms > 0 && voc > ms {
+			out = append(out, report.Check{Severity: "error", Subject: subj, Unit: "V", Value: voc, Limit: ms,
+				Message: fmt.Sprintf("%d modules reach %.1f V open circuit at %g °C, above the module's maximum system voltage %.0f V", longest, voc, low, ms)})
+		}
+		vmp := float64(shortest) * electric.VmpAt(ds, hot)
+		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "V", Value: vmp, Limit: inv.MPPTMinV,
+			Message: fmt.Sprintf("%d modules in series: %.1f V at the maximum power point at %g °C cell (MPPT minimum %.0f V)", shortest, vmp, hot, inv.MPPTMinV)})
+		cur := float64(len(ls)) * ds.ImpA
+		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "A", Value: cur, Limit: inv.MaxInputCurrentA,
+			Message: fmt.Sprintf("%d string(s) in parallel: %.1f A at the maximum power point (input limit %.1f A)", len(ls), cur, inv.MaxInputCurrentA)})
+	}
+	for _, f := range electric.CheckStrings(ds, lens, low, hot, inv) {
+		out = append(out, fromFinding(name, f))
+	}
+	if p.Cfg.Inverter.Transformerless && len(p.Modules) > 0 {
+		area := float64(len(p.Modules)) * p.Modules[0].AreaM2()
+		if lr, err := electric.Leakage(area, electric.LeakageAssumptions{RatedKVA: inv.ACPowerW / 1000}); err == nil {
+			out = append(out, report.Check{Severity: "info", Subject: "array", Unit: "mA", Value: lr.WetmA, Limit: 300,
+				Message: fmt.Sprintf("capacitive leakage with a transformerless inverter: about %.0f mA dry, %.0f mA wet (%.0f / %.0f nF to earth; assumed 20 / 100 nF per m² of module and 115 V common-mode at 50 Hz)",
+					lr.DrymA, lr.WetmA, lr.CapDryNF, lr.CapWetNF)})
+			for _, f := range lr.Findings {
+				out = append(out, fromFinding("array", f))
+			}
+		}
+	}
+	return out
+}
+
+func fromFinding(subject string, f electric.Finding) report.Check {
+	sev := "info"
+	switch f.Severity {
+	case electric.Error:
+		sev = "error"
+	case electric.Warning:
+		sev = "warning"
+	}
+	if f.Input >= 0 && subject != "array" {
+		subject = fmt.Sprintf("%s, input %d", subject, f.Input+1)
+	}
+	return report.Check{Severity: sev, Subject: subject, Message: f.Message, Value: f.Value, Limit: f.Limit, Unit: f.Unit}
+}
+
+// lengths returns the string lengths per input of a layout.
+func lengths(l electric.Layout) [][]int {
+	out := make([][]int, len(l.Inputs))
+	for a, in := range l.Inputs {
+		for _, s := range in {
+			out[a] = append(out[a], len(s))
+		}
+	}
+	return out
+}
