@@ -1,7 +1,3 @@
-//go:build meeusref
-
-// The comparisons in this file need github.com/soniakeys/unit listed in go.mod (a dependency of
-// the meeus module that go.mod does not yet require). Run with: go test -tags meeusref.
 
 package sun
 
