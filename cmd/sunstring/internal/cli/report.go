@@ -1,17 +1,37 @@
 package cli
 
 import (
+	"encoding/json"
 	"fmt"
+	"math"
+	"strings"
 
-	"gonum.org/v1/plot/vg"
+	"github.com/paulmach/orb"
 
 	"sunstring/geo"
+	"sunstring/shading"
 	"sunstring/yield"
 	"sunstring/yield/report"
 )
 
+// reportOptions are the survey flags that shape the report files.
+type reportOptions struct {
+	SVG    bool   // also write the charts as SVG
+	Paper  string // proposal paper: a4 or letter
+	Hourly bool   // also write hourly.csv
+}
+
+// checkPaper rejects a paper size the proposal cannot use, before the long simulation runs.
+func checkPaper(paper string) error {
+	switch strings.ToLower(paper) {
+	case "", "a4", "letter":
+		return nil
+	}
+	return usageError{fmt.Errorf("--paper %q: use a4 or letter", paper)}
+}
+
 // outputs renders every file of the report.
-func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, svg bool) (outputSet, error) {
+func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, opt reportOptions) (outputSet, error) {
 	files := outputSet{}
 	js, err := s.JSON()
 	if err != nil {
@@ -34,20 +54,171 @@ func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, 
 		return nil, fmt.Errorf("modules.geojson: %w", err)
 	}
 	files["modules.geojson"] = gj
-	note := ""
-	if s.Climate.Source == "indicative" {
-		note = "INDICATIVE: clear-sky year, no climate data"
+
+	// The PDF and the chart files show the same rounded figures as summary.json.
+	rs, err := roundedSummary(js)
+	if err != nil {
+		return nil, err
+	}
+	pr := &report.Proposal{Summary: rs, Plan: p.plan(s, ls), Paper: opt.Paper, Equipment: p.equipment()}
+	if pr.SunPath, err = p.sunPath(m, s); err != nil {
+		return nil, err
 	}
 	formats := []report.Format{report.PNG}
-	if svg {
+	if opt.SVG {
 		formats = append(formats, report.SVG)
 	}
-	for _, f := range formats {
-		b, err := report.Render(report.MonthlyChart(&s.MonthlyACkWh, &s.MonthlyUnshaded, note), 16*vg.Centimeter, 9*vg.Centimeter, f)
-		if err != nil {
-			return nil, err
+	for _, c := range pr.Charts() {
+		for _, f := range formats {
+			b, err := report.Render(c.Plot, c.W, c.H, f)
+			if err != nil {
+				return nil, fmt.Errorf("%s%s: %w", c.Name, f.Ext(), err)
+			}
+			files[c.Name+f.Ext()] = b
 		}
-		files["monthly"+f.Ext()] = b
+	}
+	pdf, err := pr.PDF()
+	if err != nil {
+		return nil, fmt.Errorf("proposal.pdf: %w", err)
+	}
+	files["proposal.pdf"] = pdf
+	if opt.Hourly && len(ls) > 0 {
+		b, err := report.HourlyCSV(hourlyRows(m, ls[0]))
+		if err != nil {
+			return nil, fmt.Errorf("hourly.csv: %w", err)
+		}
+		files["hourly.csv"] = b
 	}
 	return files, nil
+}
+
+// roundedSummary reads summary.json back, so that every figure printed anywhere is the one
+// in the file.
+func roundedSummary(js []byte) (*report.Summary, error) {
+	var s report.Summary
+	if err := json.Unmarshal(js, &s); err != nil {
+		return nil, fmt.Errorf("summary.json: %w", err)
+	}
+	return &s, nil
+}
+
+// plan is the roof from above with the best layout's strings.
+func (p *project) plan(s *report.Summary, ls []rankedLayout) *report.Plan {
+	pl := &report.Plan{}
+	for _, f := range p.Site.Faces {
+		pl.Faces = append(pl.Faces, report.Shape{ID: f.ID, Ring: ringOf(f.Plan)})
+	}
+	for _, b := range p.Site.Blocks {
+		pl.Blocks = append(pl.Blocks, report.Shape{ID: b.ID, Ring: ringOf(b.Footprint)})
+	}
+	for _, a := range p.Site.Avoids {
+		pl.Avoids = append(pl.Avoids, report.Shape{ID: a.ID, Ring: ringOf(a.Area)})
+	}
+	for _, t := range p.Site.Trees {
+		pl.Trees = append(pl.Trees, report.TreeMark{ID: t.ID, X: t.Trunk[0], Y: t.Trunk[1], CrownRadiusM: t.CrownRadiusM})
+	}
+	index := map[string]int{}
+	for i, m := range p.Modules {
+		var c [4][2]float64
+		for k, v := range m.Corners() {
+			c[k] = [2]float64{v.E, v.N}
+		}
+		pm := report.PlanModule{ID: m.ID, Corners: c}
+		if i < len(s.ModuleResults) {
+			pm.ShadeLossPct = s.ModuleResults[i].ShadeLossPct
+		}
+		pl.Modules = append(pl.Modules, pm)
+		index[m.ID] = i
+	}
+	if len(ls) > 0 {
+		for _, st := range ls[0].Strings {
+			var idx []int
+			for _, id := range st {
+				if i, ok := index[id]; ok {
+					idx = append(idx, i)
+				}
+			}
+			pl.Strings = append(pl.Strings, idx)
+		}
+		pl.Inputs = ls[0].Inputs
+	}
+	return pl
+}
+
+// sunPath is the sun-path chart's input, seen from the module that loses most to shade.
+func (p *project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, error) {
+	worst := -1
+	for i, r := range s.ModuleResults {
+		if worst < 0 || r.ShadeLossPct > s.ModuleResults[worst].ShadeLossPct {
+			worst = i
+		}
+	}
+	if worst < 0 {
+		return nil, nil
+	}
+	sc, err := shading.NewScene(p.Site, p.Modules, shading.Options{Horizon: p.Horizon, Workers: 1})
+	if err != nil {
+		return nil, fmt.Errorf("sun-path chart: %w", err)
+	}
+	const step = 1.0 // degrees of azimuth: finer than a chimney seen from a few metres
+	year := 2025
+	if len(m.Records) > 0 {
+		year = m.Records[len(m.Records)/2].End.Year()
+	}
+	return &report.SunPath{
+		Observer: p.Observer, Zone: p.Cfg.Zone, Year: year,
+		Outlines: sc.Silhouette(worst, step), AzStepDeg: step,
+		Module: s.ModuleResults[worst].ID, ShadeLossPct: report.Round(s.ModuleResults[worst].ShadeLossPct, 2),
+	}, nil
+}
+
+// equipment is the module and inverter for the proposal's system table.
+func (p *project) equipment() report.Equipment {
+	c := p.Cfg
+	return report.Equipment{
+		ModulePowerW: c.Module.PowerW, ModuleLengthM: c.Module.LengthM, ModuleWidthM: c.Module.WidthM,
+		CellsSeries: int(c.Module.CellsSeries), BypassDiodes: int(c.Module.BypassDiodes),
+		InverterACW: c.Inverter.ACPowerW, InverterInputs: int(c.Inverter.Inputs), InverterMaxDCV: c.Inverter.MaxDCVoltageV,
+		MPPTMinV: c.Inverter.MPPTMinV, MPPTMaxV: c.Inverter.MPPTMaxV,
+	}
+}
+
+// hourlyRows takes, for each weather record, the weather itself, the mean sunlit share of the
+// modules (Model.Shade) and the best layout's AC energy per sun-up step
+// (electric.YearResult.StepACWh, mapped to records by Model.StepRecord) as mean power.
+func hourlyRows(m *yield.Model, best rankedLayout) []report.HourlyRow {
+	hours := 1.0
+	if m.In.Weather != nil && m.In.Weather.Interval > 0 {
+		hours = m.In.Weather.Interval.Hours()
+	}
+	rows := make([]report.HourlyRow, len(m.Records))
+	for i, r := range m.Records {
+		rows[i] = report.HourlyRow{EndUTC: r.End, GHI: r.GHI, DNI: r.DNI, DHI: r.DHI, AirTempC: r.AirTempC, BeamLitPct: math.NaN()}
+	}
+	steps := best.Result.Year.StepACWh
+	for s, rec := range m.StepRecord {
+		if rec < 0 || rec >= len(rows) {
+			continue
+		}
+		if s < len(steps) {
+			rows[rec].ACW = steps[s] / hours
+		}
+		if m.Shade != nil && len(m.In.Modules) > 0 {
+			lit := 0.0
+			for k := range m.In.Modules {
+				lit += m.Shade.LitFraction(k, s)
+			}
+			rows[rec].BeamLitPct = 100 * lit / float64(len(m.In.Modules))
+		}
+	}
+	return rows
+}
+
+// ringOf copies a ring of local east-north metres into plain pairs.
+func ringOf(r orb.Ring) [][2]float64 {
+	out := make([][2]float64, len(r))
+	for i, p := range r {
+		out[i] = [2]float64(p)
+	}
+	return out
 }

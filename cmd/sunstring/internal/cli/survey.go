@@ -18,6 +18,8 @@ func newSurveyCmd() *cobra.Command {
 	var (
 		out     string
 		svg     bool
+		paper   string
+		hourly  bool
 		timeout time.Duration
 	)
 	c := &cobra.Command{
@@ -29,7 +31,9 @@ the inverter, rank string layouts, and write into DIR:
 
   summary.json      key figures, losses, layouts and per-module results
   modules.geojson   the placed modules (id, face, string, shade loss) and the drawing
-  monthly.png       monthly AC energy, with and without shade
+  proposal.pdf      the customer proposal (A4, or --paper letter)
+  *.png             the charts: plan, strings, sunpath, monthly, losses, layouts
+  hourly.csv        with --hourly: weather, sunlit share and AC power per record
 
 DIR is replaced only when the run succeeds; an earlier report stays as it was otherwise.
 Estimates only: local codes and a licensed installer have the final word.`,
@@ -40,10 +44,15 @@ Estimates only: local codes and a licensed installer have the final word.`,
 	f := c.Flags()
 	f.StringVarP(&out, "out", "o", "", "output folder (required)")
 	f.BoolVar(&svg, "svg", false, "also write the charts as SVG")
+	f.StringVar(&paper, "paper", "a4", "proposal paper size: a4 or letter")
+	f.BoolVar(&hourly, "hourly", false, "also write hourly.csv (one row per weather record)")
 	f.DurationVar(&timeout, "timeout", 0, "give up after this long (e.g. 2m; 0: no limit)")
 	c.RunE = func(c *cobra.Command, a []string) error {
 		if out == "" {
 			return usageError{fmt.Errorf("survey: -o DIR is required: the folder to write the report into")}
+		}
+		if err := checkPaper(paper); err != nil {
+			return err
 		}
 		ctx := c.Context()
 		if timeout > 0 {
@@ -90,7 +99,7 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		}
 		prog.Done()
 		sum := p.summary(model, ws, layouts)
-		files, err := p.outputs(model, sum, layouts, svg)
+		files, err := p.outputs(model, sum, layouts, reportOptions{SVG: svg, Paper: paper, Hourly: hourly})
 		if err != nil {
 			return err
 		}
