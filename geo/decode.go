@@ -274,22 +274,7 @@ func (d *decoder) feature(f *rawFeature) {
 		f.props = nil
 		return
 	}
-	kn := f.props.member("kind")
-	switch {
-	case kn == nil:
-		d.fproblem(f, f.props, "kind", "missing; say what the feature is: roof, block, tree, avoid or panel")
-	case kn.kind != 's':
-		d.fproblem(f, kn, "kind", "must be a string: roof, block, tree, avoid or panel; got "+kn.typeName())
-	case kn.str == "module":
-		// Modules echoed by an earlier export: output, not input. Ignoring them lets an
-		// exported map be read again.
-		f.kind = "module"
-		return
-	case kindGeometry[kn.str] == "":
-		d.fproblem(f, kn, "kind", fmt.Sprintf("%q is not a known kind; use roof, block, tree, avoid or panel", kn.str))
-	default:
-		f.kind = kn.str
-	}
+	// The id first, so that every later message names it.
 	// The id: properties.id, else the feature's own RFC 7946 id when it is a string.
 	idn := f.props.member("id")
 	if idn == nil {
@@ -306,9 +291,25 @@ func (d *decoder) feature(f *rawFeature) {
 		d.fproblem(f, idn, "id", "empty; every feature needs an id, unique in the map")
 	default:
 		f.id = idn.str
-		if f.kind == "roof" && strings.ContainsAny(f.id, ". \t\n") {
-			d.fproblem(f, idn, "id", fmt.Sprintf("%q: a roof face id may not contain a dot or white space, which would break module ids <face>.<row>.<column>", f.id))
-		}
+	}
+	kn := f.props.member("kind")
+	switch {
+	case kn == nil:
+		d.fproblem(f, f.props, "kind", "missing; say what the feature is: roof, block, tree, avoid or panel")
+	case kn.kind != 's':
+		d.fproblem(f, kn, "kind", "must be a string: roof, block, tree, avoid or panel; got "+kn.typeName())
+	case kn.str == "module":
+		// Modules echoed by an earlier export: output, not input. Ignoring them lets an
+		// exported map be read again.
+		f.kind = "module"
+		return
+	case kindGeometry[kn.str] == "":
+		d.fproblem(f, kn, "kind", fmt.Sprintf("%q is not a known kind; use roof, block, tree, avoid or panel", kn.str))
+	default:
+		f.kind = kn.str
+	}
+	if f.kind == "roof" && strings.ContainsAny(f.id, ". \t\n") {
+		d.fproblem(f, idn, "id", fmt.Sprintf("%q: a roof face id may not contain a dot or white space, which would break module ids <face>.<row>.<column>", f.id))
 	}
 	if f.kind == "" {
 		return
