@@ -196,16 +196,16 @@ func (p *Problem) check(n int) error {
 // state is a layout under search: strings in slot order (each sorted), the pool of left-out
 // modules (sorted), and its evaluation.
 type state struct {
-	shape   Shape
-	inputs  []int // slot → input
-	strs    [][]int
-	pool    []int
-	energy  float64
-	cable   float64
-	score   float64
-	start   string
-	key     string // canonical form, set by canon
-	layout  electric.Layout
+	shape  Shape
+	inputs []int // slot → input
+	strs   [][]int
+	pool   []int
+	energy float64
+	cable  float64
+	score  float64
+	start  string
+	key    string // canonical form, set by canon
+	layout electric.Layout
 }
 
 func (st *state) clone() state {

@@ -156,10 +156,10 @@ func cloneStrs(s [][]int) [][]int {
 
 // checked wraps an evaluator and records every layout that breaks the bounds.
 type checked struct {
-	mu   sync.Mutex
-	n    int
-	in   int
-	b    Bounds
+	mu    sync.Mutex
+	n     int
+	in    int
+	b     Bounds
 	bad   []string
 	calls int
 	eval  Evaluator

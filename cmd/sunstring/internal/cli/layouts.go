@@ -1,7 +1,9 @@
 package cli
 
 import (
+	"context"
 	"fmt"
+	"slices"
 	"sort"
 	"strings"
 
@@ -10,9 +12,10 @@ import (
 	"sunstring/yield/layout"
 )
 
-// layouts evaluates the plain roof-order layout, the user's fixed layouts and (when asked)
-// the searched ones, and returns them best first, at most layouts.keep of them plus every
-// fixed layout.
+// layouts evaluates the roof-order layout, the user's fixed layouts and (when layouts.search
+// is on) the searched ones on the same footing, and returns them best first by annual AC
+// energy less the weighed extra cable: at most layouts.keep of them plus every fixed layout.
+// The best one's note explains what makes it better.
 func (p *project) layouts(m *yield.Model) ([]rankedLayout, error) {
 	cfg := p.Cfg
 	b, err := layout.StringBounds(p.Datasheet, p.Inverter, layout.Limits{
@@ -21,21 +24,38 @@ func (p *project) layouts(m *yield.Model) ([]rankedLayout, error) {
 	if err != nil {
 		return nil, inputError{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
 	}
-	index := make(map[string]int, len(p.Modules))
-	order := make([]int, len(p.Modules))
+	n := len(p.Modules)
+	index := make(map[string]int, n)
+	order := make([]int, n)
+	face := make([]int, n)
+	faceNo := map[string]int{}
+	pos := make([]layout.Point, n)
+	reach := 0.0
 	for i, mod := range p.Modules {
 		index[mod.ID] = i
 		order[i] = i
+		if _, ok := faceNo[mod.Face]; !ok {
+			faceNo[mod.Face] = len(faceNo)
+		}
+		face[i] = faceNo[mod.Face]
+		c := mod.Center()
+		pos[i] = layout.Point{X: c.E, Y: c.N, Z: c.U}
+		// Neighbours' leads reach about one module length (common practice); 5 % slack so
+		// that modules side by side or one above the other need no extra cable.
+		reach = max(reach, 1.05*max(mod.LengthM, mod.WidthM))
 	}
+	weightWh := cfg.Layouts.CableWeight * 1000
 	var out []rankedLayout
+	seen := map[string]bool{}
 	eval := func(name string, l electric.Layout, note string) error {
 		r, err := m.Evaluate(l, electric.EvalOptions{})
 		if err != nil {
 			return fmt.Errorf("layout %q: %w", name, err)
 		}
-		rl := rankedLayout{Name: name, Result: r, Note: note}
+		rl := rankedLayout{Name: name, Result: r, Note: note, CableM: layout.ExtraCableM(l, pos, reach)}
 		for in, strs := range l.Inputs {
 			for _, s := range strs {
+				s = layout.Chain(s, pos)
 				ids := make([]string, len(s))
 				for k, i := range s {
 					ids[k] = p.Modules[i].ID
@@ -44,43 +64,188 @@ func (p *project) layouts(m *yield.Model) ([]rankedLayout, error) {
 				rl.Inputs = append(rl.Inputs, in+1)
 			}
 		}
+		seen[layoutKey(l)] = true
 		out = append(out, rl)
 		return nil
 	}
-	seq, left, err := layout.Sequential(order, p.Inverter.Inputs, b)
-	if err != nil {
-		return nil, inputError{fmt.Errorf("%s: %w", cfg.File, err)}
+	// Roof order: strings that stay on one face when the bounds allow it, else straight
+	// through the roof order.
+	seq, onFaces := layout.FaceOrder(order, face, p.Inverter.Inputs, b)
+	note := "modules wired in roof order (face, row, column), each string on one roof face"
+	if !onFaces {
+		var left int
+		seq, left, err = layout.Sequential(order, p.Inverter.Inputs, b)
+		if err != nil {
+			return nil, inputError{fmt.Errorf("%s: %w", cfg.File, err)}
+		}
+		note = "modules wired in roof order (face, row, column)"
+		if len(faceNo) > 1 {
+			note += "; no string length lets every string stay on one face"
+		}
+		if left > 0 {
+			note += fmt.Sprintf("; %d modules do not fit the inverter and are left out", left)
+		}
 	}
-	note := "modules wired in roof order (face, row, column)"
-	if left > 0 {
-		note += fmt.Sprintf("; %d modules do not fit the inverter and are left out", left)
-	}
-	if err := eval("roof order", seq, note); err != nil {
+	if err := eval(roofOrderName, seq, note); err != nil {
 		return nil, err
 	}
-	nFixed := 0
 	for i, fl := range cfg.Layouts.Fixed {
 		l, err := fixedLayout(cfg.File, i, fl.Name, fl.Strings, fl.Inputs, index, p.Inverter.Inputs, b)
 		if err != nil {
 			return nil, err
 		}
-		if err := eval(fl.Name, l, "drawn by the user"); err != nil {
+		if err := eval(fl.Name, l, userNote); err != nil {
 			return nil, err
 		}
-		nFixed++
 	}
-	sort.SliceStable(out, func(i, j int) bool { return out[i].Result.ACkWh > out[j].Result.ACkWh })
-	keep := int(cfg.Layouts.Keep)
-	if keep < 1 {
-		keep = 1
+	keep := max(int(cfg.Layouts.Keep), 1)
+	if cfg.Layouts.Search {
+		prog := func(done, total int) {}
+		if m.In.Progress != nil {
+			prog = func(done, total int) { m.In.Progress("layout search", done, total) }
+		}
+		cands, err := layout.Search(context.Background(), layout.Problem{
+			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b,
+			Inputs: p.Inverter.Inputs, Order: order,
+		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
+			CableWeightWh: weightWh, Keep: keep + 1, Progress: prog,
+		})
+		if err != nil {
+			return nil, fmt.Errorf("layout search: %w", err)
+		}
+		if len(cands) > 0 && layoutKey(cands[0].Layout) == layoutKey(seq) {
+			out[0].Note += "; the layout search found none better"
+		}
+		k := 0
+		for _, c := range cands {
+			if seen[layoutKey(c.Layout)] {
+				continue // the roof order or a user's layout, already listed
+			}
+			k++
+			note := fmt.Sprintf("searched: strings of %s modules (inputs separated by |), from a start %s", c.Shape, c.Start)
+			if len(c.Left) > 0 {
+				note += fmt.Sprintf("; %d modules left unconnected", len(c.Left))
+			}
+			if err := eval(fmt.Sprintf("searched %d", k), c.Layout, note); err != nil {
+				return nil, err
+			}
+		}
 	}
+	score := func(l rankedLayout) float64 { return l.Result.ACkWh - cfg.Layouts.CableWeight*l.CableM }
+	sort.SliceStable(out, func(i, j int) bool { return score(out[i]) > score(out[j]) })
 	var kept []rankedLayout
 	for i, l := range out {
-		if i < keep || l.Note == "drawn by the user" {
+		if i < keep || l.Note == userNote {
 			kept = append(kept, l)
 		}
 	}
+	if len(kept) > 1 {
+		kept[0].Note += ". " + p.explain(m, kept, cfg.Layouts.CableWeight)
+	}
 	return kept, nil
+}
+
+// roofOrderName names the plain layout in the ranking; userNote marks the user's layouts,
+// which are always reported.
+const (
+	roofOrderName = "roof order"
+	userNote      = "drawn by the user"
+)
+
+// layoutKey identifies a layout whatever the order of modules, strings and inputs.
+func layoutKey(l electric.Layout) string {
+	var ins []string
+	for _, in := range l.Inputs {
+		var strs []string
+		for _, s := range in {
+			s = slices.Clone(s)
+			slices.Sort(s)
+			strs = append(strs, fmt.Sprint(s))
+		}
+		slices.Sort(strs)
+		ins = append(ins, strings.Join(strs, "/"))
+	}
+	slices.Sort(ins)
+	return strings.Join(ins, "|")
+}
+
+// explain says in a sentence or three what makes the best layout better than the next one
+// and than the roof order: which modules carry most of the shade, and how the best layout's
+// strings hold them compared with the other layout's.
+func (p *project) explain(m *yield.Model, ls []rankedLayout, cableWeight float64) string {
+	best := ls[0]
+	other := ls[1]
+	for _, l := range ls[1:] {
+		if l.Name == roofOrderName {
+			other = l
+		}
+	}
+	// The modules that drive the loss: the most shaded ones, down to half the worst
+	// module's loss and above 3 % (below that, shade is a nuisance rather than a driver).
+	type ms struct {
+		id   string
+		loss float64
+	}
+	var mods []ms
+	for i, mod := range p.Modules {
+		mods = append(mods, ms{mod.ID, m.Stats[i].ShadeLossPct})
+	}
+	sort.SliceStable(mods, func(i, j int) bool { return mods[i].loss > mods[j].loss })
+	var shaded []string
+	for _, x := range mods {
+		if len(shaded) == 8 || x.loss < 3 || x.loss < mods[0].loss/2 {
+			break
+		}
+		shaded = append(shaded, fmt.Sprintf("%s (%.0f %%)", x.id, x.loss))
+	}
+	diff := best.Result.ACkWh - other.Result.ACkWh
+	pct := 0.0
+	if other.Result.ACkWh > 0 {
+		pct = 100 * diff / other.Result.ACkWh
+	}
+	var b strings.Builder
+	fmt.Fprintf(&b, "Why it leads: it yields %.0f kWh a year (%.1f %%) more than %q", diff, pct, other.Name)
+	if cableWeight > 0 {
+		fmt.Fprintf(&b, " after weighing %.1f m against %.1f m of extra cable", best.CableM, other.CableM)
+	}
+	b.WriteString(".")
+	if len(shaded) == 0 {
+		b.WriteString(" No module loses more than 3 % of its sun to shade, so the layouts differ mostly in string voltage and inverter loading.")
+		return b.String()
+	}
+	ids := make([]string, len(shaded))
+	for i, s := range shaded {
+		ids[i] = strings.Fields(s)[0]
+	}
+	fmt.Fprintf(&b, " Most shade falls on %s (share of the year's irradiation lost). %s; %s.", strings.Join(shaded, ", "),
+		holders("The best layout", best, ids), holders(fmt.Sprintf("%q", other.Name), other, ids))
+	b.WriteString(" A string's current follows its weakest modules, so keeping the shaded modules together lets the other strings run at full current when the shade comes.")
+	return b.String()
+}
+
+// holders says which strings of a layout hold the given modules, e.g. "the best layout
+// puts them in 1 string (input 2) of 6 modules".
+func holders(who string, l rankedLayout, ids []string) string {
+	want := map[string]bool{}
+	for _, id := range ids {
+		want[id] = true
+	}
+	var parts []string
+	for i, s := range l.Strings {
+		c := 0
+		for _, id := range s {
+			if want[id] {
+				c++
+			}
+		}
+		if c > 0 {
+			parts = append(parts, fmt.Sprintf("%d in string %d.%d of %d modules", c, l.Inputs[i], i+1, len(s)))
+		}
+	}
+	if len(parts) == 0 {
+		return who + " leaves them unconnected"
+	}
+	return who + " has " + strings.Join(parts, ", ")
 }
 
 // fixedLayout turns a user's layout of module ids into indices, and refuses one that breaks
