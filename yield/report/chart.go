@@ -71,12 +71,13 @@ var MonthNames = []string{"Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug"
 // (for example the indicative-climate warning).
 func MonthlyChart(ac, unshaded *[12]float64, note string) *plot.Plot {
 	p := plot.New()
-	p.Title.Text = "Monthly AC energy"
+	title := "Monthly AC energy"
 	if note != "" {
-		p.Title.Text += "\n" + note
+		title += "\n" + note
 	}
-	p.Title.TextStyle.Color = Ink
+	styleTitle(p, title)
 	p.Y.Label.Text = "AC energy (kWh)"
+	p.Y.Tick.Marker = thousandsTicks{}
 	p.Y.Min = 0
 	w := vg.Points(11)
 	vals := func(a *[12]float64) plotter.Values {

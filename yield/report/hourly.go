@@ -16,8 +16,9 @@ type HourlyRow struct {
 	// BeamLitPct is the mean over the modules of the share of cell area in direct sun, %;
 	// NaN while the sun is down.
 	BeamLitPct float64
-	// ACW is the mean AC power of the chosen layout over the interval, W, before
-	// availability losses and night consumption; 0 while the sun is down.
+	// ACW is the mean AC power of the chosen layout over the interval, W, before the flat
+	// yearly losses (module tolerance mismatch, DC wiring, availability) and the inverter's
+	// night consumption; 0 while the sun is down.
 	ACW float64
 }
 

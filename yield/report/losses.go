@@ -21,6 +21,9 @@ func StartKWh(acKWh float64, ls []Loss) float64 {
 	return s
 }
 
+// lossGrey marks what is lost: a dark grey, so the accent stays for what is delivered.
+var lossGrey = color.RGBA{R: 0x6b, G: 0x73, B: 0x78, A: 0xff}
+
 // barRect is a horizontal bar from x0 to x1 at row y (rows are one unit apart).
 func barRect(x0, x1, y float64) plotter.XYs {
 	const h = 0.32
@@ -47,7 +50,7 @@ func LossChart(acKWh float64, ls []Loss) *plot.Plot {
 			left -= l.KWh
 			continue
 		}
-		rows = append(rows, row{l.Step, left - l.KWh, left, Warn,
+		rows = append(rows, row{l.Step, left - l.KWh, left, lossGrey,
 			fmt.Sprintf("−%s kWh (%s)", Thousands(l.KWh, 0), Pct(l.Pct))})
 		left -= l.KWh
 	}

@@ -101,7 +101,7 @@ var StringColours = []color.RGBA{
 var (
 	faceFill  = color.RGBA{R: 0xf2, G: 0xf3, B: 0xf4, A: 0xff}
 	blockFill = color.RGBA{R: 0x8d, G: 0x94, B: 0x99, A: 0xff}
-	treeFill  = color.RGBA{R: 0xd5, G: 0xd9, B: 0xdb, A: 0xc0}
+	treeFill  = color.RGBA{R: 0xd5, G: 0xd9, B: 0xdb, A: 0xff}
 	white     = color.RGBA{R: 0xff, G: 0xff, B: 0xff, A: 0xff}
 )
 
@@ -152,8 +152,9 @@ func addPolygon(p *plot.Plot, xy plotter.XYs, fill color.Color, line color.Color
 	return pg
 }
 
-// planBase draws the faces, blocks, avoid areas and trees, and returns the extents of
-// everything drawn.
+// planBase draws the faces, blocks, avoid areas and trees, and returns the extents of the
+// faces and modules: the drawing is framed on the roof, and a tree or a neighbour's house
+// farther away is cut at the frame (the sun-path chart shows those).
 func planBase(pl *Plan, p *plot.Plot) (minX, maxX, minY, maxY float64) {
 	minX, minY = math.Inf(1), math.Inf(1)
 	maxX, maxY = math.Inf(-1), math.Inf(-1)
@@ -164,8 +165,6 @@ func planBase(pl *Plan, p *plot.Plot) (minX, maxX, minY, maxY float64) {
 	for _, t := range pl.Trees {
 		addPolygon(p, circleXYs(t.X, t.Y, t.CrownRadiusM), treeFill, blockFill, vg.Points(0.6))
 		addPolygon(p, circleXYs(t.X, t.Y, math.Min(0.25, t.CrownRadiusM/4)), blockFill, nil, 0)
-		grow(t.X-t.CrownRadiusM, t.Y-t.CrownRadiusM)
-		grow(t.X+t.CrownRadiusM, t.Y+t.CrownRadiusM)
 	}
 	for _, f := range pl.Faces {
 		addPolygon(p, ringXYs(f.Ring), faceFill, Ink, vg.Points(0.8))
@@ -175,9 +174,6 @@ func planBase(pl *Plan, p *plot.Plot) (minX, maxX, minY, maxY float64) {
 	}
 	for _, b := range pl.Blocks {
 		addPolygon(p, ringXYs(b.Ring), blockFill, Ink, vg.Points(0.5))
-		for _, q := range b.Ring {
-			grow(q[0], q[1])
-		}
 	}
 	for _, a := range pl.Avoids {
 		if pg := addPolygon(p, ringXYs(a.Ring), white, Ink, vg.Points(0.6)); pg != nil {
@@ -261,6 +257,7 @@ func addLabels(p *plot.Plot, xy plotter.XYs, ls []string, size float64, c color.
 	}
 	for i := range l.TextStyle {
 		l.TextStyle[i].Font.Size = vg.Points(size)
+		l.TextStyle[i].Font.Variant = sans
 		l.TextStyle[i].Color = c
 		l.TextStyle[i].XAlign = xa
 		l.TextStyle[i].YAlign = ya
@@ -268,11 +265,21 @@ func addLabels(p *plot.Plot, xy plotter.XYs, ls []string, size float64, c color.
 	p.Add(l)
 }
 
+// sans is the font variant of every chart: Liberation Sans, the proposal's own type.
+const sans = "Sans"
+
+// styleTitle sets the house type on a plot: the title, axis labels, ticks and legend.
 func styleTitle(p *plot.Plot, title string) {
 	p.Title.Text = title
 	p.Title.TextStyle.Color = Ink
 	p.Title.TextStyle.Font.Size = vg.Points(12)
 	p.Title.Padding = vg.Points(6)
+	p.Title.TextStyle.Font.Variant = sans
+	for _, a := range []*plot.Axis{&p.X, &p.Y} {
+		a.Label.TextStyle.Font.Variant = sans
+		a.Tick.Label.Font.Variant = sans
+	}
+	p.Legend.TextStyle.Font.Variant = sans
 	p.Legend.TextStyle.Font.Size = vg.Points(8)
 	p.Legend.TextStyle.Color = Ink
 }
@@ -307,6 +314,7 @@ func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 		if err == nil {
 			for i := range l.TextStyle {
 				l.TextStyle[i].Font.Size = vg.Points(6)
+				l.TextStyle[i].Font.Variant = sans
 				l.TextStyle[i].Color = lc[i]
 				l.TextStyle[i].XAlign, l.TextStyle[i].YAlign = text.XCenter, text.YCenter
 			}

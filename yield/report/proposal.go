@@ -196,8 +196,14 @@ func (d *pdfDoc) image(name string, png []byte, wFrac float64) {
 	}
 	w := d.contentW() * wFrac
 	h := w * info.Height() / info.Width()
-	if d.GetY()+h > d.h-margin-8 {
-		d.AddPage()
+	// A picture that nearly fits the rest of the page is shrunk rather than pushed to a page
+	// of its own (two plan drawings share a Letter page this way).
+	if avail := d.h - margin - 8 - d.GetY(); h > avail {
+		if avail >= 0.75*h {
+			w, h = w*avail/h, avail
+		} else {
+			d.AddPage()
+		}
 	}
 	d.ImageOptions(name, margin+(d.contentW()-w)/2, d.GetY(), w, h, false, opt, 0, "")
 	d.SetY(d.GetY() + h + 3)
@@ -239,8 +245,12 @@ func (pr *Proposal) PDF() ([]byte, error) {
 	})
 
 	charts := map[string][]byte{}
-	for _, c := range pr.Charts() {
-		b, err := Render(c.Plot, c.W, c.H, PNG)
+	for k, c := range pr.Charts() {
+		// fpdf's catalog sort orders images by pixel width alone, and takes them from a map:
+		// charts of equal width would land in a random order and the bytes would differ from
+		// run to run. One pixel more per chart (invisible once placed) makes the order fixed.
+		px := vg.Inch / chartDPI
+		b, err := Render(c.Plot, c.W+vg.Length(k)*px, c.H, PNG)
 		if err != nil {
 			return nil, err
 		}
@@ -282,7 +292,11 @@ func (pr *Proposal) PDF() ([]byte, error) {
 		start := StartKWh(s.AnnualACkWh, s.Losses)
 		rows = [][]string{{"modules' irradiation at STC efficiency", Thousands(start, 0), ""}}
 		for _, l := range s.Losses {
-			rows = append(rows, []string{l.Step, "−" + Thousands(l.KWh, 0), Pct(l.Pct)})
+			lost := Thousands(l.KWh, 0)
+			if lost != "0" {
+				lost = "−" + lost
+			}
+			rows = append(rows, []string{l.Step, lost, Pct(l.Pct)})
 		}
 		rows = append(rows, []string{"AC energy", Thousands(s.AnnualACkWh, 0), ""})
 		d.table([]string{"Step", "Energy (kWh per year)", "Loss"}, rows, []float64{0.6, 0.22, 0.18}, "LRR")

@@ -1,0 +1,135 @@
+package cli
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+
+	"sunstring/yield/report"
+)
+
+// TestSurveyReportFiles runs the example with every report option and checks the files
+// against summary.json: the PDF's key figures, the charts, and the hourly CSV's totals.
+func TestSurveyReportFiles(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, errs, code := run(t, "survey", exampleSite, "-o", dir, "--hourly", "--svg", "--paper", "letter"); code != 0 {
+		t.Fatalf("survey exit %d: %s", code, errs)
+	}
+	var s report.Summary
+	js, err := os.ReadFile(filepath.Join(dir, "summary.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := json.Unmarshal(js, &s); err != nil {
+		t.Fatal(err)
+	}
+	charts := []string{"plan", "strings", "sunpath", "monthly", "losses", "layouts"}
+	for _, c := range charts {
+		for _, ext := range []string{".png", ".svg"} {
+			st, err := os.Stat(filepath.Join(dir, c+ext))
+			// A drawn chart is several kilobytes even as SVG (the smallest, layouts, is
+			// about 4.7 kB); below 3 kB it has lost its data.
+			if err != nil || st.Size() < 3000 {
+				t.Errorf("%s%s: missing or nearly empty (%v)", c, ext, err)
+			}
+		}
+	}
+	pdf, err := os.ReadFile(filepath.Join(dir, "proposal.pdf"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(pdf), "/MediaBox [0 0 612.00 792.00]") {
+		t.Errorf("proposal.pdf is not Letter (612 × 792 pt, ANSI 8.5 × 11 in)")
+	}
+	if _, err := exec.LookPath("pdftotext"); err == nil {
+		out, err := exec.Command("pdftotext", filepath.Join(dir, "proposal.pdf"), "-").Output()
+		if err != nil {
+			t.Fatal(err)
+		}
+		txt := string(out)
+		for name, want := range map[string]string{
+			"annual AC energy": report.Thousands(s.AnnualACkWh, 0),
+			"specific yield":   report.Thousands(s.SpecificYield, 0),
+		} {
+			if !strings.Contains(txt, want) {
+				t.Errorf("%s %q (summary.json) not in the proposal's text", name, want)
+			}
+		}
+	} else {
+		t.Log("pdftotext not installed: the PDF's text is not checked")
+	}
+
+	tests := []struct {
+		name string
+		col  string
+		want float64
+		tol  float64 // relative
+		why  string
+	}{
+		// ac_w comes before the flat module-tolerance and DC-wiring losses and availability,
+		// which the loss breakdown applies to the year; night consumption (a few kWh) is
+		// left in the tolerance.
+		{"AC energy", "ac_w", 1000 * (s.AnnualACkWh + lossKWh(s, "module tolerance mismatch", "DC wiring", "availability")), 0.003,
+			"hourly AC power integrates to the annual AC energy before the flat yearly losses"},
+		// GHI integrates to the climate's annual total, which summary.json reports from the
+		// same records (rounded to 0.1 kWh/m²).
+		{"GHI", "ghi_w_m2", s.Climate.AnnualGHIkWhM2 * 1000, 0.001, "hourly GHI integrates to the annual GHI"},
+	}
+	f, err := os.Open(filepath.Join(dir, "hourly.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	// One row per weather record: a year of hours (8,760, or 8,784 in a leap year).
+	if n := len(recs) - 1; n != 8760 && n != 8784 {
+		t.Errorf("%d data rows, want one per hour of the year", n)
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			col := -1
+			for i, h := range recs[0] {
+				if h == tc.col {
+					col = i
+				}
+			}
+			if col < 0 {
+				t.Fatalf("no column %q in %v", tc.col, recs[0])
+			}
+			sum := 0.0
+			for _, r := range recs[1:] {
+				v, err := strconv.ParseFloat(r[col], 64)
+				if err != nil {
+					t.Fatalf("%s: %q: %v", tc.col, r[col], err)
+				}
+				sum += v // one-hour records: W·h
+			}
+			if !scalar.EqualWithinRel(sum, tc.want, tc.tol) {
+				t.Errorf("Σ %s = %.0f, want %.0f ± %.1f %%: %s", tc.col, sum, tc.want, 100*tc.tol, tc.why)
+			}
+		})
+	}
+}
+
+// lossKWh sums the named steps of the loss breakdown.
+func lossKWh(s report.Summary, steps ...string) float64 {
+	sum := 0.0
+	for _, l := range s.Losses {
+		for _, st := range steps {
+			if l.Step == st {
+				sum += l.KWh
+			}
+		}
+	}
+	return sum
+}
