@@ -125,10 +125,10 @@ func Search(ctx context.Context, p Problem, eval Evaluator, opt Options) ([]Cand
 	// fewest strings) come first.
 	var starts []state
 	for _, sh := range shapes {
+		if s.evals >= opt.MaxEvals/3 && len(starts) > 0 {
+			break
+		}
 		for _, st := range s.starts(sh) {
-			if s.evals+1 > opt.MaxEvals/3 && len(starts) > 0 {
-				break
-			}
 			if err := s.score(&st); err != nil {
 				return nil, err
 			}
@@ -281,6 +281,8 @@ type searcher struct {
 	opt   Options
 	feat  [][]float64 // features with a small position term (see newSearcher)
 	shade []float64   // per module: sum of its features
+	norm  []float64 // per module: ‖feat‖²
+	alike []int     // per module: the lowest index with identical features
 	cache map[string]state
 	evals int
 	mu    sync.Mutex
@@ -334,7 +336,27 @@ func newSearcher(ctx context.Context, p Problem, n int, eval Evaluator, opt Opti
 		}
 		s.feat[i] = v
 	}
+	s.norm = make([]float64, n)
+	s.alike = make([]int, n)
+	for i := range n {
+		s.norm[i] = dot(s.feat[i], s.feat[i])
+		s.alike[i] = i
+		for j := range i {
+			if s.alike[j] == j && slices.Equal(s.feat[i], s.feat[j]) {
+				s.alike[i] = j
+				break
+			}
+		}
+	}
 	return s
+}
+
+func dot(a, b []float64) float64 {
+	d := 0.0
+	for i := range a {
+		d += a[i] * b[i]
+	}
+	return d
 }
 
 // score evaluates a state (through the cache), counting new evaluations.
@@ -614,34 +636,40 @@ func (s *searcher) batch() int { return max(24, 4*runtime.GOMAXPROCS(0)) }
 // string's centre); a move's is the same for one module.
 func (s *searcher) neighbours(cur *state, k int) []state {
 	ns := len(cur.strs)
-	dim := len(s.feat[0])
+	// Squared distances through dot products, ‖x − c‖² = ‖x‖² − 2x·c + ‖c‖², so that each
+	// round costs one pass over the features (modules × strings dot products) and every
+	// proposal after it is O(1).
 	cent := make([][]float64, ns)
+	cc := make([]float64, ns) // ‖Σ members‖²
 	for i, str := range cur.strs {
-		c := make([]float64, dim)
+		c := make([]float64, len(s.feat[0]))
 		for _, m := range str {
 			for j, x := range s.feat[m] {
 				c[j] += x
 			}
 		}
 		cent[i] = c
+		cc[i] = dot(c, c)
+	}
+	xc := make([][]float64, s.n) // module · string sum
+	for m := range s.n {
+		xc[m] = make([]float64, ns)
+		for i := range ns {
+			xc[m][i] = dot(s.feat[m], cent[i])
+		}
 	}
 	// distance from module m to string i's centre, m itself taken out if it is a member.
 	dTo := func(m, i int, member bool) float64 {
 		L := float64(len(cur.strs[i]))
-		d := 0.0
-		for j, x := range s.feat[m] {
-			c := cent[i][j]
-			if member {
-				if L <= 1 {
-					return 0
-				}
-				c = (c - x) / (L - 1)
-			} else {
-				c /= L
-			}
-			d += sq(x - c)
+		xx := s.norm[m]
+		if !member {
+			return xx - 2*xc[m][i]/L + cc[i]/(L*L)
 		}
-		return d
+		if L <= 1 {
+			return 0
+		}
+		rest := cc[i] - 2*xc[m][i] + xx // ‖Σ others‖²
+		return xx - 2*(xc[m][i]-xx)/(L-1) + rest/((L-1)*(L-1))
 	}
 	type prop struct {
 		gain float64
@@ -655,7 +683,7 @@ func (s *searcher) neighbours(cur *state, k int) []state {
 		for j := i + 1; j < ns; j++ {
 			for _, a := range cur.strs[i] {
 				for _, b := range cur.strs[j] {
-					if slices.Equal(s.feat[a], s.feat[b]) {
+					if s.alike[a] == s.alike[b] {
 						continue // nothing to gain from swapping look-alikes
 					}
 					g := dTo(a, i, true) + dTo(b, j, true) - dTo(a, j, false) - dTo(b, i, false)
