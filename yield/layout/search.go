@@ -281,8 +281,8 @@ type searcher struct {
 	opt   Options
 	feat  [][]float64 // features with a small position term (see newSearcher)
 	shade []float64   // per module: sum of its features
-	norm  []float64 // per module: ‖feat‖²
-	alike []int     // per module: the lowest index with identical features
+	norm  []float64   // per module: ‖feat‖²
+	alike []int       // per module: the lowest index with identical features
 	cache map[string]state
 	evals int
 	mu    sync.Mutex
