@@ -8,6 +8,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"time"
 
 	"github.com/spf13/pflag"
 
@@ -177,6 +178,11 @@ func (p *project) loadWeather() (*weather.Series, error) {
 		}
 		if err != nil {
 			return nil, err
+		}
+		// Annual figures need one whole year: a partial year would understate them and
+		// several years would add up to more than one.
+		if n := len(s.Records); s.Interval != time.Hour || n < 8760 || n > 8784 {
+			return nil, inputError{fmt.Errorf("%s: %d records of %v; a survey needs one whole year of hourly records (8760, or 8784 in a leap year)", wp, n, s.Interval)}
 		}
 		s.Warnings = append(s.Warnings, s.CheckSite(ws)...)
 		return s, nil

@@ -1,6 +1,8 @@
 package cli
 
 import (
+	"context"
+	"errors"
 	"fmt"
 	"strings"
 	"time"
@@ -47,7 +49,7 @@ Estimates only: local codes and a licensed installer have the final word.`,
 	f.StringVar(&paper, "paper", "a4", "proposal paper size: a4 or letter")
 	f.BoolVar(&hourly, "hourly", false, "also write hourly.csv (one row per weather record)")
 	f.DurationVar(&timeout, "timeout", 0, "give up after this long (e.g. 2m; 0: no limit)")
-	c.RunE = func(c *cobra.Command, a []string) error {
+	c.RunE = func(c *cobra.Command, a []string) (err error) {
 		if out == "" {
 			return usageError{fmt.Errorf("survey: -o DIR is required: the folder to write the report into")}
 		}
@@ -60,6 +62,15 @@ Estimates only: local codes and a licensed installer have the final word.`,
 			ctx, cancel = contextWithTimeout(ctx, timeout)
 			defer cancel()
 		}
+		defer func() {
+			switch {
+			case err == nil:
+			case errors.Is(ctx.Err(), context.DeadlineExceeded):
+				err = fmt.Errorf("survey: gave up after %s (--timeout); nothing was written", timeout)
+			case errors.Is(ctx.Err(), context.Canceled):
+				err = fmt.Errorf("survey: interrupted; nothing was written")
+			}
+		}()
 		p, err := loadProject(a[0], c.Flags(), bind)
 		if err != nil {
 			return err
