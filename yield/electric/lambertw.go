@@ -28,14 +28,63 @@ func lambertWExp(L float64) float64 {
 		ll := math.Log(L)
 		w = L - ll + ll/L
 	}
+	return fritsch(L, w, 1e-15)
+}
+
+// fritsch refines a guess w of W(e^L) with the iteration of Fritsch, Shafer
+// & Crowley (1973) until the relative step is below tol (at most 6 steps).
+func fritsch(L, w, tol float64) float64 {
 	for range 6 {
 		z := L - math.Log(w) - w
 		q := 2 * (1 + w) * (1 + w + 2*z/3)
 		eps := z / (1 + w) * (q - z) / (q - 2*z)
 		w *= 1 + eps
-		if math.Abs(eps) < 1e-15 {
+		if math.Abs(eps) < tol {
 			break
 		}
 	}
 	return w
+}
+
+// warmTol is the relative step below which lambertWExpNear stops. The
+// iteration converges with the fourth power of the error: a step ε leaves an
+// error below 2ε⁴ (measured from L = −5 to 1e5 in TestFritschOrder), so a
+// step below 1e-4 leaves less than 2e-16, float64's own rounding.
+const warmTol = 1e-4
+
+// lambertWExpNear returns W(e^L) like lambertWExp, starting from a nearby
+// solution wp = W(e^Lp). Along a curve's current grid L moves in small steps,
+// and the Taylor guess w = wp·(1 + g + g²/(2(1+wp))), g = (L−Lp)/(1+wp)
+// (dW/dL = W/(1+W), d²W/dL² = W/(1+W)³) is within about g³/(3(1+wp)). Its
+// logarithm needs no math.Log: ln wp = Lp − wp by definition, so
+// ln w = Lp − wp + log1p(g + …), a short series. One iteration then usually
+// meets warmTol; otherwise the ordinary iteration continues, and far from
+// the previous point (|g| ≥ 0.1) it starts from lambertWExp's own guesses.
+func lambertWExpNear(L, Lp, wp float64) float64 {
+	if L < -40 {
+		return math.Exp(L)
+	}
+	g := (L - Lp) / (1 + wp)
+	if !(wp > 0) || !(math.Abs(g) < 0.1) {
+		return lambertWExp(L)
+	}
+	g2 := g + 0.5*g*g/(1+wp)
+	w := wp * (1 + g2)
+	z := L - (Lp - wp + log1pSmall(g2)) - w
+	q := 2 * (1 + w) * (1 + w + 2*z/3)
+	eps := z / (1 + w) * (q - z) / (q - 2*z)
+	w *= 1 + eps
+	if math.Abs(eps) < warmTol {
+		return w
+	}
+	return fritsch(L, w, 1e-15)
+}
+
+// log1pSmall returns ln(1+x) for |x| ≤ 0.11 from 2·atanh(y), y = x/(2+x)
+// ≤ 0.053, through the y¹³ term: the first term left out, 2y¹⁵/15, is below
+// 1e-20.
+func log1pSmall(x float64) float64 {
+	y := x / (2 + x)
+	y2 := y * y
+	return 2 * y * (1 + y2*(1.0/3+y2*(1.0/5+y2*(1.0/7+y2*(1.0/9+y2*(1.0/11+y2*(1.0/13)))))))
 }

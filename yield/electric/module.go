@@ -31,6 +31,7 @@ type Module struct {
 	half       bool
 	bypassV    float64
 	sub        []int8 // cell → substring
+	subCells   []int  // substring → cells in it (in one half for half-cut)
 	halfOf     []int8 // cell → half (0 or 1)
 }
 
@@ -62,12 +63,15 @@ func newModuleCells(cols, rows, nSub int, half bool, cell Params, alphaCell floa
 	m := &Module{cell: cell, alphaCell: alphaCell, cols: cols, rows: rows, nSub: nSub, half: half, bypassV: BypassDropV}
 	m.sub = make([]int8, cols*rows)
 	m.halfOf = make([]int8, cols*rows)
+	m.subCells = make([]int, nSub)
 	for r := range rows {
 		for c := range cols {
 			k := r*cols + c
 			m.sub[k] = int8(c * nSub / cols)
 			if half && r >= rows/2 {
 				m.halfOf[k] = 1
+			} else {
+				m.subCells[m.sub[k]]++
 			}
 		}
 	}
@@ -104,9 +108,13 @@ func (m *Module) topCurrent(cellIrr []float64, tempC float64) float64 {
 			smax = s
 		}
 	}
-	il := translate(m.cell, m.alphaCell, smax, tempC).IL * m.parallelHalves()
+	return m.topCurrentAt(translate(m.cell, m.alphaCell, smax, tempC).IL)
+}
+
+// topCurrentAt returns topCurrent for a brightest cell of light current ilCell.
+func (m *Module) topCurrentAt(ilCell float64) float64 {
 	// Keep a small grid even for a dark module so the curve stays valid.
-	return math.Max(1.04*il, 1e-3*m.cell.IL)
+	return math.Max(1.04*ilCell*m.parallelHalves(), 1e-3*m.cell.IL)
 }
 
 // Curve returns the module's I-V curve for per-cell effective irradiance
@@ -157,8 +165,8 @@ func gridFor(top float64) (i0, h float64) {
 type curveScratch struct {
 	vals  []float64   // distinct irradiance values
 	idx   []int       // cell → index into vals
-	vcell [][]float64 // distinct value → cell voltage on the (half-)grid
-	ext   []bool      // whether vcell[u] covers the doubled half-cut grid
+	cells []cellGrid  // distinct value → its cell's voltage on the (half-)grid
+	bufs  [][]float64 // backing store of cells[u].v
 	cnt   []int       // [sub][half][u] cell counts
 	vh    [2][]float64
 	jgrid []float64
@@ -167,18 +175,25 @@ type curveScratch struct {
 }
 
 // curveOnGrid writes the module voltage at currents i0 + k·h into v. Cells
-// with equal irradiance share one computed cell curve, so a module costs one
-// Lambert-W evaluation per distinct irradiance and grid point.
+// with equal irradiance share one cell curve, so a module costs at most one
+// Lambert-W evaluation per distinct irradiance and grid point; points are
+// computed on demand, and a substring stops asking once its bypass diode
+// conducts (every cell's voltage falls with current, so the substring stays
+// bypassed at every higher current).
 func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float64, sc *curveScratch) {
 	n := len(v)
 	sc.vals = sc.vals[:0]
 	sc.idx = sc.idx[:0]
+	last := -1
 	for _, s := range cellIrr {
-		u := -1
-		for j, x := range sc.vals {
-			if x == s {
-				u = j
-				break
+		u := last
+		if u < 0 || sc.vals[u] != s {
+			u = -1
+			for j, x := range sc.vals {
+				if x == s {
+					u = j
+					break
+				}
 			}
 		}
 		if u < 0 {
@@ -186,12 +201,13 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 			sc.vals = append(sc.vals, s)
 		}
 		sc.idx = append(sc.idx, u)
+		last = u
 	}
 	nu := len(sc.vals)
-	for len(sc.vcell) < nu {
-		sc.vcell = append(sc.vcell, nil)
+	for len(sc.cells) < nu {
+		sc.cells = append(sc.cells, cellGrid{})
+		sc.bufs = append(sc.bufs, nil)
 	}
-	sc.ext = append(sc.ext[:0], make([]bool, nu)...)
 	nh := 1
 	if m.half {
 		nh = 2
@@ -206,28 +222,30 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 	if m.half {
 		ci0, ch = i0/2, h/2
 	}
-	params := make([]Params, 0, 8)
 	for u := range nu {
-		p := translate(m.cell, m.alphaCell, sc.vals[u], tempC)
-		params = append(params, p)
-		sc.vcell[u] = grow(sc.vcell[u], 2*n)
-		for k := range n {
-			sc.vcell[u][k] = p.VoltageAt(ci0 + float64(k)*ch)
-		}
+		sc.bufs[u] = grow(sc.bufs[u], 2*n)
+		sc.cells[u].reset(translate(m.cell, m.alphaCell, sc.vals[u], tempC), ci0, ch, sc.bufs[u])
 	}
 	clear(v)
 	for s := range m.nSub {
 		c0 := sc.cnt[s*nh*nu : (s*nh+1)*nu]
 		if !m.half || equalInts(c0, sc.cnt[(s*nh+1)*nu:(s*nh+2)*nu]) {
 			// Full cells, or two equal halves sharing the current evenly.
-			for k := range n {
+			k := 0
+			for ; k < n; k++ {
 				var sum float64
 				for u, c := range c0 {
 					if c != 0 {
-						sum += float64(c) * sc.vcell[u][k]
+						sum += float64(c) * sc.cells[u].at(k)
 					}
 				}
-				v[k] += math.Max(sum, -m.bypassV)
+				if sum < -m.bypassV {
+					break
+				}
+				v[k] += sum
+			}
+			for ; k < n; k++ {
+				v[k] -= m.bypassV
 			}
 			continue
 		}
@@ -239,14 +257,6 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 		for j := range 2 * n {
 			sc.jgrid[j] = ci0 + float64(j)*ch
 		}
-		for u := range nu {
-			if !sc.ext[u] {
-				for j := n; j < 2*n; j++ {
-					sc.vcell[u][j] = params[u].VoltageAt(sc.jgrid[j])
-				}
-				sc.ext[u] = true
-			}
-		}
 		for hh := range 2 {
 			cc := sc.cnt[(s*nh+hh)*nu : (s*nh+hh+1)*nu]
 			sc.vh[hh] = grow(sc.vh[hh], 2*n)
@@ -254,7 +264,7 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 				var sum float64
 				for u, c := range cc {
 					if c != 0 {
-						sum += float64(c) * sc.vcell[u][j]
+						sum += float64(c) * sc.cells[u].at(j)
 					}
 				}
 				sc.vh[hh][j] = sum
@@ -269,6 +279,67 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 			v[k] += math.Max(vk, -m.bypassV)
 		}
 	}
+}
+
+// uniformMaxPower returns the maximum power (W) of the module's polyline
+// curve with every cell at irradiance sWPerM2 and temperature tempC, on the
+// grid Curve would use: the same value as polyMax on curveOnGrid's points,
+// from a handful of points. With equal cells no bypass diode conducts while
+// the voltage is positive, so V(I) is N times one cell's voltage, concave
+// (V = d·Rsh − I·Rs − A·W(e^L) with W convex in L and L affine in I), and
+// P = I·V is concave for I ≥ 0. The grid points' powers then rise to one
+// peak and fall, which a bisection finds; and the polyline, which lies below
+// the concave curve, can beat that peak point only on its two adjacent
+// segments, which polyMax then searches exactly.
+func (m *Module) uniformMaxPower(sWPerM2, tempC float64, sc *curveScratch) float64 {
+	p := translate(m.cell, m.alphaCell, sWPerM2, tempC)
+	i0, h := gridFor(m.topCurrentAt(p.IL))
+	ci0, ch := i0, h
+	if m.half {
+		ci0, ch = i0/2, h/2
+	}
+	if len(sc.cells) == 0 {
+		sc.cells = append(sc.cells, cellGrid{})
+		sc.bufs = append(sc.bufs, nil)
+	}
+	sc.bufs[0] = grow(sc.bufs[0], curvePoints)
+	for k := range sc.bufs[0] {
+		sc.bufs[0][k] = math.NaN()
+	}
+	vcell := func(k int) float64 {
+		if v := sc.bufs[0][k]; !math.IsNaN(v) {
+			return v
+		}
+		v := p.VoltageAt(ci0 + float64(k)*ch)
+		sc.bufs[0][k] = v
+		return v
+	}
+	vmod := func(k int) float64 {
+		vc := vcell(k)
+		var sum float64
+		for _, c := range m.subCells {
+			sum += math.Max(float64(c)*vc, -m.bypassV)
+		}
+		return sum
+	}
+	pw := func(k int) float64 { return (i0 + float64(k)*h) * vmod(k) }
+	// Point 2 is zero current; the peak lies in [2, curvePoints−1].
+	lo, hi := 2, curvePoints-1
+	for lo < hi {
+		mid := (lo + hi) / 2
+		if pw(mid) < pw(mid+1) {
+			lo = mid + 1
+		} else {
+			hi = mid
+		}
+	}
+	a, b := max(lo-1, 0), min(lo+1, curvePoints-1)
+	var is, vs [3]float64
+	for k := a; k <= b; k++ {
+		is[k-a], vs[k-a] = i0+float64(k)*h, vmod(k)
+	}
+	pm, _, _ := polyMax(is[:b-a+1], vs[:b-a+1], 0, math.Inf(1), math.Inf(1))
+	return pm
 }
 
 func grow(s []float64, n int) []float64 {

@@ -3,7 +3,10 @@ package electric
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
+	"sync"
+	"sync/atomic"
 )
 
 // Layout wires modules to an inverter: input → strings → module indices
@@ -91,6 +94,11 @@ type Year struct {
 // NewYear calls step for s = 0..steps−1 and computes each module's curve at
 // every step. Irradiance must lie in 0..2000 W/m² and temperatures in
 // −60..120 °C; a bad value is reported with its step and module.
+//
+// step is called in step order from the calling goroutine. NewYear copies
+// each step's input and builds the curves of a batch of steps on
+// GOMAXPROCS goroutines while step fills the next batch; the result does not
+// depend on the number of goroutines.
 func NewYear(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (*Year, error) {
 	if m == nil || nModules < 0 || steps < 0 || step == nil {
 		return nil, fmt.Errorf("electric: NewYear needs a module, a step function and non-negative counts")
@@ -107,107 +115,230 @@ func NewYear(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (
 	for k := range in.CellIrr {
 		in.CellIrr[k] = make([]float64, nc)
 	}
-	var (
-		sc      curveScratch
-		v       = make([]float64, curvePoints)
-		gi      = make([]float64, curvePoints)
-		seen    = map[uint64]int32{}
-		repr    []int // local curve → module that defined it
-		uniform = make([]float64, nc)
-		unKeys  []float64
-		unVals  []float32
-	)
-	for s := range steps {
-		for k := range in.CellIrr {
-			clear(in.CellIrr[k])
-		}
-		clear(in.TempC)
-		clear(in.UnshadedIrr)
-		in.Hours = 0
-		step(s, &in)
-		if len(in.CellIrr) != nModules || len(in.TempC) != nModules || len(in.UnshadedIrr) != nModules {
-			return nil, badf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", nModules)
-		}
-		h := in.Hours
-		if h == 0 {
-			h = 1
-		}
-		if !(h > 0) || h > 24*31 {
-			return nil, badf(fmt.Sprintf("step %d: hours", s), "%g must lie in (0, 744]", in.Hours)
-		}
-		y.hours[s] = float32(h)
-		top := 0.0
-		for k := range nModules {
-			if err := m.CheckCells(in.CellIrr[k], in.TempC[k]); err != nil {
-				return nil, fmt.Errorf("step %d, module %d: %w", s, k, err)
+	workers := runtime.GOMAXPROCS(0)
+	ws := make([]yearWorker, workers)
+	var batches [2]yearBatch
+	var pending *yearBatch
+	cur := 0
+	for first := 0; first < steps; {
+		b := &batches[cur]
+		b.reset(first, min(yearBatchSteps, steps-first), nModules, nc)
+		for j := range b.count {
+			s := first + j
+			for k := range in.CellIrr {
+				clear(in.CellIrr[k])
 			}
-			if u := in.UnshadedIrr[k]; math.IsNaN(u) || u < 0 || u > 2000 {
-				return nil, badf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..2000", u)
-			}
-			top = math.Max(top, m.topCurrent(in.CellIrr[k], in.TempC[k]))
-		}
-		i0, hI := gridFor(top)
-		y.gridI0[s], y.gridH[s] = i0, hI
-		for k := range gi {
-			gi[k] = i0 + float64(k)*hI
-		}
-		clear(seen)
-		repr = repr[:0]
-		base := int32(len(y.curveMPP))
-		for k := range nModules {
-			key := hashCells(in.CellIrr[k], in.TempC[k])
-			c, ok := seen[key]
-			if ok {
-				r := repr[c-base]
-				if in.TempC[r] != in.TempC[k] || !slices.Equal(in.CellIrr[r], in.CellIrr[k]) {
-					ok = false // hash collision: give this module its own curve
+			clear(in.TempC)
+			clear(in.UnshadedIrr)
+			in.Hours = 0
+			step(s, &in)
+			h, err := checkStep(m, &in, s, nModules)
+			if err != nil {
+				if pending != nil {
+					pending.wg.Wait()
 				}
+				return nil, err
 			}
-			if !ok {
-				c = int32(len(y.curveMPP))
-				seen[key] = c
-				repr = append(repr, k)
-				m.curveOnGrid(in.CellIrr[k], in.TempC[k], i0, hI, v, &sc)
-				for _, x := range v {
-					y.curveV = append(y.curveV, float32(x))
-				}
-				p, _, _ := polyMax(gi, v, 0, math.Inf(1), math.Inf(1))
-				y.curveMPP = append(y.curveMPP, float32(p))
+			y.hours[s] = float32(h)
+			b.hours[j] = h
+			for k := range nModules {
+				copy(b.irr[(j*nModules+k)*nc:], in.CellIrr[k])
 			}
-			y.modCurve[s*nModules+k] = c
-			y.moduleDCWh[k] += float64(y.curveMPP[c]) * h
+			copy(b.temp[j*nModules:], in.TempC)
+			copy(b.un[j*nModules:], in.UnshadedIrr)
 		}
-		// Unshaded maxima, shared between modules with the same irradiance
-		// and temperature.
-		unKeys, unVals = unKeys[:0], unVals[:0]
-		for k := range nModules {
-			u, t := in.UnshadedIrr[k], in.TempC[k]
-			found := -1
-			for j := 0; j < len(unKeys); j += 2 {
-				if unKeys[j] == u && unKeys[j+1] == t {
-					found = j / 2
-					break
-				}
-			}
-			if found < 0 {
-				for c := range uniform {
-					uniform[c] = u
-				}
-				ui0, uh := gridFor(m.topCurrent(uniform, t))
-				m.curveOnGrid(uniform, t, ui0, uh, v, &sc)
-				for c := range gi {
-					gi[c] = ui0 + float64(c)*uh
-				}
-				p, _, _ := polyMax(gi, v, 0, math.Inf(1), math.Inf(1))
-				unKeys = append(unKeys, u, t)
-				unVals = append(unVals, float32(p))
-				found = len(unVals) - 1
-			}
-			y.unshadedW[s*nModules+k] = unVals[found]
-			y.moduleUnWh[k] += float64(unVals[found]) * h
+		if pending != nil {
+			pending.wg.Wait()
+			y.merge(pending)
 		}
+		b.start(m, ws)
+		pending = b
+		cur ^= 1
+		first += b.count
+	}
+	if pending != nil {
+		pending.wg.Wait()
+		y.merge(pending)
 	}
 	return y, nil
+}
+
+// yearBatchSteps is the number of steps NewYear copies before building their
+// curves: enough to share out among goroutines, small enough to keep the
+// copies (steps × modules × cells × 8 bytes) a few megabytes.
+const yearBatchSteps = 16
+
+// checkStep validates one step's input and returns its length in hours.
+func checkStep(m *Module, in *StepInput, s, nModules int) (float64, error) {
+	if len(in.CellIrr) != nModules || len(in.TempC) != nModules || len(in.UnshadedIrr) != nModules {
+		return 0, badf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", nModules)
+	}
+	h := in.Hours
+	if h == 0 {
+		h = 1
+	}
+	if !(h > 0) || h > 24*31 {
+		return 0, badf(fmt.Sprintf("step %d: hours", s), "%g must lie in (0, 744]", in.Hours)
+	}
+	for k := range nModules {
+		if err := m.CheckCells(in.CellIrr[k], in.TempC[k]); err != nil {
+			return 0, fmt.Errorf("step %d, module %d: %w", s, k, err)
+		}
+		if u := in.UnshadedIrr[k]; math.IsNaN(u) || u < 0 || u > 2000 {
+			return 0, badf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..2000", u)
+		}
+	}
+	return h, nil
+}
+
+// yearBatch is a run of steps' copied inputs and, once built, their curves.
+type yearBatch struct {
+	first, count int
+	n, nc        int
+	irr          []float64 // count × n × nc
+	temp, un     []float64 // count × n
+	hours        []float64
+	out          []stepCurves
+	next         atomic.Int64
+	wg           sync.WaitGroup
+}
+
+// stepCurves is one step's result with curve indices local to the step.
+type stepCurves struct {
+	i0, h float64
+	v     []float32 // local curves × curvePoints
+	mpp   []float32 // per local curve
+	mod   []int32   // per module: local curve
+	unW   []float32 // per module: unshaded maximum power
+}
+
+func (b *yearBatch) reset(first, count, n, nc int) {
+	b.first, b.count, b.n, b.nc = first, count, n, nc
+	b.irr = slices.Grow(b.irr[:0], count*n*nc)[:count*n*nc]
+	b.temp = slices.Grow(b.temp[:0], count*n)[:count*n]
+	b.un = slices.Grow(b.un[:0], count*n)[:count*n]
+	b.hours = slices.Grow(b.hours[:0], count)[:count]
+	for len(b.out) < count {
+		b.out = append(b.out, stepCurves{})
+	}
+}
+
+// start builds the batch's curves on the workers; b.wg.Wait waits for them.
+func (b *yearBatch) start(m *Module, ws []yearWorker) {
+	b.next.Store(0)
+	b.wg.Add(len(ws))
+	for w := range ws {
+		go func(w *yearWorker) {
+			defer b.wg.Done()
+			for {
+				j := int(b.next.Add(1) - 1)
+				if j >= b.count {
+					return
+				}
+				w.build(m, b, j)
+			}
+		}(&ws[w])
+	}
+}
+
+// merge appends a built batch's curves to the year, in step order.
+func (y *Year) merge(b *yearBatch) {
+	for j := range b.count {
+		s := b.first + j
+		o := &b.out[j]
+		h := b.hours[j]
+		y.gridI0[s], y.gridH[s] = o.i0, o.h
+		base := int32(len(y.curveMPP))
+		y.curveV = append(y.curveV, o.v...)
+		y.curveMPP = append(y.curveMPP, o.mpp...)
+		for k := range y.n {
+			c := o.mod[k]
+			y.modCurve[s*y.n+k] = base + c
+			y.moduleDCWh[k] += float64(o.mpp[c]) * h
+			y.unshadedW[s*y.n+k] = o.unW[k]
+			y.moduleUnWh[k] += float64(o.unW[k]) * h
+		}
+	}
+}
+
+// yearWorker is one goroutine's working space.
+type yearWorker struct {
+	sc     curveScratch
+	v, gi  []float64
+	seen   map[uint64]int32
+	repr   []int // local curve → module that defined it
+	unKeys []float64
+	unVals []float32
+}
+
+// build computes step j of batch b: one curve per distinct module input on
+// the step's common current grid, and each module's unshaded maximum.
+func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
+	n, nc := b.n, b.nc
+	if w.seen == nil {
+		w.seen = map[uint64]int32{}
+		w.v = make([]float64, curvePoints)
+		w.gi = make([]float64, curvePoints)
+	}
+	irr := func(k int) []float64 { return b.irr[(j*n+k)*nc : (j*n+k+1)*nc] }
+	temp := b.temp[j*n : (j+1)*n]
+	un := b.un[j*n : (j+1)*n]
+	o := &b.out[j]
+	top := 0.0
+	for k := range n {
+		top = math.Max(top, m.topCurrent(irr(k), temp[k]))
+	}
+	i0, hI := gridFor(top)
+	o.i0, o.h = i0, hI
+	for k := range w.gi {
+		w.gi[k] = i0 + float64(k)*hI
+	}
+	o.v, o.mpp = o.v[:0], o.mpp[:0]
+	o.mod = slices.Grow(o.mod[:0], n)[:n]
+	o.unW = slices.Grow(o.unW[:0], n)[:n]
+	clear(w.seen)
+	w.repr = w.repr[:0]
+	for k := range n {
+		key := hashCells(irr(k), temp[k])
+		c, ok := w.seen[key]
+		if ok {
+			r := w.repr[c]
+			if temp[r] != temp[k] || !slices.Equal(irr(r), irr(k)) {
+				ok = false // hash collision: give this module its own curve
+			}
+		}
+		if !ok {
+			c = int32(len(o.mpp))
+			w.seen[key] = c
+			w.repr = append(w.repr, k)
+			m.curveOnGrid(irr(k), temp[k], i0, hI, w.v, &w.sc)
+			for _, x := range w.v {
+				o.v = append(o.v, float32(x))
+			}
+			p, _, _ := polyMax(w.gi, w.v, 0, math.Inf(1), math.Inf(1))
+			o.mpp = append(o.mpp, float32(p))
+		}
+		o.mod[k] = c
+	}
+	// Unshaded maxima, shared between modules with the same irradiance and
+	// temperature.
+	w.unKeys, w.unVals = w.unKeys[:0], w.unVals[:0]
+	for k := range n {
+		u, t := un[k], temp[k]
+		found := -1
+		for q := 0; q < len(w.unKeys); q += 2 {
+			if w.unKeys[q] == u && w.unKeys[q+1] == t {
+				found = q / 2
+				break
+			}
+		}
+		if found < 0 {
+			w.unKeys = append(w.unKeys, u, t)
+			w.unVals = append(w.unVals, float32(m.uniformMaxPower(u, t, &w.sc)))
+			found = len(w.unVals) - 1
+		}
+		o.unW[k] = w.unVals[found]
+	}
 }
 
 // hashCells mixes the bits of the irradiances and temperature a 64-bit word
