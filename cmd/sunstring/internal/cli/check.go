@@ -8,7 +8,6 @@ import (
 	"github.com/spf13/cobra"
 
 	"sunstring/geo"
-	"sunstring/yield/layout"
 	"sunstring/yield/report"
 )
 
@@ -16,25 +15,15 @@ import (
 // every fixed layout; bad is an input error when a fixed layout breaks a limit.
 func (p *project) checkElectrics() (checks []report.Check, bad error, err error) {
 	cfg := p.Cfg
-	b, err := layout.StringBounds(p.Datasheet, p.Inverter, layout.Limits{
-		LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
-	})
-	if err != nil {
-		return nil, nil, inputError{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
+	if err := p.prepareLayouts(); err != nil {
+		return nil, nil, err
 	}
+	b := p.bounds
 	checks = append(checks, report.Check{Severity: "info", Subject: "strings", Unit: "modules", Value: float64(b.MaxSeries), Limit: float64(b.MinSeries),
 		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %g °C cell); at most %d string(s) per input",
 			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), b.MaxParallel)})
-	index := make(map[string]int, len(p.Modules))
-	for i, m := range p.Modules {
-		index[m.ID] = i
-	}
 	for i, fl := range cfg.Layouts.Fixed {
-		l, err := fixedLayout(cfg.File, i, fl.Name, fl.Strings, fl.Inputs, index, p.Inverter.Inputs, b)
-		if err != nil {
-			return nil, nil, err
-		}
-		cs := p.electricalChecks(fl.Name, lengths(l))
+		cs := p.electricalChecks(fl.Name, lengths(p.fixed[i]))
 		for _, c := range cs {
 			if c.Severity == "error" && bad == nil {
 				bad = inputError{fmt.Errorf("%s: layouts.fixed[%d] (%q): %s", cfg.File, i, fl.Name, c.Message)}

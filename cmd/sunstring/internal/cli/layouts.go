@@ -16,14 +16,13 @@ import (
 // is on) the searched ones on the same footing, and returns them best first by annual AC
 // energy less the weighed extra cable: at most layouts.keep of them plus every fixed layout.
 // The best one's note explains what makes it better.
-func (p *project) layouts(m *yield.Model) ([]rankedLayout, error) {
+func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, error) {
 	cfg := p.Cfg
-	b, err := layout.StringBounds(p.Datasheet, p.Inverter, layout.Limits{
-		LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
-	})
-	if err != nil {
-		return nil, inputError{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
+	if err := p.prepareLayouts(); err != nil {
+		return nil, err
 	}
+	b := p.bounds
+	var err error
 	n := len(p.Modules)
 	index := make(map[string]int, n)
 	order := make([]int, n)
@@ -90,11 +89,7 @@ func (p *project) layouts(m *yield.Model) ([]rankedLayout, error) {
 		return nil, err
 	}
 	for i, fl := range cfg.Layouts.Fixed {
-		l, err := fixedLayout(cfg.File, i, fl.Name, fl.Strings, fl.Inputs, index, p.Inverter.Inputs, b)
-		if err != nil {
-			return nil, err
-		}
-		if err := eval(fl.Name, l, userNote); err != nil {
+		if err := eval(fl.Name, p.fixed[i], userNote); err != nil {
 			return nil, err
 		}
 	}
@@ -104,7 +99,7 @@ func (p *project) layouts(m *yield.Model) ([]rankedLayout, error) {
 		if m.In.Progress != nil {
 			prog = func(done, total int) { m.In.Progress("layout search", done, total) }
 		}
-		cands, err := layout.Search(context.Background(), layout.Problem{
+		cands, err := layout.Search(ctx, layout.Problem{
 			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b,
 			Inputs: p.Inverter.Inputs, Order: order,
 		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
@@ -246,6 +241,41 @@ func holders(who string, l rankedLayout, ids []string) string {
 		return who + " leaves them unconnected"
 	}
 	return who + " has " + strings.Join(parts, ", ")
+}
+
+// prepareLayouts finds the string bounds of the module and inverter and checks the user's fixed
+// layouts against them, before any long computation: a fixed layout that breaks a limit is an
+// input error, never silently used.
+func (p *project) prepareLayouts() error {
+	if p.fixed != nil || p.boundsOK {
+		return nil
+	}
+	cfg := p.Cfg
+	b, err := layout.StringBounds(p.Datasheet, p.Inverter, layout.Limits{
+		LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
+	})
+	if err != nil {
+		return inputError{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
+	}
+	index := make(map[string]int, len(p.Modules))
+	for i, mod := range p.Modules {
+		index[mod.ID] = i
+	}
+	var fixed []electric.Layout
+	var probs []string
+	for i, fl := range cfg.Layouts.Fixed {
+		l, err := fixedLayout(cfg.File, i, fl.Name, fl.Strings, fl.Inputs, index, p.Inverter.Inputs, b)
+		if err != nil {
+			probs = append(probs, err.Error())
+			continue
+		}
+		fixed = append(fixed, l)
+	}
+	if len(probs) > 0 {
+		return inputError{fmt.Errorf("%s", strings.Join(probs, "\n"))}
+	}
+	p.bounds, p.fixed, p.boundsOK = b, fixed, true
+	return nil
 }
 
 // fixedLayout turns a user's layout of module ids into indices, and refuses one that breaks

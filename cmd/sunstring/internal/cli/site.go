@@ -17,6 +17,7 @@ import (
 	"sunstring/shading"
 	"sunstring/shading/sun"
 	"sunstring/yield/electric"
+	"sunstring/yield/layout"
 	"sunstring/yield/weather"
 )
 
@@ -64,6 +65,11 @@ type project struct {
 	Observer       sun.Observer
 	Horizon        *shading.Horizon
 	LatDeg, LonDeg float64
+
+	// Set by prepareLayouts: the string bounds and the user's fixed layouts as indices.
+	bounds   layout.Bounds
+	fixed    []electric.Layout
+	boundsOK bool
 }
 
 // siteFlags are the flags that override site-file keys, shared by the commands that read one.

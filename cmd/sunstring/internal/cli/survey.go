@@ -78,6 +78,9 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		if len(p.Modules) == 0 {
 			return inputError{fmt.Errorf("%s: no module fits on any roof face (check the faces, the setback and the module size)", a[0])}
 		}
+		if err := p.prepareLayouts(); err != nil {
+			return err
+		}
 		ws, err := p.loadWeather()
 		if err != nil {
 			return err
@@ -104,7 +107,7 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		if err != nil {
 			return err
 		}
-		layouts, err := p.layouts(model)
+		layouts, err := p.layouts(ctx, model)
 		if err != nil {
 			return err
 		}
