@@ -25,7 +25,8 @@ type SunPath struct {
 	// every AzStepDeg degrees of azimuth from north.
 	Outlines  []shading.Outline
 	AzStepDeg float64
-	// Module names the module the outlines are seen from, ShadeLossPct its annual loss.
+	// Module names the module the outlines are seen from, ShadeLossPct its annual loss
+	// (negative: not known, left out of the title).
 	Module       string
 	ShadeLossPct float64
 }
@@ -67,8 +68,11 @@ func azX(az float64, south bool) float64 {
 func SunPathChart(in *SunPath) *plot.Plot {
 	p := plot.New()
 	title := "Sun path and obstructions"
-	if in.Module != "" {
+	switch {
+	case in.Module != "" && in.ShadeLossPct >= 0:
 		title += fmt.Sprintf(" seen from module %s (annual shade loss %s)", in.Module, Pct(in.ShadeLossPct))
+	case in.Module != "":
+		title += " seen from module " + in.Module
 	}
 	styleTitle(p, title)
 	// The grid goes first so that everything else is drawn over it.

@@ -321,3 +321,20 @@ func TestCheckExample(t *testing.T) {
 		t.Errorf("check: %+v (want the example's two faces S and G, 410 W modules)", r)
 	}
 }
+
+func TestSkyCommand(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "sky.png")
+	if _, errs, code := run(t, "sky", exampleSite, "--module", "G.1.1", "-o", out); code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	b, err := os.ReadFile(out)
+	// A chart of 18 cm × 11 cm at 200 dpi is far above 10 kB when it holds the day paths
+	// and the silhouettes; an empty plot is a few kB (common sense bound).
+	if err != nil || len(b) < 10_000 || !bytes.HasPrefix(b, []byte("\x89PNG")) {
+		t.Errorf("sky.png: %d bytes, err %v", len(b), err)
+	}
+	_, errs, code := run(t, "sky", exampleSite, "--module", "Z.9.9", "-o", out)
+	if code != 2 || !strings.Contains(errs, `"Z.9.9"`) || !strings.Contains(errs, "G.1.1") {
+		t.Errorf("unknown module: exit %d, %q", code, errs)
+	}
+}

@@ -50,7 +50,7 @@ Estimates only: local codes and a licensed installer have the final word.`,
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
 		return usageError{fmt.Errorf("%w (see '%s --help')", err, c.CommandPath())}
 	})
-	root.AddCommand(newVersionCmd(), newSunCmd(), newCheckCmd(), newSurveyCmd(), newClimateCmd())
+	root.AddCommand(newVersionCmd(), newSunCmd(), newCheckCmd(), newSurveyCmd(), newClimateCmd(), newSkyCmd())
 	return root
 }
 
