@@ -238,6 +238,15 @@ func polyMax(is, vs []float64, vlo, vhi, imax float64) (pW, vV, iA float64) {
 		}
 		return 0, 0, 0
 	}
+	// Start from the best feasible point: most segments are then ruled out
+	// by the cheap bound below without clamping.
+	for j := range n {
+		if i, v := is[j], vs[j]; i >= 0 && i <= imax && v >= vlo && v <= vhi {
+			if p := i * v; p > pW {
+				pW, vV, iA = p, v, i
+			}
+		}
+	}
 	for j := range n - 1 {
 		ia, va, ib, vb := is[j], vs[j], is[j+1], vs[j+1]
 		// Cheap bound: power on the segment is at most max(I)·max(V).
@@ -263,7 +272,7 @@ func polyMax(is, vs []float64, vlo, vhi, imax float64) (pW, vV, iA float64) {
 			if ta > tb {
 				ta, tb = tb, ta
 			}
-			t0, t1 = math.Max(t0, ta), math.Min(t1, tb)
+			t0, t1 = fmax(t0, ta), fmin(t1, tb)
 		} else if va < vlo || va > vhi {
 			continue
 		}
@@ -272,7 +281,7 @@ func polyMax(is, vs []float64, vlo, vhi, imax float64) (pW, vV, iA float64) {
 			if ta > tb {
 				ta, tb = tb, ta
 			}
-			t0, t1 = math.Max(t0, ta), math.Min(t1, tb)
+			t0, t1 = fmax(t0, ta), fmin(t1, tb)
 		} else if ia < 0 || ia > imax {
 			continue
 		}
@@ -282,7 +291,7 @@ func polyMax(is, vs []float64, vlo, vhi, imax float64) (pW, vV, iA float64) {
 		t := t1
 		if q := di * dv; q < 0 {
 			t = -(ia*dv + va*di) / (2 * q)
-			t = math.Min(math.Max(t, t0), t1)
+			t = fmin(fmax(t, t0), t1)
 		} else if ia*va+t0*(ia*dv+va*di) > ia*va+t1*(ia*dv+va*di) {
 			t = t0
 		}
@@ -292,4 +301,20 @@ func polyMax(is, vs []float64, vlo, vhi, imax float64) (pW, vV, iA float64) {
 		}
 	}
 	return pW, vV, iA
+}
+
+// fmin and fmax are math.Min and math.Max for operands known not to be NaN
+// or signed zeros that matter: plain comparisons the compiler inlines.
+func fmin(a, b float64) float64 {
+	if a < b {
+		return a
+	}
+	return b
+}
+
+func fmax(a, b float64) float64 {
+	if a > b {
+		return a
+	}
+	return b
 }
