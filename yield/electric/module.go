@@ -163,15 +163,13 @@ func gridFor(top float64) (i0, h float64) {
 
 // curveScratch is reusable working space for curveOnGrid.
 type curveScratch struct {
-	vals  []float64   // distinct irradiance values
-	idx   []int       // cell → index into vals
-	cells []cellGrid  // distinct value → its cell's voltage on the (half-)grid
-	bufs  [][]float64 // backing store of cells[u].v
-	cnt   []int       // [sub][half][u] cell counts
-	vh    [2][]float64
-	jgrid []float64
+	vals  []float64    // distinct irradiance values
+	idx   []int        // cell → index into vals
+	cells []cellGrid   // distinct value → its cell's voltage on the (half-)grid
+	bufs  [][]float64  // backing store of cells[u].v
+	cnt   []int        // [sub][half][u] cell counts
+	vh    [2][]float64 // half sums on the half grid
 	m     merger
-	his   [2][]float64
 }
 
 // curveOnGrid writes the module voltage at currents i0 + k·h into v. Cells
@@ -249,36 +247,101 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 			}
 			continue
 		}
-		// Unequal halves: each half may carry up to the whole module
-		// current, so extend the cell curves to 2n half-grid points, then
-		// put the two halves in parallel and read the voltage back at the
-		// module grid currents.
-		sc.jgrid = grow(sc.jgrid, 2*n)
-		for j := range 2 * n {
-			sc.jgrid[j] = ci0 + float64(j)*ch
-		}
-		for hh := range 2 {
-			cc := sc.cnt[(s*nh+hh)*nu : (s*nh+hh+1)*nu]
-			sc.vh[hh] = grow(sc.vh[hh], 2*n)
-			for j := range 2 * n {
-				var sum float64
-				for u, c := range cc {
-					if c != 0 {
-						sum += float64(c) * sc.cells[u].at(j)
-					}
+		m.halvesOnGrid(sc, sc.cnt[(s*nh)*nu:(s*nh+1)*nu], sc.cnt[(s*nh+1)*nu:(s*nh+2)*nu], ci0, ch, i0, h, v)
+	}
+}
+
+// halvesOnGrid adds to v the voltage of a substring whose two halves are
+// lit differently (cell counts c0 and c1 per distinct value). Each half may
+// carry more than half the module current, so its curve may reach up to
+// twice the half grid (2n points). The halves are put in parallel by the
+// merge of merger.parallel (breakpoints in descending voltage), run lazily:
+// each half's points are computed as the merge reaches them, the module
+// grid is read off as soon as the merged polyline passes each current, and
+// the walk stops once every grid point is read or the substring is bypassed
+// (the merged voltage, falling with current, is below −bypassV).
+func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h float64, v []float64) {
+	n := len(v)
+	cnts := [2][]int{c0, c1}
+	var done [2]int // half points computed
+	half := func(hh, j int) float64 {
+		for done[hh] <= j {
+			var sum float64
+			for u, c := range cnts[hh] {
+				if c != 0 {
+					sum += float64(c) * sc.cells[u].at(done[hh])
 				}
-				sc.vh[hh][j] = sum
 			}
-			sc.his[hh] = sc.jgrid
+			sc.vh[hh][done[hh]] = sum
+			done[hh]++
 		}
-		oi, ov := sc.m.parallel(sc.his[:], sc.vh[:])
-		hint := 0
-		for k := range n {
+		return sc.vh[hh][j]
+	}
+	for hh := range 2 {
+		sc.vh[hh] = grow(sc.vh[hh], 2*n)
+	}
+	cur := func(j int) float64 { return ci0 + float64(j)*ch }
+	// currentAt is currentOn for half hh with next unvisited point j.
+	currentAt := func(hh, j int, x float64) float64 {
+		switch {
+		case j == 0:
+			dv := half(hh, 1) - half(hh, 0)
+			if dv == 0 {
+				return cur(0)
+			}
+			return cur(0) + (x-half(hh, 0))*ch/dv
+		case j >= 2*n:
+			return cur(2*n - 1)
+		}
+		dv := half(hh, j) - half(hh, j-1)
+		if dv == 0 {
+			return cur(j - 1)
+		}
+		return cur(j-1) + (x-half(hh, j-1))*ch/dv
+	}
+	oi, ov := sc.m.oi[:0], sc.m.ov[:0]
+	var kk [2]int // next unvisited point of each half
+	k, hint := 0, 0
+	for k < n {
+		best := -1
+		bv := math.Inf(-1)
+		for hh := range 2 {
+			if kk[hh] < 2*n {
+				if x := half(hh, kk[hh]); x > bv {
+					best, bv = hh, x
+				}
+			}
+		}
+		if best < 0 {
+			break
+		}
+		tot := cur(kk[best]) + currentAt(1-best, kk[1-best], bv)
+		oi, ov = append(oi, tot), append(ov, bv)
+		kk[best]++
+		if len(oi) < 2 {
+			continue
+		}
+		for ; k < n; k++ {
+			x := i0 + float64(k)*h
+			if x > tot {
+				break
+			}
 			var vk float64
-			vk, hint = voltageOn(oi, ov, i0+float64(k)*h, hint)
-			v[k] += math.Max(vk, -m.bypassV)
+			vk, hint = voltageOn(oi, ov, x, hint)
+			v[k] += fmax(vk, -m.bypassV)
+		}
+		if bv < -m.bypassV {
+			for ; k < n; k++ {
+				v[k] -= m.bypassV
+			}
 		}
 	}
+	for ; k < n; k++ {
+		var vk float64
+		vk, hint = voltageOn(oi, ov, i0+float64(k)*h, hint)
+		v[k] += fmax(vk, -m.bypassV)
+	}
+	sc.m.oi, sc.m.ov = oi, ov
 }
 
 // uniformMaxPower returns the maximum power (W) of the module's polyline
