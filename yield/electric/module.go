@@ -3,6 +3,7 @@ package electric
 import (
 	"fmt"
 	"math"
+	"sync"
 )
 
 // curvePoints is the number of points of a module curve: two of reverse
@@ -127,16 +128,21 @@ func (m *Module) Curve(cellIrr []float64, tempC float64) Curve {
 	}
 	top := m.topCurrent(cellIrr, tempC)
 	i0, h := gridFor(top)
-	var sc curveScratch
-	v := make([]float64, curvePoints)
-	m.curveOnGrid(cellIrr, tempC, i0, h, v, &sc)
+	sc := scratchPool.Get().(*curveScratch)
+	defer scratchPool.Put(sc)
+	sc.out = grow(sc.out, curvePoints)
+	m.curveOnGrid(cellIrr, tempC, i0, h, sc.out, sc)
 	c := Curve{i: make([]float32, curvePoints), v: make([]float32, curvePoints)}
-	for k := range v {
+	for k, x := range sc.out {
 		c.i[k] = float32(i0 + float64(k)*h)
-		c.v[k] = float32(v[k])
+		c.v[k] = float32(x)
 	}
 	return c
 }
+
+// scratchPool lends Curve its working space, so that repeated calls do not
+// allocate it afresh.
+var scratchPool = sync.Pool{New: func() any { return new(curveScratch) }}
 
 // CheckCells reports whether cellIrr and tempC are usable by Curve.
 func (m *Module) CheckCells(cellIrr []float64, tempC float64) error {
@@ -170,6 +176,7 @@ type curveScratch struct {
 	cnt   []int        // [sub][half][u] cell counts
 	vh    [2][]float64 // half sums on the half grid
 	m     merger
+	out   []float64 // Curve's module voltages
 }
 
 // curveOnGrid writes the module voltage at currents i0 + k·h into v. Cells
