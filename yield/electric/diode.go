@@ -94,14 +94,24 @@ func translate(ref Params, alphaAPerK, sWPerM2, tempC float64) Params {
 	s := math.Max(sWPerM2, 0)
 	egT := bandGapRefEV * (1 - bandGapTempCoeff*(tc-tRef))
 	p := Params{
-		IL:  s / stcIrrWPerM2 * (ref.IL + alphaAPerK*(tc-tRef)),
+		IL:  lightCurrent(ref.IL, alphaAPerK, s, tempC),
 		I0:  ref.I0 * math.Pow(tc/tRef, 3) * math.Exp((bandGapRefEV/tRef-egT/tc)/boltzmannEVPerK),
 		Rs:  ref.Rs,
 		Rsh: ref.Rsh * stcIrrWPerM2 / math.Max(s, 1),
 		A:   ref.A * tc / tRef,
 	}
-	if p.IL < 0 {
-		p.IL = 0
-	}
 	return p
+}
+
+// lightCurrent is translate's IL alone (no exponentials): the light current
+// at irradiance sWPerM2 and tempC for reference light current ilRef.
+func lightCurrent(ilRef, alphaAPerK, sWPerM2, tempC float64) float64 {
+	tRef := stcTempC + kelvinOffset
+	tc := tempC + kelvinOffset
+	s := math.Max(sWPerM2, 0)
+	il := s / stcIrrWPerM2 * (ilRef + alphaAPerK*(tc-tRef))
+	if il < 0 {
+		return 0
+	}
+	return il
 }

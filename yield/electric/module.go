@@ -109,7 +109,7 @@ func (m *Module) topCurrent(cellIrr []float64, tempC float64) float64 {
 			smax = s
 		}
 	}
-	return m.topCurrentAt(translate(m.cell, m.alphaCell, smax, tempC).IL)
+	return m.topCurrentAt(lightCurrent(m.cell.IL, m.alphaCell, smax, tempC))
 }
 
 // topCurrentAt returns topCurrent for a brightest cell of light current ilCell.
@@ -150,7 +150,7 @@ func (m *Module) CheckCells(cellIrr []float64, tempC float64) error {
 		return badf("cell_irradiance", "%d values, want %d (cols×rows)", len(cellIrr), m.Cells())
 	}
 	for k, s := range cellIrr {
-		if math.IsNaN(s) || math.IsInf(s, 0) || s < 0 || s > 2000 {
+		if !(s >= 0 && s <= 2000) { // false for NaN too
 			return badf(fmt.Sprintf("cell_irradiance[%d]", k), "%g W/m² must lie in 0..2000", s)
 		}
 	}

@@ -249,6 +249,14 @@ func (y *Year) merge(b *yearBatch) {
 		h := b.hours[j]
 		y.gridI0[s], y.gridH[s] = o.i0, o.h
 		base := int32(len(y.curveMPP))
+		if need := len(y.curveV) + len(o.v); need > cap(y.curveV) {
+			// Grow to the year's projected size at this step's rate of new
+			// curves (at least doubling), so the store is copied a few times
+			// rather than once per doubling from empty.
+			proj := int(float64(need) * float64(y.steps) / float64(s+1) * 1.1)
+			y.curveV = slices.Grow(y.curveV, max(proj, 2*cap(y.curveV))-len(y.curveV))
+			y.curveMPP = slices.Grow(y.curveMPP, cap(y.curveV)/curvePoints-len(y.curveMPP))
+		}
 		y.curveV = append(y.curveV, o.v...)
 		y.curveMPP = append(y.curveMPP, o.mpp...)
 		for k := range y.n {
