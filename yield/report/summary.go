@@ -20,6 +20,7 @@ type Summary struct {
 	MonthlyUnshaded  [12]float64    `json:"monthly_ac_unshaded_kwh"`
 	Losses           []Loss         `json:"losses"`
 	Layouts          []Layout       `json:"layouts"`
+	Alternatives     []Alternative  `json:"alternatives"`
 	ModuleResults    []ModuleResult `json:"module_results"`
 	Faces            []Face         `json:"faces"`
 	Checks           []Check        `json:"checks"`
@@ -60,6 +61,15 @@ type Layout struct {
 	Strings       [][]string `json:"strings"`
 	Inputs        []int      `json:"inputs"` // inverter input (1-based) of each string
 	Note          string     `json:"note,omitempty"`
+}
+
+// Alternative is the best layout run another way, for comparison: a plain hill-climbing
+// tracker instead of a global one, or a converter on every module.
+type Alternative struct {
+	Name          string  `json:"name"`
+	AnnualACkWh   float64 `json:"annual_ac_kwh"`
+	DifferenceKWh float64 `json:"difference_kwh"` // against the reported estimate
+	Note          string  `json:"note"`
 }
 
 // ModuleResult is one module's annual irradiation and shade.
@@ -117,6 +127,9 @@ func (s *Summary) JSON() ([]byte, error) {
 	if c.Layouts == nil {
 		c.Layouts = []Layout{}
 	}
+	if c.Alternatives == nil {
+		c.Alternatives = []Alternative{}
+	}
 	var buf bytes.Buffer
 	enc := json.NewEncoder(&buf)
 	enc.SetIndent("", "  ")
@@ -171,6 +184,11 @@ func roundAll(s Summary) Summary {
 		f.PitchDeg, f.AspectDeg = Round(f.PitchDeg, 1), Round(f.AspectDeg, 1)
 		f.PlanAreaM2, f.SlopedAreaM2 = Round(f.PlanAreaM2, 2), Round(f.SlopedAreaM2, 2)
 		f.KWp = Round(f.KWp, 3)
+	}
+	s.Alternatives = append([]Alternative(nil), s.Alternatives...)
+	for i := range s.Alternatives {
+		s.Alternatives[i].AnnualACkWh = Round(s.Alternatives[i].AnnualACkWh, 1)
+		s.Alternatives[i].DifferenceKWh = Round(s.Alternatives[i].DifferenceKWh, 1)
 	}
 	s.Checks = append([]Check(nil), s.Checks...)
 	for i := range s.Checks {

@@ -43,6 +43,7 @@ func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, 
 		props := map[string]any{
 			"shade_loss_pct":      report.Round(r.ShadeLossPct, 2),
 			"beam_shade_loss_pct": report.Round(r.BeamShadeLossPct, 2),
+			"solar_access_pct":    report.Round(r.SolarAccessPct, 2),
 			"annual_poa_kwh_m2":   report.Round(r.AnnualPOAkWhM2, 1),
 		}
 		if r.String != "" {

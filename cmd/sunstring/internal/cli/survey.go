@@ -11,6 +11,7 @@ import (
 
 	"sunstring/geo"
 	"sunstring/yield"
+	"sunstring/yield/electric"
 	"sunstring/yield/irradiance"
 	"sunstring/yield/report"
 	"sunstring/yield/weather"
@@ -113,6 +114,9 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		}
 		prog.Done()
 		sum := p.summary(model, ws, layouts)
+		if sum.Alternatives, err = alternatives(model, layouts); err != nil {
+			return err
+		}
 		files, err := p.outputs(model, sum, layouts, reportOptions{SVG: svg, Paper: paper, Hourly: hourly})
 		if err != nil {
 			return err
@@ -136,6 +140,37 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		return nil
 	}
 	return c
+}
+
+// moduleConverterEff is the efficiency assumed for module-level DC converters (common
+// practice: 98–99 % for current products' weighted efficiency).
+const moduleConverterEff = 0.985
+
+// alternatives runs the best layout with a plain hill-climbing tracker (which can stop on a
+// local maximum of a shaded string's P-V curve) and with a converter on every module, so the
+// surveyor sees what the tracker choice and module-level electronics are worth here.
+func alternatives(m *yield.Model, ls []rankedLayout) ([]report.Alternative, error) {
+	if len(ls) == 0 {
+		return nil, nil
+	}
+	best := ls[0].Result
+	var out []report.Alternative
+	for _, a := range []struct {
+		name, note string
+		opt        electric.EvalOptions
+	}{
+		{"hill-climbing tracker", "the same strings with a tracker that climbs from its last operating point and can stop on a local maximum when shade splits the P-V curve; the estimate assumes a tracker that finds the global maximum",
+			electric.EvalOptions{Tracker: electric.LocalClimb}},
+		{"module-level converters", fmt.Sprintf("a DC converter on every module holding it at its own maximum power point (%.1f %% conversion efficiency assumed), the inverter's AC stage unchanged", 100*moduleConverterEff),
+			electric.EvalOptions{ModuleLevel: true, ModuleLevelEff: moduleConverterEff}},
+	} {
+		r, err := m.Evaluate(best.Layout, a.opt)
+		if err != nil {
+			return nil, fmt.Errorf("alternative %q: %w", a.name, err)
+		}
+		out = append(out, report.Alternative{Name: a.name, AnnualACkWh: r.ACkWh, DifferenceKWh: r.ACkWh - best.ACkWh, Note: a.note})
+	}
+	return out, nil
 }
 
 // rankedLayout is one evaluated layout with its module ids.
