@@ -321,6 +321,7 @@ func (pr *Proposal) PDF() ([]byte, error) {
 		}
 	}
 
+	pr.electrics(d)
 	pr.assumptions(d)
 	if err := f.Error(); err != nil {
 		return nil, fmt.Errorf("report: pdf: %w", err)
@@ -330,6 +331,45 @@ func (pr *Proposal) PDF() ([]byte, error) {
 		return nil, fmt.Errorf("report: pdf: %w", err)
 	}
 	return buf.Bytes(), nil
+}
+
+// electrics is the page a surveyor checks before anyone wires anything: the string voltages at
+// the temperature extremes, the currents, the leakage estimate, the tracker and module-level
+// alternatives, and the cautions beside them.
+func (pr *Proposal) electrics(d *pdfDoc) {
+	s := pr.Summary
+	d.heading("Wiring checks and cautions", "The chosen layout's strings against the inverter's limits at the coldest and hottest temperatures given for the site. These are checks for planning; the installer designs the wiring to local codes.")
+	if len(s.Checks) > 0 {
+		// A list, not a table: each check is a sentence with its own numbers and limit.
+		var items []string
+		for _, c := range s.Checks {
+			sev := ""
+			if c.Severity != "info" {
+				sev = strings.ToUpper(c.Severity) + " — "
+			}
+			items = append(items, fmt.Sprintf("%s%s: %s", sev, c.Subject, c.Message))
+		}
+		d.bullets(items)
+	} else {
+		d.para("No electrical checks were made for this report.")
+	}
+	if len(s.Alternatives) > 0 {
+		d.sub("The same strings run another way")
+		var rows [][]string
+		for _, a := range s.Alternatives {
+			diff := Thousands(a.DifferenceKWh, 0)
+			if a.DifferenceKWh > 0 {
+				diff = "+" + diff
+			}
+			rows = append(rows, []string{a.Name, Thousands(a.AnnualACkWh, 0), diff})
+		}
+		d.table([]string{"Alternative", "AC energy (kWh)", "Against the estimate (kWh)"}, rows, []float64{0.5, 0.25, 0.25}, "LRR")
+		for _, a := range s.Alternatives {
+			d.small(a.Name + ": " + a.Note + ".")
+		}
+	}
+	d.sub("Cautions")
+	d.bullets(s.Cautions)
 }
 
 func lossPct(a, u float64) string {

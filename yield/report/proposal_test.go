@@ -44,8 +44,11 @@ func fixture(source string) *Proposal {
 		},
 		Faces:    []Face{{ID: "S", PitchDeg: 35, AspectDeg: 180, PlanAreaM2: 40, SlopedAreaM2: 48.8, Modules: 6, KWp: 2.4}},
 		Warnings: []string{"test warning"},
-		Cautions: Cautions,
-		Models:   []string{"sun: Reda & Andreas (2004)"},
+		Checks: []Check{{Severity: "info", Subject: "searched 1, input 1", Unit: "V", Value: 124.6, Limit: 600,
+			Message: "3 modules in series: 124.6 V open circuit at -16 °C (inverter maximum 600 V)"}},
+		Alternatives: []Alternative{{Name: "module-level converters", AnnualACkWh: 2400, DifferenceKWh: 54.4, Note: "a converter on every module"}},
+		Cautions:     Cautions,
+		Models:       []string{"sun: Reda & Andreas (2004)"},
 	}
 	pl := &Plan{
 		Faces:  []Shape{{ID: "S", Ring: [][2]float64{{0, 0}, {8, 0}, {8, 5}, {0, 5}, {0, 0}}}},
@@ -77,7 +80,7 @@ func fixture(source string) *Proposal {
 
 // pageTitles are the headings every full proposal carries, one page each (after the first).
 var pageTitles = []string{"Roof plan and strings", "Sun path and obstructions", "Monthly energy",
-	"Losses from irradiation to AC energy", "String layouts compared", "Assumptions, uncertainty and safety"}
+	"Losses from irradiation to AC energy", "String layouts compared", "Wiring checks and cautions", "Assumptions, uncertainty and safety"}
 
 var mediaBox = regexp.MustCompile(`/MediaBox \[0 0 ([0-9.]+) ([0-9.]+)\]`)
 
@@ -126,7 +129,7 @@ func TestProposalPDF(t *testing.T) {
 				}
 			}
 			// The key figures are the summary's, formatted for people.
-			for _, want := range []string{"2,346", "977", "2.40"} {
+			for _, want := range []string{"2,346", "977", "2.40", "124.6 V", "licensed installer"} {
 				if !strings.Contains(txt, want) {
 					t.Errorf("key figure %q missing from the text", want)
 				}

@@ -2,6 +2,7 @@ package cli
 
 import (
 	"fmt"
+	"strings"
 
 	"sunstring/yield/electric"
 	"sunstring/yield/layout"
@@ -68,10 +69,12 @@ func fromFinding(subject string, f electric.Finding) report.Check {
 	case electric.Warning:
 		sev = "warning"
 	}
+	msg := f.Message
 	if f.Input >= 0 && subject != "array" {
 		subject = fmt.Sprintf("%s, input %d", subject, f.Input+1)
+		msg = strings.TrimPrefix(msg, fmt.Sprintf("input %d: ", f.Input+1))
 	}
-	return report.Check{Severity: sev, Subject: subject, Message: f.Message, Value: f.Value, Limit: f.Limit, Unit: f.Unit}
+	return report.Check{Severity: sev, Subject: subject, Message: msg, Value: f.Value, Limit: f.Limit, Unit: f.Unit}
 }
 
 // lengths returns the string lengths per input of a layout.
