@@ -121,7 +121,7 @@ func LayoutChart(ls []Layout) *plot.Plot {
 		lxy = append(lxy, plotter.XY{X: l.AnnualACkWh + 0.01*max, Y: y})
 		lab := fmt.Sprintf("%s kWh, shade loss %s", Thousands(l.AnnualACkWh, 0), Pct(l.ShadeLossPct))
 		if i > 0 {
-			lab += fmt.Sprintf(", %s kWh behind", Thousands(l.BehindBestKWh, 0))
+			lab = fmt.Sprintf("−%s kWh, shade loss %s", Thousands(l.BehindBestKWh, 0), Pct(l.ShadeLossPct))
 		}
 		lls = append(lls, lab)
 	}
@@ -133,7 +133,7 @@ func LayoutChart(ls []Layout) *plot.Plot {
 	p.X.Label.Text = "AC energy per year (kWh)"
 	p.X.Label.TextStyle.Color = Ink
 	p.X.Min = 0
-	p.X.Max = math.Max(max*1.55, 1)
+	p.X.Max = math.Max(max*1.7, 1)
 	p.X.Tick.Marker = thousandsTicks{}
 	p.Y.Min, p.Y.Max = -0.6, math.Max(float64(n)-0.4, 0.4)
 	return p
