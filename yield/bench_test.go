@@ -1,0 +1,71 @@
+package yield
+
+import (
+	"context"
+	"fmt"
+	"math/rand/v2"
+	"testing"
+	"time"
+
+	"github.com/paulmach/orb"
+
+	"sunstring/geo"
+	"sunstring/shading/sun"
+	"sunstring/yield/weather"
+)
+
+// benchSite is a seeded invented site: one long south face holding about n modules (two
+// rows of n/2) and k obstructions around it (chimneys on the roof, walls and sheds nearby).
+func benchSite(b *testing.B, n, k int) (*geo.Site, []geo.Module) {
+	b.Helper()
+	cols := (n + 1) / 2
+	width := float64(cols)*1.01 + 0.6
+	face := geo.Face{ID: "S", PitchDeg: 30, AspectDeg: 180, EaveHeightM: 4,
+		Plan: orb.Ring{{0, 0}, {width, 0}, {width, 3.7}, {0, 3.7}, {0, 0}}}
+	face.SetEave()
+	site := &geo.Site{Proj: geo.NewENU(15, 47, 0), Faces: []geo.Face{face}}
+	r := rand.New(rand.NewPCG(uint64(n), uint64(k)))
+	for i := range k {
+		x := r.Float64()*(width+20) - 10
+		y := -4 - r.Float64()*15
+		w, d := 0.5+r.Float64()*3, 0.5+r.Float64()*3
+		site.Blocks = append(site.Blocks, geo.Block{ID: fmt.Sprintf("b%d", i), HeightM: 2 + r.Float64()*6,
+			Footprint: orb.Ring{{x, y}, {x + w, y}, {x + w, y + d}, {x, y + d}, {x, y}}})
+	}
+	mods, _, err := geo.Fill(site, geo.FillOptions{LengthM: 1.65, WidthM: 0.99, Grid: geo.CellGrid{Cols: 6, Rows: 10}, SetbackM: 0.3, GapM: 0.02})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return site, mods
+}
+
+// BenchmarkPrepare measures how a survey's one-off cost grows with the number of modules, of
+// obstructions and of time steps (hourly records).
+func BenchmarkPrepare(b *testing.B) {
+	zone, _ := time.LoadLocation("Europe/Vienna")
+	ghi := [12]float64{35, 55, 95, 130, 160, 170, 175, 150, 105, 70, 38, 28}
+	temp := [12]float64{-1, 1, 5, 10, 15, 18, 20, 19.5, 15, 10, 4, 0}
+	ws, err := weather.FromMonthly(weather.Site{LatDeg: 47, LonDeg: 15, Zone: zone}, ghi, temp)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, c := range []struct{ modules, objects, hours int }{
+		{20, 10, 8760}, {60, 10, 8760}, {120, 10, 8760},
+		{60, 40, 8760}, {60, 160, 8760},
+		{60, 10, 2190}, {60, 10, 4380},
+	} {
+		b.Run(fmt.Sprintf("modules=%d/objects=%d/hours=%d", c.modules, c.objects, c.hours), func(b *testing.B) {
+			site, mods := benchSite(b, c.modules, c.objects)
+			w := *ws
+			w.Records = ws.Records[:c.hours]
+			in := Input{Site: site, Modules: mods, Weather: &w, Observer: sun.Observer{LatDeg: 47, LonDeg: 15}, Zone: zone,
+				System: System{Module: testModule, Inverter: testInverter, Albedo: 0.2}}
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := Prepare(context.Background(), in); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
