@@ -128,7 +128,7 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		best := sum
 		fmt.Fprintf(w, "%s: %d modules, %.2f kWp\n", p.Cfg.Name, best.Modules, best.DCkWp)
 		fmt.Fprintf(w, "annual AC energy %s kWh, specific yield %s kWh/kWp, performance ratio %.2f\n",
-			thousands(best.AnnualACkWh, 0), thousands(best.SpecificYield, 0), best.PerformanceRatio)
+			report.Thousands(best.AnnualACkWh, 0), report.Thousands(best.SpecificYield, 0), best.PerformanceRatio)
 		if len(best.Layouts) > 0 {
 			fmt.Fprintf(w, "best layout %q loses %.1f %% to shade\n", best.Layouts[0].Name, best.Layouts[0].ShadeLossPct)
 		}
@@ -251,26 +251,4 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 		})
 	}
 	return s
-}
-
-// thousands formats x with d decimals and thin-space-free comma thousands separators.
-func thousands(x float64, d int) string {
-	s := fmt.Sprintf("%.*f", d, x)
-	neg := strings.HasPrefix(s, "-")
-	s = strings.TrimPrefix(s, "-")
-	intPart, frac := s, ""
-	if i := strings.IndexByte(s, '.'); i >= 0 {
-		intPart, frac = s[:i], s[i:]
-	}
-	var b strings.Builder
-	for i, r := range intPart {
-		if i > 0 && (len(intPart)-i)%3 == 0 {
-			b.WriteByte(',')
-		}
-		b.WriteRune(r)
-	}
-	if neg {
-		return "-" + b.String() + frac
-	}
-	return b.String() + frac
 }
