@@ -46,7 +46,7 @@ func exampleReport(t *testing.T) string {
 			t.Fatal(err)
 		}
 		surveyed.dir = filepath.Join(dir, "out")
-		surveyed.out, _, surveyed.code = run(t, "survey", exampleSite, "-o", surveyed.dir)
+		surveyed.out, _, surveyed.code = run(t, "survey", exampleSite, "-o", surveyed.dir, "--hourly")
 	}
 	if surveyed.code != 0 {
 		t.Fatalf("survey exit %d: %s", surveyed.code, surveyed.out)
@@ -174,10 +174,10 @@ func TestSurveyExampleContract(t *testing.T) {
 func TestSurveyDeterministicAndAtomic(t *testing.T) {
 	first := exampleReport(t)
 	dir := filepath.Join(t.TempDir(), "out")
-	if _, errs, code := run(t, "survey", exampleSite, "-o", dir); code != 0 {
+	if _, errs, code := run(t, "survey", exampleSite, "-o", dir, "--hourly"); code != 0 {
 		t.Fatalf("second run exit %d: %s", code, errs)
 	}
-	for _, f := range []string{"summary.json", "modules.geojson"} {
+	for _, f := range []string{"summary.json", "modules.geojson", "hourly.csv", "proposal.pdf"} {
 		a, _ := os.ReadFile(filepath.Join(first, f))
 		b, _ := os.ReadFile(filepath.Join(dir, f))
 		if !bytes.Equal(a, b) || len(a) == 0 {
