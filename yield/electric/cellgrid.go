@@ -8,18 +8,18 @@ import "math"
 // iteration from the previous one (lambertWExpNear) and reuses log(I0·Rsh/A),
 // so a point costs about one logarithm instead of four for VoltageAt.
 type cellGrid struct {
-	p     Params
-	c0    float64 // log(I0·Rsh/A): L = c0 + (IL+I0−I)·Rsh/A, as in VoltageAt
-	i0, h float64
-	n     int       // points computed so far
-	L, w  float64   // at point n−1
-	v     []float64 // voltages of points 0..n−1
+	p      Params
+	c0, rA float64 // log(I0·Rsh/A) and Rsh/A: L = c0 + (IL+I0−I)·rA
+	i0, h  float64
+	n      int       // points computed so far
+	L, w   float64   // at point n−1
+	v      []float64 // voltages of points 0..n−1
 }
 
 // reset starts the grid for parameters p; buf (reused) must hold every
 // point that will be asked for.
 func (g *cellGrid) reset(p Params, i0, h float64, buf []float64) {
-	*g = cellGrid{p: p, c0: math.Log(p.I0 * p.Rsh / p.A), i0: i0, h: h, v: buf}
+	*g = cellGrid{p: p, c0: math.Log(p.I0 * p.Rsh / p.A), rA: p.Rsh / p.A, i0: i0, h: h, v: buf}
 }
 
 // at returns the voltage at point k, computing the points up to k.
@@ -27,7 +27,7 @@ func (g *cellGrid) at(k int) float64 {
 	for g.n <= k {
 		i := g.i0 + float64(g.n)*g.h
 		d := g.p.IL + g.p.I0 - i
-		L := g.c0 + d*g.p.Rsh/g.p.A
+		L := g.c0 + d*g.rA
 		var w float64
 		if g.n == 0 {
 			w = lambertWExp(L)

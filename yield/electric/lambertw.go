@@ -54,36 +54,38 @@ const warmTol = 1e-4
 
 // lambertWExpNear returns W(e^L) like lambertWExp, starting from a nearby
 // solution wp = W(e^Lp). Along a curve's current grid L moves in steps, and
-// the Taylor guess w = wp·(1 + g2), g2 = g + g²/(2(1+wp)), g = (L−Lp)/(1+wp)
+// the Taylor guess w = wp·(1 + g2), g2 = g + g·g/(2(1+wp)), g = (L−Lp)/(1+wp)
 // (dW/dL = W/(1+W), d²W/dL² = W/(1+W)³) has a relative error of about
 // |g|³/(3(1+wp)): small even for large g when W is large, as it is in
 // forward bias. Its logarithm needs no math.Log for small g: ln wp = Lp − wp
-// by definition, so ln w = Lp − wp + log1p(g2), a short series. One
-// iteration then usually meets warmTol; otherwise the ordinary iteration
-// continues to lambertWExp's own criterion. Where the guess would be worse
-// than lambertWExp's (about 1 %), or W falls by more than a factor 3, it
-// starts from lambertWExp's guesses instead.
+// by definition, so ln w = Lp − wp + log1p(g2), a short series. One step of
+// the iteration then usually meets warmTol; otherwise it continues to
+// lambertWExp's own criterion. Where the guess would be worse than
+// lambertWExp's (about 1 %), or W falls by more than a factor 3, it starts
+// from lambertWExp's guesses instead.
 func lambertWExpNear(L, Lp, wp float64) float64 {
 	if L < -40 {
 		return math.Exp(L)
 	}
-	g := (L - Lp) / (1 + wp)
-	g2 := g + 0.5*g*g/(1+wp)
-	if !(wp > 0) || !(g2 > -0.7) || !(g*g*math.Abs(g) < 0.03*(1+wp)) {
+	r := 1 / (1 + wp)
+	g := (L - Lp) * r
+	g2 := g + 0.5*g*g*r
+	if !(wp > 0) || !(g2 > -0.7) || !(g*g*math.Abs(g)*r < 0.03) {
 		return lambertWExp(L)
 	}
 	w := wp * (1 + g2)
 	var l1 float64
-	if math.Abs(g2) <= 0.11 {
+	if g2 <= 0.11 && g2 >= -0.11 {
 		l1 = log1pSmall(g2)
 	} else {
 		l1 = math.Log1p(g2)
 	}
+	// The step of fritsch, with its two divisions merged into one.
 	z := L - (Lp - wp + l1) - w
 	q := 2 * (1 + w) * (1 + w + 2*z/3)
-	eps := z / (1 + w) * (q - z) / (q - 2*z)
+	eps := z * (q - z) / ((1 + w) * (q - 2*z))
 	w *= 1 + eps
-	if math.Abs(eps) < warmTol {
+	if eps < warmTol && eps > -warmTol {
 		return w
 	}
 	return fritsch(L, w, 1e-15)

@@ -358,9 +358,10 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h flo
 // the voltage is positive, so V(I) is N times one cell's voltage, concave
 // (V = d·Rsh − I·Rs − A·W(e^L) with W convex in L and L affine in I), and
 // P = I·V is concave for I ≥ 0. The grid points' powers then rise to one
-// peak and fall, which a bisection finds; and the polyline, which lies below
-// the concave curve, can beat that peak point only on its two adjacent
-// segments, which polyMax then searches exactly.
+// peak and fall, so a climb from the datasheet's Imp/Isc finds the peak
+// point; and the polyline, which lies below the concave curve, can beat that
+// point only on its two adjacent segments, which polyMax then searches
+// exactly.
 func (m *Module) uniformMaxPower(sWPerM2, tempC float64, sc *curveScratch) float64 {
 	p := translate(m.cell, m.alphaCell, sWPerM2, tempC)
 	i0, h := gridFor(m.topCurrentAt(p.IL))
@@ -368,45 +369,60 @@ func (m *Module) uniformMaxPower(sWPerM2, tempC float64, sc *curveScratch) float
 	if m.half {
 		ci0, ch = i0/2, h/2
 	}
-	if len(sc.cells) == 0 {
-		sc.cells = append(sc.cells, cellGrid{})
-		sc.bufs = append(sc.bufs, nil)
+	sc.out = grow(sc.out, curvePoints)
+	vc := sc.out
+	for k := range vc {
+		vc[k] = math.NaN()
 	}
-	sc.bufs[0] = grow(sc.bufs[0], curvePoints)
-	for k := range sc.bufs[0] {
-		sc.bufs[0][k] = math.NaN()
-	}
+	c0 := math.Log(p.I0 * p.Rsh / p.A)
+	var lastL, lastW float64
+	have := false
+	// vcell returns the cell voltage at point k, warm-starting W from the
+	// point computed last (the climb moves one point at a time).
 	vcell := func(k int) float64 {
-		if v := sc.bufs[0][k]; !math.IsNaN(v) {
+		if v := vc[k]; !math.IsNaN(v) {
 			return v
 		}
-		v := p.VoltageAt(ci0 + float64(k)*ch)
-		sc.bufs[0][k] = v
-		return v
+		i := ci0 + float64(k)*ch
+		d := p.IL + p.I0 - i
+		L := c0 + d*p.Rsh/p.A
+		var w float64
+		if have {
+			w = lambertWExpNear(L, lastL, lastW)
+		} else {
+			w = lambertWExp(L)
+		}
+		lastL, lastW, have = L, w, true
+		vc[k] = d*p.Rsh - i*p.Rs - p.A*w
+		return vc[k]
 	}
 	vmod := func(k int) float64 {
-		vc := vcell(k)
+		v := vcell(k)
 		var sum float64
 		for _, c := range m.subCells {
-			sum += math.Max(float64(c)*vc, -m.bypassV)
+			sum += fmax(float64(c)*v, -m.bypassV)
 		}
 		return sum
 	}
 	pw := func(k int) float64 { return (i0 + float64(k)*h) * vmod(k) }
-	// Point 2 is zero current; the peak lies in [2, curvePoints−1].
-	lo, hi := 2, curvePoints-1
-	for lo < hi {
-		mid := (lo + hi) / 2
-		if pw(mid) < pw(mid+1) {
-			lo = mid + 1
-		} else {
-			hi = mid
-		}
+	// Point 2 is zero current, the light current lies near point
+	// 2 + (curvePoints−3)/1.04; start where the datasheet's Imp/Isc puts
+	// the maximum.
+	frac := 0.9
+	if m.ds.IscA > 0 {
+		frac = m.ds.ImpA / m.ds.IscA
 	}
-	a, b := max(lo-1, 0), min(lo+1, curvePoints-1)
+	k := min(max(2+int(frac*(curvePoints-3)/1.04), 2), curvePoints-2)
+	for k+1 < curvePoints && pw(k+1) > pw(k) {
+		k++
+	}
+	for k > 2 && pw(k-1) > pw(k) {
+		k--
+	}
+	a, b := max(k-1, 0), min(k+1, curvePoints-1)
 	var is, vs [3]float64
-	for k := a; k <= b; k++ {
-		is[k-a], vs[k-a] = i0+float64(k)*h, vmod(k)
+	for j := a; j <= b; j++ {
+		is[j-a], vs[j-a] = i0+float64(j)*h, vmod(j)
 	}
 	pm, _, _ := polyMax(is[:b-a+1], vs[:b-a+1], 0, math.Inf(1), math.Inf(1))
 	return pm

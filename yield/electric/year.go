@@ -80,14 +80,14 @@ type YearResult struct {
 type Year struct {
 	m          *Module
 	n, steps   int
-	gridI0     []float64 // per step: current of point 0 (A)
-	gridH      []float64 // per step: current step (A)
-	curveV     []float32 // curves × curvePoints voltages (V)
-	curveMPP   []float32 // per curve: module maximum power (W)
-	modCurve   []int32   // steps × n: curve index
-	unshadedW  []float32 // steps × n: unshaded module maximum power (W)
-	hours      []float32 // per step (h)
-	moduleDCWh []float64 // per module over the year
+	gridI0     []float64   // per step: current of point 0 (A)
+	gridH      []float64   // per step: current step (A)
+	curveV     [][]float32 // blocks of curveBlock curves × curvePoints voltages (V)
+	curveMPP   []float32   // per curve: module maximum power (W)
+	modCurve   []int32     // steps × n: curve index
+	unshadedW  []float32   // steps × n: unshaded module maximum power (W)
+	hours      []float32   // per step (h)
+	moduleDCWh []float64   // per module over the year
 	moduleUnWh []float64
 }
 
@@ -249,15 +249,9 @@ func (y *Year) merge(b *yearBatch) {
 		h := b.hours[j]
 		y.gridI0[s], y.gridH[s] = o.i0, o.h
 		base := int32(len(y.curveMPP))
-		if need := len(y.curveV) + len(o.v); need > cap(y.curveV) {
-			// Grow to the year's projected size at this step's rate of new
-			// curves (at least doubling), so the store is copied a few times
-			// rather than once per doubling from empty.
-			proj := int(float64(need) * float64(y.steps) / float64(s+1) * 1.1)
-			y.curveV = slices.Grow(y.curveV, max(proj, 2*cap(y.curveV))-len(y.curveV))
-			y.curveMPP = slices.Grow(y.curveMPP, cap(y.curveV)/curvePoints-len(y.curveMPP))
+		for c := range o.mpp {
+			y.addCurve(o.v[c*curvePoints : (c+1)*curvePoints])
 		}
-		y.curveV = append(y.curveV, o.v...)
 		y.curveMPP = append(y.curveMPP, o.mpp...)
 		for k := range y.n {
 			c := o.mod[k]
@@ -267,6 +261,26 @@ func (y *Year) merge(b *yearBatch) {
 			y.moduleUnWh[k] += float64(o.unW[k]) * h
 		}
 	}
+}
+
+// curveBlock is the number of curves in one block of Year.curveV: the store
+// grows a block at a time and is never copied.
+const curveBlock = 1024
+
+// addCurve appends one curve's voltages to the store.
+func (y *Year) addCurve(v []float32) {
+	nb := len(y.curveV)
+	if nb == 0 || len(y.curveV[nb-1]) == curveBlock*curvePoints {
+		y.curveV = append(y.curveV, make([]float32, 0, curveBlock*curvePoints))
+		nb++
+	}
+	y.curveV[nb-1] = append(y.curveV[nb-1], v...)
+}
+
+// curve returns curve c's voltages on its step's grid.
+func (y *Year) curve(c int32) []float32 {
+	b, k := int(c)/curveBlock, int(c)%curveBlock
+	return y.curveV[b][k*curvePoints : (k+1)*curvePoints]
 }
 
 // yearWorker is one goroutine's working space.
@@ -560,7 +574,7 @@ func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []fl
 		sum := sc.sums[b]
 		clear(sum)
 		for _, p := range sc.pairs[b] {
-			cv := y.curveV[int(p.c)*curvePoints : (int(p.c)+1)*curvePoints]
+			cv := y.curve(p.c)
 			f := float64(p.n)
 			for k, x := range cv {
 				sum[k] += f * float64(x)
