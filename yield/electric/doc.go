@@ -20,7 +20,10 @@
 //     cells using Lambert W-function", Solar Energy Materials & Solar Cells
 //     81:269–277. Exact to double precision; W is evaluated from its
 //     logarithm so that huge arguments do not overflow, with the iteration of
-//     Fritsch, Shafer & Crowley (1973), Commun. ACM 16:123–124.
+//     Fritsch, Shafer & Crowley (1973), Commun. ACM 16:123–124. Along a
+//     curve's current grid each point starts from the previous one (a Taylor
+//     guess whose logarithm is known without math.Log), so one step usually
+//     suffices; it agrees with the cold start to a few ulps (tested).
 //   - Inverter: D. L. King, S. Gonzalez, G. M. Galbraith, W. E. Boyson
 //     (2007), "Performance model for grid-connected photovoltaic inverters",
 //     Sandia report SAND2007-5036, as an option; otherwise a curve of
@@ -39,4 +42,11 @@
 // Curves are polylines of 64 points on a current grid (see Curve); series
 // and parallel connection are exact operations on polylines, and the
 // maximum power is exact on the polyline, within 0.1 % of the exact model.
+// A cell's points are computed only while its substring's bypass diode is
+// off (every cell's voltage falls with current, so a bypassed substring stays
+// bypassed at higher currents); this changes no point of the curve.
+// NewYear builds the curves of a batch of steps on GOMAXPROCS goroutines
+// while the caller's step function fills the next batch; the step function
+// still runs in step order on the caller's goroutine, and the year does not
+// depend on the number of goroutines (tested).
 package electric
