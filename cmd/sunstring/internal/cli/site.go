@@ -139,6 +139,7 @@ func loadProject(path string, flags *pflag.FlagSet, bind map[string]string) (*pr
 	if err != nil {
 		return nil, inputError{fmt.Errorf("%s: module: %w", path, err)}
 	}
+	fitNotes := electric.FitWarnings(p.Datasheet, mod.Params())
 	cols, rows := mod.Grid()
 	orient, err := geo.ParseOrientation(cfg.Fill.Orientation)
 	if err != nil {
@@ -152,7 +153,7 @@ func loadProject(path string, flags *pflag.FlagSet, bind map[string]string) (*pr
 	if err != nil {
 		return nil, err
 	}
-	p.Modules, p.Notes = mods, notes
+	p.Modules, p.Notes = mods, append(fitNotes, notes...)
 	return p, nil
 }
 
