@@ -193,9 +193,10 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 	gndIAM := make([]float64, n)
 	for i := range in.Modules {
 		if in.System.IAM == IAMASHRAE {
-			// The ASHRAE form has no closed diffuse integral; 58° and the ground's
-			// 90 − 0.5788β + 0.002693β² equivalent angles (Brandemuehl & Beckman 1980, in
-			// Duffie & Beckman §5.4) give its diffuse modifiers.
+			// The ASHRAE form has no closed diffuse integral; the effective incidence angles
+			// of Brandemuehl & Beckman (1980) give its diffuse modifiers: sky
+			// 59.7 − 0.1388β + 0.001497β², ground 90 − 0.5788β + 0.002693β² (Duffie &
+			// Beckman, Solar Engineering of Thermal Processes, §5.4; from memory).
 			b := tilt[i]
 			skyIAM[i] = irradiance.IAMASHRAE(59.7-0.1388*b+0.001497*b*b, ashraeB0)
 			gndIAM[i] = irradiance.IAMASHRAE(90-0.5788*b+0.002693*b*b, ashraeB0)
