@@ -214,6 +214,9 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 	var beamSum, beamLit = make([]float64, n), make([]float64, n)
 	var refW float64
 	year, err := electric.NewYear(mod, n, len(ups), func(s int, dst *electric.StepInput) {
+		if in.Progress != nil && s%128 == 0 {
+			in.Progress("module curves", s, len(ups))
+		}
 		st := ups[s]
 		r := in.Weather.Records[st.rec]
 		zen := st.pos.Zenith.Degrees()
