@@ -43,6 +43,7 @@ func (p *progress) Update(stage string, done, total int) {
 			progressbar.OptionClearOnFinish(),
 			progressbar.OptionThrottle(100_000_000),
 		)
+		p.bar.RenderBlank() // show the stage at once, not after the first throttle interval
 	}
 	p.bar.Set(done)
 }
