@@ -103,7 +103,7 @@ func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, 
 			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b,
 			Inputs: p.Inverter.Inputs, Order: order,
 		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
-			CableWeightWh: weightWh, Keep: keep + 1, Progress: prog,
+			CableWeightWh: weightWh, Keep: keep + 1, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
 		})
 		if err != nil {
 			return nil, fmt.Errorf("layout search: %w", err)

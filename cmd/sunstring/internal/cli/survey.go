@@ -217,6 +217,18 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 	if len(ls) > 0 {
 		best := ls[0]
 		r := best.Result
+		// The figures are the connected modules': a layout may leave some out.
+		connected := 0
+		for _, st := range best.Strings {
+			connected += len(st)
+		}
+		if connected < len(p.Modules) {
+			s.Warnings = append(s.Warnings, fmt.Sprintf("the best layout leaves %d of the %d placed modules unconnected; the figures are for the %d connected ones",
+				len(p.Modules)-connected, len(p.Modules), connected))
+			s.Modules = connected
+			kwp = float64(connected) * p.Datasheet.PowerW / 1000
+			s.DCkWp = kwp
+		}
 		s.AnnualACkWh = r.ACkWh
 		s.SpecificYield = r.ACkWh / kwp
 		if m.RefPOAKWhM2 > 0 {

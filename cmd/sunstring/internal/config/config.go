@@ -97,9 +97,11 @@ type Fill struct {
 
 // Layouts is the string-layout search and the user's own layouts.
 type Layouts struct {
-	Search bool          `mapstructure:"search"`
-	Keep   float64       `mapstructure:"keep"`
-	Fixed  []FixedLayout `mapstructure:"fixed"`
+	Search bool `mapstructure:"search"`
+	// LeaveOut lets the search leave modules unconnected when that yields more.
+	LeaveOut bool          `mapstructure:"leave_out"`
+	Keep     float64       `mapstructure:"keep"`
+	Fixed    []FixedLayout `mapstructure:"fixed"`
 	// CableWeight is the energy, in kWh a year, that one extra metre of string cable is worth
 	// in the ranking (0: cable length is reported, not weighed).
 	CableWeight float64 `mapstructure:"cable_weight_kwh_per_m"`
