@@ -39,6 +39,9 @@ type Problem struct {
 	// Order is the caller's roof order of the modules, used as one of the starts
 	// (optional: nil means index order).
 	Order []int
+	// Starts are layouts of the caller's own to start from as well (optional), for instance
+	// strings kept on one roof face each. A start that breaks the bounds is skipped.
+	Starts []electric.Layout
 }
 
 // Options tune the search. The zero value searches with every module used, cable reported
@@ -72,6 +75,7 @@ const (
 	StartClustered = "clustered by shade"
 	StartRoofOrder = "roof order"
 	StartShadeRank = "ranked by shade"
+	StartGiven     = "given by the caller"
 )
 
 // ErrNoShape means no layout of the bounds takes the modules.
@@ -134,6 +138,16 @@ func Search(ctx context.Context, p Problem, eval Evaluator, opt Options) ([]Cand
 			}
 			starts = append(starts, st)
 		}
+	}
+	for _, l := range p.Starts {
+		st, ok := s.given(l)
+		if !ok {
+			continue
+		}
+		if err := s.score(&st); err != nil {
+			return nil, err
+		}
+		starts = append(starts, st)
 	}
 	slices.SortStableFunc(starts, func(a, b state) int { return cmp.Compare(b.score, a.score) })
 	// Local search from the best starts of distinct shapes, so that the ranking offers
@@ -488,6 +502,63 @@ func (s *searcher) starts(sh Shape) []state {
 		mk(StartRoofOrder, fill(roof)),
 		mk(StartShadeRank, fill(byShade)),
 	}
+}
+
+// given turns a caller's layout into a search state: inputs ordered as shapes are (more
+// modules first, then longer strings), strings in slot order. It reports false for a layout
+// outside the bounds or using a module twice.
+func (s *searcher) given(l electric.Layout) (state, bool) {
+	type in struct {
+		is   InputShape
+		strs [][]int
+	}
+	var ins []in
+	used := make([]bool, s.n)
+	b := s.p.Bounds
+	for _, strs := range l.Inputs {
+		if len(strs) == 0 {
+			continue
+		}
+		L := len(strs[0])
+		if len(strs) > b.MaxParallel || L < b.MinSeries || L > b.MaxSeries {
+			return state{}, false
+		}
+		for _, st := range strs {
+			if len(st) != L {
+				return state{}, false
+			}
+			for _, m := range st {
+				if m < 0 || m >= s.n || used[m] {
+					return state{}, false
+				}
+				used[m] = true
+			}
+		}
+		ins = append(ins, in{InputShape{len(strs), L}, strs})
+	}
+	if len(ins) == 0 || len(ins) > s.p.Inputs {
+		return state{}, false
+	}
+	slices.SortStableFunc(ins, func(a, c in) int {
+		return cmp.Or(cmp.Compare(c.is.Modules(), a.is.Modules()), cmp.Compare(c.is.Length, a.is.Length))
+	})
+	st := state{start: StartGiven}
+	for i, g := range ins {
+		st.shape = append(st.shape, g.is)
+		for _, str := range g.strs {
+			st.inputs = append(st.inputs, i)
+			st.strs = append(st.strs, slices.Clone(str))
+		}
+	}
+	for m, u := range used {
+		if !u {
+			st.pool = append(st.pool, m)
+		}
+	}
+	if len(st.pool) > 0 && !s.opt.LeaveOut {
+		return state{}, false
+	}
+	return st, true
 }
 
 // cluster splits the modules into groups of the given sizes with similar features: seeds by

@@ -101,7 +101,7 @@ func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, 
 		}
 		cands, err := layout.Search(ctx, layout.Problem{
 			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b,
-			Inputs: p.Inverter.Inputs, Order: order,
+			Inputs: p.Inverter.Inputs, Order: order, Starts: []electric.Layout{seq},
 		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
 			CableWeightWh: weightWh, Keep: keep + 1, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
 		})
