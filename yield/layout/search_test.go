@@ -335,3 +335,31 @@ func TestShadedEndTogether(t *testing.T) {
 		})
 	}
 }
+
+// A caller's start that is already the optimum (found by exhaustive enumeration) survives a
+// budget too small for the search to find it on its own; a start outside the bounds is
+// skipped without an error.
+func TestGivenStart(t *testing.T) {
+	const n, inputs = 10, 2
+	b := Bounds{MinSeries: 3, MaxSeries: 7, MaxParallel: 2}
+	r := randomRoof(n, 5, 48, 6, 3)
+	want, _ := exhaustive(t, n, inputs, b, false, r.eval)
+	// The optimum's layout, from a search with a generous budget.
+	long, err := Search(context.Background(), Problem{Features: r.features(), Bounds: b, Inputs: inputs}, r.eval, Options{MaxEvals: 5000})
+	if err != nil {
+		t.Fatal(err)
+	}
+	bestE, bestL := long[0].EnergyWh, long[0].Layout
+	if !scalar.EqualWithinAbsOrRel(bestE, want, 1e-9, 1e-9) {
+		t.Skipf("the long search did not reach the optimum (%.3f against %.3f); nothing to give", bestE, want)
+	}
+	bad := electric.Layout{Inputs: [][][]int{{{0, 1}}}} // two modules: below MinSeries
+	got, err := Search(context.Background(), Problem{Features: r.features(), Bounds: b, Inputs: inputs, Starts: []electric.Layout{bad, bestL}},
+		r.eval, Options{MaxEvals: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !scalar.EqualWithinAbsOrRel(got[0].EnergyWh, want, 1e-9, 1e-9) || got[0].Start != StartGiven {
+		t.Errorf("best %.4f Wh from %q, want the given optimum %.4f Wh", got[0].EnergyWh, got[0].Start, want)
+	}
+}
