@@ -81,6 +81,9 @@ type Model struct {
 	StepRecord []int
 	// StepMonth is each sun-up step's local month (0-based).
 	StepMonth []int
+	// StepPOA is each sun-up step's plane-of-array irradiance, W/m², the mean over the
+	// modules with shade and before incidence-angle and soiling losses.
+	StepPOA []float64
 	// NightHours is the number of records with the sun down.
 	NightHours int
 
@@ -212,6 +215,7 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 		iamB                      float64
 	}
 	var beamSum, beamLit = make([]float64, n), make([]float64, n)
+	m.StepPOA = make([]float64, len(ups))
 	var refW float64
 	year, err := electric.NewYear(mod, n, len(ups), func(s int, dst *electric.StepInput) {
 		if in.Progress != nil && s%128 == 0 {
@@ -253,6 +257,7 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 			dst.UnshadedIrr[i] = soil * ((c.beam+c.circ)*c.iamB + c.iso*skyIAM[i] + c.hor*skyIAM[i] + c.gnd*gndIAM[i])
 			dst.TempC[i] = irradiance.CellTempFaiman(shaded, r.AirTempC, r.WindMS, irradiance.FaimanU0, irradiance.FaimanU1)
 
+			m.StepPOA[s] += shaded / float64(n)
 			hours := iv.Hours()
 			dst.Hours = hours
 			ms := &m.Stats[i]

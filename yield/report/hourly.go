@@ -13,6 +13,9 @@ type HourlyRow struct {
 	EndUTC        time.Time // end of the interval (DESIGN.md: records stamp the interval's end)
 	GHI, DNI, DHI float64   // W/m², means over the interval
 	AirTempC      float64
+	// POA is the plane-of-array irradiance, W/m², the mean over the modules with shade
+	// (before incidence-angle and soiling losses); 0 while the sun is down.
+	POA float64
 	// BeamLitPct is the mean over the modules of the share of cell area in direct sun, %;
 	// NaN while the sun is down.
 	BeamLitPct float64
@@ -23,7 +26,7 @@ type HourlyRow struct {
 }
 
 // HourlyHeader is the CSV header: units in every column name.
-var HourlyHeader = []string{"time_utc_end", "ghi_w_m2", "dni_w_m2", "dhi_w_m2", "air_temp_c", "beam_lit_pct", "ac_w"}
+var HourlyHeader = []string{"time_utc_end", "ghi_w_m2", "dni_w_m2", "dhi_w_m2", "air_temp_c", "poa_w_m2", "beam_lit_pct", "ac_w"}
 
 // HourlyCSV writes the rows as CSV with HourlyHeader, RFC 3339 times and fixed decimals, so
 // the same inputs give the same bytes. beam_lit_pct is empty while the sun is down.
@@ -39,7 +42,7 @@ func HourlyCSV(rows []HourlyRow) ([]byte, error) {
 		if !math.IsNaN(r.BeamLitPct) {
 			lit = f(r.BeamLitPct, 1)
 		}
-		rec := []string{r.EndUTC.UTC().Format(time.RFC3339), f(r.GHI, 1), f(r.DNI, 1), f(r.DHI, 1), f(r.AirTempC, 1), lit, f(r.ACW, 1)}
+		rec := []string{r.EndUTC.UTC().Format(time.RFC3339), f(r.GHI, 1), f(r.DNI, 1), f(r.DHI, 1), f(r.AirTempC, 1), f(r.POA, 1), lit, f(r.ACW, 1)}
 		if err := w.Write(rec); err != nil {
 			return nil, err
 		}

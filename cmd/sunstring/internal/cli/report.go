@@ -204,6 +204,9 @@ func hourlyRows(m *yield.Model, best rankedLayout) []report.HourlyRow {
 		if s < len(steps) {
 			rows[rec].ACW = steps[s] / hours
 		}
+		if s < len(m.StepPOA) {
+			rows[rec].POA = m.StepPOA[s]
+		}
 		if m.Shade != nil && len(m.In.Modules) > 0 {
 			lit := 0.0
 			for k := range m.In.Modules {

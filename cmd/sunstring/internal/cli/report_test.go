@@ -81,6 +81,9 @@ func TestSurveyReportFiles(t *testing.T) {
 		// GHI integrates to the climate's annual total, which summary.json reports from the
 		// same records (rounded to 0.1 kWh/m²).
 		{"GHI", "ghi_w_m2", s.Climate.AnnualGHIkWhM2 * 1000, 0.001, "hourly GHI integrates to the annual GHI"},
+		// poa_w_m2 is the mean over the modules of the shaded plane-of-array irradiance, the
+		// same quantity as module_results[].annual_poa_kwh_m2 (rounded to 0.1 kWh/m² each).
+		{"POA", "poa_w_m2", 1000 * meanPOA(s), 0.001, "hourly POA integrates to the modules' mean annual POA"},
 	}
 	f, err := os.Open(filepath.Join(dir, "hourly.csv"))
 	if err != nil {
@@ -119,6 +122,15 @@ func TestSurveyReportFiles(t *testing.T) {
 			}
 		})
 	}
+}
+
+// meanPOA is the mean annual plane-of-array irradiation of the modules, kWh/m².
+func meanPOA(s report.Summary) float64 {
+	sum := 0.0
+	for _, m := range s.ModuleResults {
+		sum += m.AnnualPOAkWhM2
+	}
+	return sum / float64(max(len(s.ModuleResults), 1))
 }
 
 // lossKWh sums the named steps of the loss breakdown.
