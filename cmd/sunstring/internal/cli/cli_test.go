@@ -2,6 +2,8 @@ package cli
 
 import (
 	"bytes"
+	"crypto/sha256"
+	"fmt"
 	"encoding/json"
 	"os"
 	"path/filepath"
@@ -41,6 +43,12 @@ var surveyed struct {
 func exampleReport(t *testing.T) string {
 	t.Helper()
 	if surveyed.dir == "" {
+		before := inputsDigest(t)
+		defer func() {
+			if inputsDigest(t) != before {
+				t.Error("the survey changed its input files")
+			}
+		}()
 		dir, err := os.MkdirTemp("", "sunstring-report-")
 		if err != nil {
 			t.Fatal(err)
@@ -52,6 +60,23 @@ func exampleReport(t *testing.T) string {
 		t.Fatalf("survey exit %d: %s", surveyed.code, surveyed.out)
 	}
 	return surveyed.dir
+}
+
+// inputsDigest hashes every file of the example folder: a survey must never write its inputs.
+func inputsDigest(t *testing.T) string {
+	t.Helper()
+	h := sha256.New()
+	files, _ := filepath.Glob(filepath.Join(filepath.Dir(exampleSite), "*"))
+	for _, f := range files {
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		st, _ := os.Stat(f)
+		fmt.Fprintf(h, "%s %d %v\n", f, len(b), st.ModTime())
+		h.Write(b)
+	}
+	return fmt.Sprintf("%x", h.Sum(nil))
 }
 
 func TestMain(m *testing.M) {
