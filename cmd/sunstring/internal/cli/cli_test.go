@@ -3,8 +3,8 @@ package cli
 import (
 	"bytes"
 	"crypto/sha256"
-	"fmt"
 	"encoding/json"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
