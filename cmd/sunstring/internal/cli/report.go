@@ -49,6 +49,9 @@ func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, 
 		if r.String != "" {
 			props["string"] = r.String
 		}
+		if s.Climate.Source == "indicative" {
+			props["warning"] = IndicativeWarning
+		}
 		return props
 	})
 	if err != nil {
@@ -87,6 +90,10 @@ func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, 
 		b, err := report.HourlyCSV(hourlyRows(m, ls[0]))
 		if err != nil {
 			return nil, fmt.Errorf("hourly.csv: %w", err)
+		}
+		if s.Climate.Source == "indicative" {
+			// A comment line ahead of the header (sunstring's own CSV reader skips it).
+			b = append([]byte("# "+IndicativeWarning+"\n"), b...)
 		}
 		files["hourly.csv"] = b
 	}

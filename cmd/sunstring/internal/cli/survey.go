@@ -126,6 +126,9 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		}
 		w := c.OutOrStdout()
 		best := sum
+		if sum.Climate.Source == "indicative" {
+			fmt.Fprintln(w, IndicativeWarning)
+		}
 		fmt.Fprintf(w, "%s: %d modules, %.2f kWp\n", p.Cfg.Name, best.Modules, best.DCkWp)
 		fmt.Fprintf(w, "annual AC energy %s kWh, specific yield %s kWh/kWp, performance ratio %.2f\n",
 			report.Thousands(best.AnnualACkWh, 0), report.Thousands(best.SpecificYield, 0), best.PerformanceRatio)
