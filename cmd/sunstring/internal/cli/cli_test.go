@@ -363,3 +363,37 @@ func TestSkyCommand(t *testing.T) {
 		t.Errorf("unknown module: exit %d, %q", code, errs)
 	}
 }
+
+// Without climate data the survey runs on an indicative clear-sky year and says so in every
+// output (DESIGN.md).
+func TestIndicativeClimateIsLoud(t *testing.T) {
+	dir := t.TempDir()
+	site, _ := os.ReadFile(exampleSite)
+	var kept []string
+	for _, l := range strings.Split(string(site), "\n") {
+		if !strings.Contains(l, "monthly_ghi_kwh_m2") && !strings.Contains(l, "monthly_temp_c") {
+			kept = append(kept, l)
+		}
+	}
+	os.WriteFile(filepath.Join(dir, "site.yaml"), []byte(strings.Join(kept, "\n")), 0o644)
+	m, _ := os.ReadFile(filepath.Join(filepath.Dir(exampleSite), "roof.geojson"))
+	os.WriteFile(filepath.Join(dir, "roof.geojson"), m, 0o644)
+	out := filepath.Join(dir, "out")
+	stdout, errs, code := run(t, "survey", filepath.Join(dir, "site.yaml"), "-o", out, "--hourly")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	if !strings.Contains(stdout, "INDICATIVE ONLY") {
+		t.Errorf("stdout lacks the warning:\n%s", stdout)
+	}
+	for _, f := range []string{"summary.json", "modules.geojson", "hourly.csv"} {
+		b, err := os.ReadFile(filepath.Join(out, f))
+		if err != nil || !bytes.Contains(b, []byte("INDICATIVE ONLY")) {
+			t.Errorf("%s lacks the indicative warning (err %v)", f, err)
+		}
+	}
+	b, _ := os.ReadFile(filepath.Join(out, "summary.json"))
+	if !bytes.Contains(b, []byte(`"source": "indicative"`)) {
+		t.Error(`summary.json climate.source is not "indicative"`)
+	}
+}
