@@ -188,6 +188,11 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 		v.SetDefault(k, d)
 	}
 	for key, flag := range bind {
+		// The environment overrides a flag (the order: file < flags < environment),
+		// so a flag is bound only when its key has no SUNSTRING_ variable.
+		if _, set := os.LookupEnv(EnvName(key)); set {
+			continue
+		}
 		if f := flags.Lookup(flag); f != nil && f.Changed {
 			if err := v.BindPFlag(key, f); err != nil {
 				return nil, fmt.Errorf("config: bind --%s: %w", flag, err)
@@ -218,6 +223,12 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 		return nil, errs
 	}
 	return &s, nil
+}
+
+// EnvName is the environment variable that sets a key: SUNSTRING_ and the key path
+// upper-cased, dots as underscores (climate.file → SUNSTRING_CLIMATE_FILE).
+func EnvName(key string) string {
+	return "SUNSTRING_" + strings.ToUpper(strings.ReplaceAll(key, ".", "_"))
 }
 
 // rejectLossyFloat keeps a fractional number out of a bool or string field, where weak typing

@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/spf13/pflag"
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
@@ -100,4 +101,37 @@ func asBad(err error, bi *interface{ BadInput() bool }) bool {
 		*bi = b
 	}
 	return ok && b.BadInput()
+}
+
+func TestPrecedence(t *testing.T) {
+	// The order of the issue: file < flags < environment.
+	p := write(t, minimal+"fill: {orientation: portrait}\n")
+	for _, c := range []struct {
+		name, flag, env, want string
+	}{
+		{"file alone", "", "", "portrait"},
+		{"flag over file", "landscape", "", "landscape"},
+		{"environment over flag", "landscape", "best", "best"},
+		{"environment over file", "", "best", "best"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			if c.env != "" {
+				t.Setenv("SUNSTRING_FILL_ORIENTATION", c.env)
+			}
+			fs := pflag.NewFlagSet("test", pflag.ContinueOnError)
+			fs.String("orientation", "", "")
+			if c.flag != "" {
+				if err := fs.Parse([]string{"--orientation", c.flag}); err != nil {
+					t.Fatal(err)
+				}
+			}
+			s, err := Load(p, fs, map[string]string{"fill.orientation": "orientation"})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if s.Fill.Orientation != c.want {
+				t.Errorf("orientation %q, want %q", s.Fill.Orientation, c.want)
+			}
+		})
+	}
 }

@@ -1,7 +1,7 @@
 // Package config reads and validates the site file (YAML): the site, its climate, the module,
 // the inverter, the fill rules, the layouts to compare and the loss factors.
 //
-// Precedence, highest first: command-line flags bound to a key, SUNSTRING_ environment
-// variables (key path upper-cased, dots as underscores: SUNSTRING_INVERTER_AC_POWER_W), the
-// site file, the defaults. Unknown keys in the file are an error.
+// Precedence, highest first: SUNSTRING_ environment variables (key path upper-cased, dots as
+// underscores: SUNSTRING_INVERTER_AC_POWER_W), command-line flags bound to a key, the site
+// file, the defaults. Unknown keys in the file are an error.
 package config
