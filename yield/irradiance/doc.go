@@ -21,7 +21,7 @@
 //     Solar Energy 44(5):271–289 (the default; hourly RMS errors of the tilted-plane diffuse of roughly
 //     10–20 % of the mean are typical in its validations, from memory);
 //     Hay, J. E. & Davies, J. A. (1980), "Calculation of the solar radiation incident on
-//     an inclined surface", Proc. First Canadian Solar Radiation Data Workshop, 59–72;
+//     an inclined surface", Proc. First Canadian workshop on solar radiation data, 59–72;
 //     and the isotropic sky of Liu, B. Y. H. & Jordan, R. C. (1963), "The long-term average
 //     performance of flat-plate solar-energy collectors", Solar Energy 7(2):53–74, which
 //     underestimates sunny-day irradiance on steep planes by several percent.
