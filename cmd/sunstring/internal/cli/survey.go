@@ -244,9 +244,12 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
 		}
 		s.Checks = p.electricalChecks(best.Name, lengths(best.Result.Layout))
+		// "<input>.<string on that input>", both counted from 1.
+		nth := map[int]int{}
 		for i, st := range best.Strings {
+			nth[best.Inputs[i]]++
 			for _, id := range st {
-				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], i+1)
+				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], nth[best.Inputs[i]])
 			}
 		}
 		for _, l := range ls {
