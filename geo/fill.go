@@ -174,99 +174,57 @@ type layout struct {
 // slight skew that drawing in longitude/latitude leaves on a rectangle.
 const fitEps = 1e-3
 
-// fits reports whether the rectangle [s0, s0+ds] × [w0, w0+dw] lies inside the outline at least
-// the setback from every edge, and clear of every obstacle by the clearance.
-func (l *layout) fits(s0, w0, ds, dw float64) bool {
-	rect := orb.Ring{{s0, w0}, {s0 + ds, w0}, {s0 + ds, w0 + dw}, {s0, w0 + dw}, {s0, w0}}
-	for _, c := range rect[:4] {
-		if !planar.RingContains(l.fr.outline, c) {
-			return false
-		}
-	}
-	if !clearOf(rect, l.fr.outline, l.setback, false) {
-		return false
-	}
-	for _, ob := range l.obstacles {
-		if !clearOf(rect, ob, l.clearance, true) {
-			return false
-		}
-	}
-	return true
-}
+// offsetStep is the largest step of the row offset search: a centimetre, finer than any
+// installer sets out rails.
+const offsetStep = 0.01
 
-// clearOf reports whether rect keeps the distance m from ring's boundary, with no edge of
-// ring entering it; solid says the ring's inside is forbidden too (an obstacle).
-func clearOf(rect, ring orb.Ring, m float64, solid bool) bool {
-	rb, ob := rect.Bound(), ring.Bound()
-	if ob.Min[0] > rb.Max[0]+m || ob.Max[0] < rb.Min[0]-m || ob.Min[1] > rb.Max[1]+m || ob.Max[1] < rb.Min[1]-m {
-		return true
-	}
-	for _, p := range ring[:len(ring)-1] {
-		if p[0] > rb.Min[0]+fitEps && p[0] < rb.Max[0]-fitEps && p[1] > rb.Min[1]+fitEps && p[1] < rb.Max[1]-fitEps {
-			return false
-		}
-	}
-	if solid {
-		for _, c := range rect[:4] {
-			if planar.RingContains(ring, c) && ringBoundaryDist(ring, c) > fitEps {
-				return false
-			}
-		}
-		if planar.RingContains(ring, interiorPoint(rect)) {
-			return false
-		}
-	}
-	for i := 0; i+1 < len(ring); i++ {
-		for j := range 4 {
-			if segmentsCross(ring[i], ring[i+1], rect[j], rect[j+1]) {
-				return false
-			}
-			if m > 0 && segSegDist(ring[i], ring[i+1], rect[j], rect[j+1]) < m-fitEps {
-				return false
-			}
-		}
-	}
-	return true
-}
-
-// scanStep is how finely a row is searched for the next free place along the eave.
-const scanStep = 0.005
-
-// place fills the face with modules of ds along the eave by dw up the slope, rows from the eave
-// upward, each row left to right. It returns the lower-left corners per row.
+// place fills the face with modules of ds along the eave by dw up the slope and returns the
+// lower-left corners per row, rows from the eave upward, each row left to right.
+//
+// Rows are pitched dw + gap apart. Where the first row starts matters on faces that widen
+// upward (beside a valley), on faces with a chimney or a roof window that one row or two must
+// dodge, and on eaves that are not quite straight, so every start from the setback line up to
+// one pitch higher is tried, in steps of pitch/N ≤ offsetStep, and the start that places the
+// most modules wins; on a tie the lowest start, which keeps the rows at the eave as an
+// installer would (on a hip or a gable end, which narrow upward, that is also the best). The
+// steps divide the pitch exactly, so every row that any start uses lies on one grid of
+// heights and is worked out once.
 func (l *layout) place(ds, dw, gap float64) [][]orb.Point {
-	var rows [][]orb.Point
-	// The first row sits as low as it can: nudge it up a little when the eave is not quite
-	// straight, rather than lose the row.
-	start := l.setback
-	for k := 0; k <= 10; k++ {
-		if len(l.row(l.setback+float64(k)*scanStep, ds, dw, gap)) > 0 {
-			start = l.setback + float64(k)*scanStep
-			break
+	pitch := dw + gap
+	n := int(math.Ceil(pitch/offsetStep - 1e-9))
+	step := pitch / float64(n)
+	bd := l.fr.outline.Bound()
+	base, top := bd.Min[1]+l.setback, bd.Max[1]-l.setback+fitEps
+	rp := newRowPlanner(l)
+	// rows[j] holds the left edges of the row whose lower edge is at base + j·step.
+	var rows [][]float64
+	for j := 0; base+float64(j)*step+dw <= top; j++ {
+		w0 := base + float64(j)*step
+		rows = append(rows, pack(rp.free(w0, w0+dw, ds), ds, gap, nil))
+	}
+	best, bestN := 0, -1
+	for j0 := 0; j0 < n && j0 < len(rows); j0++ {
+		c := 0
+		for j := j0; j < len(rows); j += n {
+			c += len(rows[j])
+		}
+		if c > bestN {
+			best, bestN = j0, c
 		}
 	}
-	for w0 := start; w0+dw <= l.fr.wmax-l.setback+fitEps; w0 += dw + gap {
-		if row := l.row(w0, ds, dw, gap); len(row) > 0 {
-			rows = append(rows, row)
+	var out [][]orb.Point
+	for j := best; j < len(rows); j += n {
+		if len(rows[j]) == 0 {
+			continue
 		}
-	}
-	return rows
-}
-
-// row places modules left to right in the row whose lower edge is at w0.
-func (l *layout) row(w0, ds, dw, gap float64) []orb.Point {
-	{
-		var row []orb.Point
-		for s0 := l.fr.smin + l.setback; s0+ds <= l.fr.smax-l.setback+fitEps; {
-			if l.fits(s0, w0, ds, dw) {
-				row = append(row, orb.Point{s0, w0})
-				s0 += ds + gap
-				continue
-			}
-			s0 += scanStep
+		w0 := base + float64(j)*step
+		row := make([]orb.Point, len(rows[j]))
+		for k, s0 := range rows[j] {
+			row[k] = orb.Point{s0, w0}
 		}
-		return row
+		out = append(out, row)
 	}
+	return out
 }
 
 // module builds the placed module whose lower-left corner in the frame is q.
@@ -290,10 +248,11 @@ func (fr *frame) module(q orb.Point, row, col int, portrait bool, o FillOptions)
 
 // Fill places modules on every roof face of the site, and turns hand-drawn panels into modules
 // on their face (a face with panels gets no automatic fill). Automatic modules are set in rows
-// parallel to the eave, from the eave upward, each row filled left to right as seen from below
-// the eave; whole modules only, inside the face outline less the setback, clear of avoid areas
-// and of the footprints of blocks that rise above the face, each grown by the obstacle
-// clearance.
+// parallel to the eave, from the eave upward; whole modules only, inside the face outline less
+// the setback, clear of avoid areas and of the footprints of blocks that rise above the face,
+// each grown by the obstacle clearance. The rows' start up the slope is searched over one row
+// pitch for the most modules (the lowest start on a tie); within a row each free stretch, found
+// exactly, takes as many modules as fit, centred on it. The result depends on the input only.
 //
 // Ids are "<face>.<row>.<column>", row 1 at the eave, column 1 at the left. Hand-drawn panels
 // get the same scheme by position (rows grouped by their lower edge, then left to right) and

@@ -95,12 +95,15 @@ func TestFillCounts(t *testing.T) {
 			s.Blocks = []Block{{ID: "wall", Footprint: orb.Ring{{4.5, 1}, {4.6, 1}, {4.6, 2}, {4.5, 2}, {4.5, 1}}, HeightM: 2}}
 		}, base, 16, true, ""},
 		// The same chimney rising to 9 m with 0.3 m clearance: its footprint x 4.5–4.6 grown
-		// to 4.2–4.9 clears columns 3 (x 2.7–3.83) and 5 (x 5.0–6.13) but not column 4; it spans
-		// plan y 1–2, i.e. slope 1.155–2.309 m, which touches row 1 (0.4–2.12) and row 2
-		// (2.14–3.86) once grown by 0.3 m.
+		// to 4.2–4.9 bars modules starting in (4.2 − 1.13, 4.9) = (3.07, 4.9), leaving 0.4–3.07
+		// (3 modules) and 4.9–8.47 (floor(3.57/1.15) + 1 = 4): 7 in a row it crosses. It spans
+		// plan y 1–2, slope 1.155–2.309 m, grown 0.855–2.609. Rows at the setback line
+		// (0.4–2.12, 2.14–3.86) both meet it: 14, what the fill placed before it searched row
+		// starts. Two rows leave 4.9735 − 3.46 = 1.51 m to spare; starting 0.47 m up, row 2
+		// (from 2.61) clears it and takes 8: 7 + 8 = 15. Row 1 cannot clear it as well.
 		{"chimney with clearance", rectFace("S", 10, 5, 30, 180, 3), func(s *Site) {
 			s.Blocks = []Block{{ID: "chimney", Footprint: orb.Ring{{4.5, 1}, {4.6, 1}, {4.6, 2}, {4.5, 2}, {4.5, 1}}, HeightM: 9}}
-		}, with(func(o *FillOptions) { o.ObstacleClearanceM = 0.3 }), 14, true, ""},
+		}, with(func(o *FillOptions) { o.ObstacleClearanceM = 0.3 }), 15, true, ""},
 		{"minimum count skips the face", rectFace("S", 10, 5, 30, 180, 3), nil, with(func(o *FillOptions) { o.MinModules = 17 }), 0, true, "fewer than the minimum of 17"},
 		// 2 m × 1.5 m: 2 − 0.8 = 1.2 m across, less than one module width.
 		{"too small", rectFace("T", 2, 1.5, 30, 180, 3), nil, base, 0, true, "no module fits"},
