@@ -48,10 +48,13 @@
 //
 // # Fill
 //
-// Fill sets modules in rows parallel to the eave, row 1 at the eave, each row filled from the
-// left as seen from below the eave looking up the slope, keeping whole modules inside the face
-// less the setback (measured on the roof surface) and clear of avoid areas and of blocks that
-// rise above the face, each grown by the obstacle clearance. Module frame: portrait has V up
+// Fill sets modules in rows parallel to the eave, row 1 at the eave, keeping whole modules
+// inside the face less the setback (measured on the roof surface) and clear of avoid areas and
+// of blocks that rise above the face, each grown by the obstacle clearance. Each row's free
+// stretches are found exactly and filled with a run of modules centred on the stretch; the
+// rows' starting height is searched over one row pitch (in steps of at most 1 cm) for the most
+// modules, the lowest start winning a tie. Columns are numbered from the left as seen from
+// below the eave looking up the slope, consecutively across gaps. Module frame: portrait has V up
 // the slope and U to the right along the eave; landscape has V to the right along the eave and
 // U down the slope; U×V is the face's outward normal and Corners are counter-clockwise from
 // outside.
