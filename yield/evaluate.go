@@ -29,57 +29,86 @@ type LayoutResult struct {
 	Losses       []Loss
 }
 
-// Evaluate runs a layout over the prepared year.
-func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutResult, error) {
-	sys := m.In.System
+// nightHours fills in the inverter's night time for opt, from the year's records.
+func (m *Model) nightHours(opt electric.EvalOptions) electric.EvalOptions {
 	if opt.NightHours == 0 {
 		opt.NightHours = float64(m.NightHours) * m.In.Weather.Interval.Hours()
 		if opt.NightHours == 0 {
 			opt.NightHours = -1
 		}
 	}
+	return opt
+}
+
+// flat returns the factor the flat DC losses (module tolerance mismatch, DC wiring) leave,
+// and the one availability leaves. The DC losses act before the inverter; they are applied
+// as a factor on the AC energy, which ignores their small effect on the inverter's operating
+// point (under 0.1 % of AC for a few percent of DC loss on a flat efficiency curve — common
+// practice).
+func (m *Model) flat() (dcKeep, avail float64) {
+	l := m.In.System.Losses
+	return (1 - l.MismatchPct/100) * (1 - l.WiringPct/100), 1 - l.AvailabilityPct/100
+}
+
+// EvaluateACWh is the layout's annual AC energy (Wh) net of every loss, as Evaluate's ACkWh,
+// without the unshaded reference and the breakdown: the layout search's objective.
+func (m *Model) EvaluateACWh(l electric.Layout, opt electric.EvalOptions) (float64, error) {
+	yr, err := m.Year.Evaluate(l, m.In.System.Inverter, m.nightHours(opt))
+	if err != nil {
+		return 0, fmt.Errorf("yield: layout: %w", err)
+	}
+	dcKeep, avail := m.flat()
+	return (yr.ACWh*dcKeep - yr.NightWh) * avail, nil
+}
+
+// Evaluate runs a layout over the prepared year, and the same layout over the unshaded
+// reference year for its shade loss.
+func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutResult, error) {
+	sys := m.In.System
+	opt = m.nightHours(opt)
 	yr, err := m.Year.Evaluate(l, sys.Inverter, opt)
 	if err != nil {
 		return LayoutResult{}, fmt.Errorf("yield: layout: %w", err)
 	}
 	r := LayoutResult{Layout: l, Year: yr}
-	// Flat losses. Module tolerance mismatch and DC wiring act before the inverter; they are
-	// applied as a factor on the AC energy, which ignores their small effect on the
-	// inverter's operating point (under 0.1 % of AC for a few percent of DC loss on a flat
-	// efficiency curve — common practice).
-	dcKeep := (1 - sys.Losses.MismatchPct/100) * (1 - sys.Losses.WiringPct/100)
-	avail := 1 - sys.Losses.AvailabilityPct/100
-	grossAC := yr.ACWh
-	r.ACkWh = (grossAC*dcKeep - yr.NightWh) * avail / 1000
-	r.UnshadedACkWh = (yr.UnshadedACWh*dcKeep - yr.NightWh) * avail / 1000
+	dcKeep, avail := m.flat()
+	net := func(y electric.YearResult) float64 { return (y.ACWh*dcKeep - y.NightWh) * avail / 1000 }
+	r.ACkWh = net(yr)
+	var yu electric.YearResult
+	if m.YearUnshaded != nil {
+		if yu, err = m.YearUnshaded.Evaluate(l, sys.Inverter, opt); err != nil {
+			return LayoutResult{}, fmt.Errorf("yield: layout, unshaded: %w", err)
+		}
+		r.UnshadedACkWh = net(yu)
+	}
 	if r.UnshadedACkWh > 0 {
 		r.ShadeLossPct = 100 * (1 - r.ACkWh/r.UnshadedACkWh)
 	}
-	// Monthly: the step energies carry the same factors; night consumption is spread by the
-	// month's night hours share, which is close enough at a watt or two.
-	var monthGross [12]float64
+	// Monthly: the step energies carry the same factors; night consumption goes to the
+	// months by their night hours.
+	var month, monthUn [12]float64
 	for s, wh := range yr.StepACWh {
-		monthGross[m.StepMonth[s]] += wh
+		month[m.StepMonth[s]] += wh
 	}
-	var totalUn float64
-	for _, w := range m.MonthlyUnshadedPOAWh {
-		totalUn += w
+	for s, wh := range yu.StepACWh {
+		monthUn[m.StepMonth[s]] += wh
 	}
 	for i := range 12 {
-		share := 0.0
-		if grossAC > 0 {
-			share = monthGross[i] / grossAC
+		night := 0.0
+		if m.NightHours > 0 {
+			night = yr.NightWh * float64(m.MonthNightHours[i]) / float64(m.NightHours)
 		}
-		r.MonthlyACkWh[i] = (monthGross[i]*dcKeep - yr.NightWh/12) * avail / 1000
-		_ = share
-		if totalUn > 0 {
-			r.MonthlyUnshadedACkWh[i] = r.UnshadedACkWh * m.MonthlyUnshadedPOAWh[i] / totalUn
-		}
+		r.MonthlyACkWh[i] = (month[i]*dcKeep - night) * avail / 1000
+		r.MonthlyUnshadedACkWh[i] = (monthUn[i]*dcKeep - night) * avail / 1000
 	}
 
 	// The breakdown, over the layout's modules only.
-	var poaUn, poaSh, poaIAM, poaSoil, own float64
+	var poaUn, poaSh, poaIAM, poaSoil, own, ownUn float64
 	ownAll := m.Year.ModuleDCWh()
+	var ownUnAll []float64
+	if m.YearUnshaded != nil {
+		ownUnAll = m.YearUnshaded.ModuleDCWh()
+	}
 	for _, in := range l.Inputs {
 		for _, st := range in {
 			for _, k := range st {
@@ -88,6 +117,9 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 				poaIAM += m.modPOAIAM[k]
 				poaSoil += m.modPOASoil[k]
 				own += ownAll[k]
+				if ownUnAll != nil {
+					ownUn += ownUnAll[k]
+				}
 			}
 		}
 	}
@@ -103,11 +135,20 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 		steps = append(steps, Loss{Step: name, KWh: lossWh / 1000, Pct: pct})
 		level -= lossWh
 	}
+	// Strings lose to mismatch even without shade (faces of different orientation or
+	// temperature in one string or on one input); that share, measured on the unshaded
+	// reference, is told apart from the mismatch that shade adds.
+	mismatch := own - yr.GlobalDCWh
+	plain := 0.0
+	if ownUn > 0 {
+		plain = own * (1 - yu.GlobalDCWh/ownUn)
+	}
 	add("shade on the modules (irradiance)", (poaUn-poaSh)*eta)
 	add("incidence angle (reflection)", (poaSh-poaIAM)*eta)
 	add("soiling", (poaIAM-poaSoil)*eta)
 	add("temperature, low light and bypass diodes", poaSoil*eta-own)
-	add("string mismatch under shade", own-yr.GlobalDCWh)
+	add("string mismatch without shade (orientation, temperature)", plain)
+	add("string mismatch under shade", mismatch-plain)
 	add("MPPT voltage window", yr.WindowLossWh)
 	add("input current limit", yr.CurrentLimitLossWh)
 	if yr.TrackerLossWh != 0 {
@@ -115,6 +156,7 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	}
 	add("module tolerance mismatch", yr.DCWh*sys.Losses.MismatchPct/100)
 	add("DC wiring", yr.DCWh*(1-sys.Losses.MismatchPct/100)*sys.Losses.WiringPct/100)
+	grossAC := yr.ACWh
 	dcIn := yr.DCWh * dcKeep
 	add("inverter conversion", dcIn-(grossAC+yr.ClippedWh)*dcKeep)
 	add("inverter clipping (AC limit)", yr.ClippedWh*dcKeep)

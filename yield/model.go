@@ -84,8 +84,14 @@ type Model struct {
 	// StepPOA is each sun-up step's plane-of-array irradiance, W/m², the mean over the
 	// modules with shade and before incidence-angle and soiling losses.
 	StepPOA []float64
-	// NightHours is the number of records with the sun down.
-	NightHours int
+	// NightHours is the number of records with the sun down; MonthNightHours splits them by
+	// local month (0-based), for spreading the inverter's night consumption.
+	NightHours      int
+	MonthNightHours [12]int
+	// YearUnshaded is the same year with no cell shaded (each module lit as if nothing stood
+	// around it, at its own unshaded temperature): the reference for a layout's shade loss, so
+	// that the same strings, MPPT window and limits apply to both.
+	YearUnshaded *electric.Year
 
 	// Annual sums over all modules, Wh, for the loss breakdown.
 	POAUnshadedWh, POAShadedWh, POAIAMWh, POASoiledWh float64
@@ -142,6 +148,7 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 		p, lit := stepSun(r.End.Add(-iv), r.End, in.Observer)
 		if lit == 0 || !p.Up() {
 			m.NightHours++
+			m.MonthNightHours[r.End.Add(-iv/2).In(in.Zone).Month()-1]++
 			continue
 		}
 		ups = append(ups, sunStep{p, i})
@@ -216,6 +223,10 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 	}
 	var beamSum, beamLit = make([]float64, n), make([]float64, n)
 	m.StepPOA = make([]float64, len(ups))
+	// The unshaded reference's inputs, per step and module: effective irradiance and the cell
+	// temperature the module would have without shade.
+	unIrr := make([]float32, len(ups)*n)
+	unTemp := make([]float32, len(ups)*n)
 	var refW float64
 	year, err := electric.NewYear(mod, n, len(ups), func(s int, dst *electric.StepInput) {
 		if in.Progress != nil && s%128 == 0 {
@@ -256,6 +267,8 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 			withIAM := direct*litFrac + diffuse
 			dst.UnshadedIrr[i] = soil * ((c.beam+c.circ)*c.iamB + c.iso*skyIAM[i] + c.hor*skyIAM[i] + c.gnd*gndIAM[i])
 			dst.TempC[i] = irradiance.CellTempFaiman(shaded, r.AirTempC, r.WindMS, irradiance.FaimanU0, irradiance.FaimanU1)
+			unIrr[s*n+i] = float32(dst.UnshadedIrr[i])
+			unTemp[s*n+i] = float32(irradiance.CellTempFaiman(unsh, r.AirTempC, r.WindMS, irradiance.FaimanU0, irradiance.FaimanU1))
 
 			m.StepPOA[s] += shaded / float64(n)
 			hours := iv.Hours()
@@ -281,6 +294,24 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 		return nil, fmt.Errorf("yield: module curves: %w", err)
 	}
 	m.Year = year
+	hours := iv.Hours()
+	m.YearUnshaded, err = electric.NewYear(mod, n, len(ups), func(s int, dst *electric.StepInput) {
+		if in.Progress != nil && s%128 == 0 {
+			in.Progress("unshaded reference", s, len(ups))
+		}
+		for i := range n {
+			g := float64(unIrr[s*n+i])
+			for k := range dst.CellIrr[i] {
+				dst.CellIrr[i][k] = g
+			}
+			dst.UnshadedIrr[i] = g
+			dst.TempC[i] = float64(unTemp[s*n+i])
+		}
+		dst.Hours = hours
+	})
+	if err != nil {
+		return nil, fmt.Errorf("yield: unshaded module curves: %w", err)
+	}
 	own := year.ModuleDCWh()
 	for i := range m.Stats {
 		st := &m.Stats[i]

@@ -60,10 +60,6 @@ func ShadeFeatures(m *yield.Model) [][]float64 {
 // report shows. The model's year of module curves is shared by all calls.
 func ModelEvaluator(m *yield.Model, opt electric.EvalOptions) Evaluator {
 	return func(l electric.Layout) (float64, error) {
-		r, err := m.Evaluate(l, opt)
-		if err != nil {
-			return 0, err
-		}
-		return r.ACkWh * 1000, nil
+		return m.EvaluateACWh(l, opt)
 	}
 }
