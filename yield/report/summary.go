@@ -9,24 +9,27 @@ import (
 // Summary is the summary.json document. Field names and meanings are DESIGN.md's output
 // contract; fields beyond it are documented in README.md.
 type Summary struct {
-	Site             SiteInfo       `json:"site"`
-	Modules          int            `json:"modules"`
-	DCkWp            float64        `json:"dc_kwp"`
-	Climate          ClimateInfo    `json:"climate"`
-	AnnualACkWh      float64        `json:"annual_ac_kwh"`
-	SpecificYield    float64        `json:"specific_yield_kwh_per_kwp"`
-	PerformanceRatio float64        `json:"performance_ratio"`
-	MonthlyACkWh     [12]float64    `json:"monthly_ac_kwh"`
-	MonthlyUnshaded  [12]float64    `json:"monthly_ac_unshaded_kwh"`
-	Losses           []Loss         `json:"losses"`
-	Layouts          []Layout       `json:"layouts"`
-	Alternatives     []Alternative  `json:"alternatives"`
-	ModuleResults    []ModuleResult `json:"module_results"`
-	Faces            []Face         `json:"faces"`
-	Checks           []Check        `json:"checks"`
-	Warnings         []string       `json:"warnings"`
-	Cautions         []string       `json:"cautions"`
-	Models           []string       `json:"models"`
+	Site             SiteInfo    `json:"site"`
+	Modules          int         `json:"modules"`
+	DCkWp            float64     `json:"dc_kwp"`
+	Climate          ClimateInfo `json:"climate"`
+	AnnualACkWh      float64     `json:"annual_ac_kwh"`
+	SpecificYield    float64     `json:"specific_yield_kwh_per_kwp"`
+	PerformanceRatio float64     `json:"performance_ratio"`
+	MonthlyACkWh     [12]float64 `json:"monthly_ac_kwh"`
+	MonthlyUnshaded  [12]float64 `json:"monthly_ac_unshaded_kwh"`
+	Losses           []Loss      `json:"losses"`
+	// LossesStartKWh is where the loss breakdown starts: the layout's modules' unshaded
+	// plane-of-array irradiation at their STC efficiency. It less every loss is AnnualACkWh.
+	LossesStartKWh float64        `json:"losses_start_kwh"`
+	Layouts        []Layout       `json:"layouts"`
+	Alternatives   []Alternative  `json:"alternatives"`
+	ModuleResults  []ModuleResult `json:"module_results"`
+	Faces          []Face         `json:"faces"`
+	Checks         []Check        `json:"checks"`
+	Warnings       []string       `json:"warnings"`
+	Cautions       []string       `json:"cautions"`
+	Models         []string       `json:"models"`
 }
 
 // SiteInfo names the site.
@@ -156,6 +159,7 @@ func roundAll(s Summary) Summary {
 		s.MonthlyACkWh[i] = Round(s.MonthlyACkWh[i], 1)
 		s.MonthlyUnshaded[i] = Round(s.MonthlyUnshaded[i], 1)
 	}
+	s.LossesStartKWh = Round(s.LossesStartKWh, 1)
 	s.Losses = append([]Loss(nil), s.Losses...)
 	for i := range s.Losses {
 		s.Losses[i].KWh = Round(s.Losses[i].KWh, 1)

@@ -150,6 +150,17 @@ func TestSurveyExampleContract(t *testing.T) {
 	if !scalar.EqualWithinRel(sy*kwp, ac, 1e-3) {
 		t.Errorf("specific yield × kWp = %.1f, annual %.1f", sy*kwp, ac)
 	}
+	// The loss breakdown closes: its start less every loss is the annual AC energy (each
+	// row rounded to 0.1 kWh).
+	start := s["losses_start_kwh"].(float64)
+	lost := 0.0
+	rows := s["losses"].([]any)
+	for _, l := range rows {
+		lost += l.(map[string]any)["kwh"].(float64)
+	}
+	if !scalar.EqualWithinAbs(start-lost, ac, 0.05*float64(len(rows)+2)) {
+		t.Errorf("losses_start_kwh %.1f − Σ losses %.1f = %.1f ≠ annual AC %.1f", start, lost, start-lost, ac)
+	}
 	mr := s["module_results"].([]any)
 	if len(mr) != int(n) {
 		t.Errorf("%d module results for %v modules", len(mr), n)

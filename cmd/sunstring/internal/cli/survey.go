@@ -240,6 +240,7 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 		}
 		s.MonthlyACkWh = r.MonthlyACkWh
 		s.MonthlyUnshaded = r.MonthlyUnshadedACkWh
+		s.LossesStartKWh = r.NominalDCkWh
 		for _, l := range r.Losses {
 			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
 		}
