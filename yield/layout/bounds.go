@@ -33,12 +33,12 @@ type Bounds struct {
 // not pushed out of its window) and the input current limit (strings × Imp).
 func StringBounds(ds electric.Datasheet, inv electric.Inverter, lim Limits) (Bounds, error) {
 	var b Bounds
-	b.VocColdV = ds.VocV * (1 + ds.TempCoeffVocPct/100*(lim.LowTempC-25))
-	// The datasheet's Pmax coefficient stands in for Vmp's, which datasheets rarely give
-	// (common practice: Imp hardly moves with temperature).
+	// One set of formulas with the checks that are reported (electric.VocAt, VmpAt: the Vmp
+	// coefficient is Pmax's less Isc's), so that no string the bounds allow is flagged.
+	b.VocColdV = electric.VocAt(ds, lim.LowTempC)
 	hot := lim.HighTempC + HotCellRiseK
-	b.VmpHotV = ds.VmpV * (1 + ds.TempCoeffPmaxPct/100*(hot-25))
-	b.VmpColdV = ds.VmpV * (1 + ds.TempCoeffPmaxPct/100*(lim.LowTempC-25))
+	b.VmpHotV = electric.VmpAt(ds, hot)
+	b.VmpColdV = electric.VmpAt(ds, lim.LowTempC)
 	maxV := inv.MaxDCVoltageV
 	if lim.MaxSystemVoltage > 0 && lim.MaxSystemVoltage < maxV {
 		maxV = lim.MaxSystemVoltage
