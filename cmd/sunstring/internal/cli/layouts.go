@@ -257,6 +257,18 @@ func (p *project) prepareLayouts() error {
 	if err != nil {
 		return inputError{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
 	}
+	// Some layout must take the modules (all of them, unless modules may be left out or the
+	// inverter cannot take them all), or the long run would end in nothing to report.
+	n := len(p.Modules)
+	capacity := p.Inverter.Inputs * b.MaxParallel * b.MaxSeries
+	minMods := n
+	if cfg.Layouts.LeaveOut || capacity < n {
+		minMods = min(n, capacity) - n/4
+	}
+	if n > 0 && len(layout.Shapes(n, minMods, p.Inverter.Inputs, b)) == 0 {
+		return inputError{fmt.Errorf("%s: no string layout takes the %d modules: strings of %d to %d modules (from inverter.max_dc_voltage_v, inverter.mppt_min_v and inverter.mppt_max_v at climate.low_temp_c and climate.high_temp_c), at most %d in parallel (inverter.max_input_current_a), %d input(s) (inverter.inputs); change the inverter, or allow layouts.leave_out",
+			cfg.File, n, b.MinSeries, b.MaxSeries, b.MaxParallel, p.Inverter.Inputs)}
+	}
 	index := make(map[string]int, len(p.Modules))
 	for i, mod := range p.Modules {
 		index[mod.ID] = i
