@@ -226,7 +226,9 @@ func holders(who string, l rankedLayout, ids []string) string {
 		want[id] = true
 	}
 	var parts []string
+	nth := map[int]int{} // strings counted per input, as module_results label them
 	for i, s := range l.Strings {
+		nth[l.Inputs[i]]++
 		c := 0
 		for _, id := range s {
 			if want[id] {
@@ -234,7 +236,7 @@ func holders(who string, l rankedLayout, ids []string) string {
 			}
 		}
 		if c > 0 {
-			parts = append(parts, fmt.Sprintf("%d in string %d.%d of %d modules", c, l.Inputs[i], i+1, len(s)))
+			parts = append(parts, fmt.Sprintf("%d in string %d.%d of %d modules", c, l.Inputs[i], nth[l.Inputs[i]], len(s)))
 		}
 	}
 	if len(parts) == 0 {
