@@ -101,7 +101,7 @@ func (thousandsTicks) Ticks(min, max float64) []plot.Tick {
 // horizontal bars, the best in the accent colour, with each layout's shade loss beside it.
 func LayoutChart(ls []Layout) *plot.Plot {
 	p := plot.New()
-	styleTitle(p, "String layouts compared: annual AC energy")
+	styleTitle(p, "String layouts compared: annual AC energy\n"+WiringCaution)
 	n := len(ls)
 	names := make([]string, n)
 	var lxy plotter.XYs

@@ -269,6 +269,9 @@ func addLabels(p *plot.Plot, xy plotter.XYs, ls []string, size float64, c color.
 const sans = "Sans"
 
 // styleTitle sets the house type on a plot: the title, axis labels, ticks and legend.
+// WiringCaution goes on every chart that shows strings: a layout is a plan, not a design.
+const WiringCaution = "Estimate only: local codes and a licensed installer decide the wiring."
+
 func styleTitle(p *plot.Plot, title string) {
 	p.Title.Text = title
 	p.Title.TextStyle.Color = Ink
@@ -349,7 +352,7 @@ func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 // string, for a w×h picture.
 func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	p := plot.New()
-	styleTitle(p, "Strings of the chosen layout, in wiring order")
+	styleTitle(p, "Strings of the chosen layout, in wiring order\n"+WiringCaution)
 	minX, maxX, minY, maxY := planBase(pl, p)
 	inString := make([]bool, len(pl.Modules))
 	for _, s := range pl.Strings {

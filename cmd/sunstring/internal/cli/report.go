@@ -1,6 +1,7 @@
 package cli
 
 import (
+	"bytes"
 	"encoding/json"
 	"fmt"
 	"math"
@@ -57,6 +58,16 @@ func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, 
 	if err != nil {
 		return nil, fmt.Errorf("modules.geojson: %w", err)
 	}
+	// The cautions travel with the layout (RFC 7946 §6.1 allows foreign members).
+	cj, err := json.Marshal(report.Cautions)
+	if err != nil {
+		return nil, err
+	}
+	const head = `{"type":"FeatureCollection",`
+	if !bytes.HasPrefix(gj, []byte(head)) {
+		return nil, fmt.Errorf("modules.geojson: unexpected start %q", gj[:min(len(gj), 40)])
+	}
+	gj = append([]byte(head+`"cautions":`+string(cj)+","), gj[len(head):]...)
 	files["modules.geojson"] = gj
 
 	// The PDF and the chart files show the same rounded figures as summary.json.
