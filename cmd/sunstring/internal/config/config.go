@@ -152,13 +152,42 @@ type Error struct {
 	File string
 	Key  string // dotted key path, empty for the whole file
 	Msg  string
+	// From names where the value came from when not the file: an environment variable or a
+	// flag.
+	From string
 }
 
 func (e *Error) Error() string {
-	if e.Key == "" {
+	switch {
+	case e.Key == "":
 		return fmt.Sprintf("%s: %s", e.File, e.Msg)
+	case e.From != "":
+		return fmt.Sprintf("%s: %s (set by %s): %s", e.File, e.Key, e.From, e.Msg)
 	}
 	return fmt.Sprintf("%s: %s: %s", e.File, e.Key, e.Msg)
+}
+
+// blame marks each error whose key took its value from the environment or a flag.
+func blame(err error, from map[string]string) error {
+	var es Errors
+	switch e := err.(type) {
+	case Errors:
+		es = e
+	case *Error:
+		es = Errors{e}
+	default:
+		return err
+	}
+	for _, e := range es {
+		k := e.Key
+		if i := strings.IndexByte(k, '['); i >= 0 {
+			k = k[:i]
+		}
+		if src, ok := from[k]; ok {
+			e.From = src
+		}
+	}
+	return err
 }
 
 // BadInput reports whether the error is the user's input (always).
@@ -187,6 +216,12 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 	for k, d := range defaults {
 		v.SetDefault(k, d)
 	}
+	from := map[string]string{} // key → where its value came from, when not the file
+	for k := range defaults {
+		if _, set := os.LookupEnv(EnvName(k)); set {
+			from[k] = "environment variable " + EnvName(k)
+		}
+	}
 	for key, flag := range bind {
 		// The environment overrides a flag (the order: file < flags < environment),
 		// so a flag is bound only when its key has no SUNSTRING_ variable.
@@ -197,6 +232,7 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 			if err := v.BindPFlag(key, f); err != nil {
 				return nil, fmt.Errorf("config: bind --%s: %w", flag, err)
 			}
+			from[key] = "flag --" + flag
 		}
 	}
 	v.SetConfigFile(path)
@@ -215,12 +251,12 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 		c.DecodeHook = mapstructure.ComposeDecodeHookFunc(c.DecodeHook, rejectLossyFloat)
 	})
 	if err != nil {
-		return nil, decodeErrors(path, err)
+		return nil, blame(decodeErrors(path, err), from)
 	}
 	s.File = path
 	s.Dir = filepath.Dir(path)
 	if errs := s.Validate(); len(errs) > 0 {
-		return nil, errs
+		return nil, blame(errs, from)
 	}
 	return &s, nil
 }

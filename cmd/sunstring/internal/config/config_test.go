@@ -135,3 +135,22 @@ func TestPrecedence(t *testing.T) {
 		})
 	}
 }
+
+func TestErrorsNameTheirSource(t *testing.T) {
+	p := write(t, minimal)
+	t.Setenv("SUNSTRING_INVERTER_INPUTS", "abc")
+	_, err := Load(p, nil, nil)
+	if err == nil || !strings.Contains(err.Error(), "inverter.inputs (set by environment variable SUNSTRING_INVERTER_INPUTS)") {
+		t.Errorf("error %v does not name the environment variable", err)
+	}
+	t.Setenv("SUNSTRING_INVERTER_INPUTS", "2")
+	fs := pflag.NewFlagSet("test", pflag.ContinueOnError)
+	fs.String("sky", "", "")
+	if err := fs.Parse([]string{"--sky", "bogus"}); err != nil {
+		t.Fatal(err)
+	}
+	_, err = Load(p, fs, map[string]string{"model.sky": "sky"})
+	if err == nil || !strings.Contains(err.Error(), "model.sky (set by flag --sky)") {
+		t.Errorf("error %v does not name the flag", err)
+	}
+}
