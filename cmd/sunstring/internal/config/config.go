@@ -316,7 +316,7 @@ func decodeErrors(path string, err error) error {
 		}
 		if strings.HasPrefix(line, "'") {
 			if j := strings.Index(line[1:], "'"); j >= 0 {
-				out = append(out, &Error{File: path, Key: line[1 : j+1], Msg: strings.TrimSpace(line[j+2:])})
+				out = append(out, &Error{File: path, Key: line[1 : j+1], Msg: plainDecodeMsg(strings.TrimSpace(line[j+2:]))})
 				continue
 			}
 		}
@@ -326,6 +326,21 @@ func decodeErrors(path string, err error) error {
 		return &Error{File: path, Msg: err.Error()}
 	}
 	return out
+}
+
+// plainDecodeMsg turns the decoder's words for a value of the wrong type into a surveyor's.
+func plainDecodeMsg(msg string) string {
+	switch {
+	case strings.Contains(msg, "'float64'"), strings.Contains(msg, "ParseFloat"):
+		return "must be a number (" + msg + ")"
+	case strings.Contains(msg, "'bool'"), strings.Contains(msg, "ParseBool"):
+		return "must be true or false (" + msg + ")"
+	case strings.Contains(msg, "'string'"):
+		return "must be text (" + msg + ")"
+	case strings.Contains(msg, "expected type '[]"), strings.Contains(msg, "source data must be an array"):
+		return "must be a list (" + msg + ")"
+	}
+	return msg
 }
 
 // Validate checks every value's range and returns one Error per problem.
