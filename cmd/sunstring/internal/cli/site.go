@@ -154,6 +154,9 @@ func loadProject(path string, flags *pflag.FlagSet, bind map[string]string) (*pr
 		return nil, err
 	}
 	p.Modules, p.Notes = mods, append(fitNotes, notes...)
+	if w := zoneWarning(cfg, lon); w != "" {
+		p.Notes = append(p.Notes, w)
+	}
 	return p, nil
 }
 
@@ -196,12 +199,18 @@ func (p *project) loadWeather() (*weather.Series, error) {
 	case len(cfg.Climate.MonthlyGHI) == 12:
 		var g, t [12]float64
 		copy(g[:], cfg.Climate.MonthlyGHI)
+		var note string
 		if temps != nil {
 			t = *temps
 		} else {
 			t = defaultTemps(p.LatDeg)
+			note = "climate.monthly_temp_c is not given: a plain seasonal cycle of 12 °C ± 9 K is assumed; give the site's monthly mean temperatures, since cell temperature moves the yield by several percent"
 		}
-		return weather.FromMonthly(ws, g, t)
+		s, err := weather.FromMonthly(ws, g, t)
+		if err == nil && note != "" {
+			s.Warnings = append(s.Warnings, note)
+		}
+		return s, err
 	default:
 		return weather.ClearSky(ws, temps), nil
 	}
@@ -220,6 +229,24 @@ func defaultTemps(latDeg float64) [12]float64 {
 		t[i] = 12 + 9*math.Cos(2*math.Pi*(float64(i)+0.5-peak)/12)
 	}
 	return t
+}
+
+// zoneWarning flags a time zone whose standard offset is far from the site's longitude (15°
+// an hour): a likely wrong zone, which would shift every hour of a weather file. Zones
+// legitimately stray up to about 2 hours (common practice: western Europe, western China), so
+// only more than that is flagged.
+func zoneWarning(cfg *config.Site, lonDeg float64) string {
+	if cfg.Zone == nil {
+		return ""
+	}
+	_, jan := time.Date(weather.TypicalYear, 1, 15, 12, 0, 0, 0, cfg.Zone).Zone()
+	_, jul := time.Date(weather.TypicalYear, 7, 15, 12, 0, 0, 0, cfg.Zone).Zone()
+	std := float64(min(jan, jul)) / 3600
+	d := math.Mod(lonDeg/15-std+36, 24) - 12 // hours, wrapped to (−12, 12]
+	if math.Abs(d) > 2.5 {
+		return fmt.Sprintf("timezone %s (UTC%+.1f h standard) is %.1f hours from the site's longitude %.2f°; check the zone: a wrong one shifts every hour of a weather file", cfg.Timezone, std, d, lonDeg)
+	}
+	return ""
 }
 
 // IndicativeWarning is printed wherever an indicative clear-sky year stands in for a climate.
