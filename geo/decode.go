@@ -963,6 +963,15 @@ func (d *decoder) crossChecks(raws []*rawFeature) {
 			d.warn(byIndex[a.Index], "the avoid area touches no roof face; it has no effect")
 		}
 	}
+	// A tree standing on a face with its crown reaching below the roof surface is most likely
+	// drawn on the wrong spot (or its heights are above the wrong ground): its crown would
+	// pass through the roof and shade the modules under it completely.
+	for _, t := range d.site.Trees {
+		if i := faceAt(faces, t.Trunk); i >= 0 && t.CrownBaseM < faces[i].HeightAt(t.Trunk) {
+			d.warn(byIndex[t.Index], fmt.Sprintf("the tree stands on roof face %q and its crown starts %.1f m above ground, below the roof's %.1f m there: the crown passes through the roof; check its position and heights",
+				faces[i].ID, t.CrownBaseM, faces[i].HeightAt(t.Trunk)))
+		}
+	}
 }
 
 // faceAt returns the index of the face whose plan contains p, or −1.

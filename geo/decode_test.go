@@ -3,6 +3,7 @@ package geo
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -248,6 +249,31 @@ func TestDecodeWarnings(t *testing.T) {
 	}
 	if len(s.Warnings) != 1 || !strings.Contains(s.Warnings[0], `m.geojson: feature 0 (id "S"): property "pitch" is not used by a roof`) {
 		t.Fatalf("warnings %q", s.Warnings)
+	}
+}
+
+func TestTreeThroughRoofWarning(t *testing.T) {
+	// A roof face 3 m at the eave, 30° (its height at the centre of the ~11 m deep plan is
+	// about 3 + 5.6·tan 30° ≈ 6.2 m); a tree on it with its crown from 2 m (through the roof)
+	// gets a warning, one with its crown from 9 m (above the roof) does not.
+	for _, c := range []struct {
+		name      string
+		crownBase float64
+		warn      bool
+	}{{"crown through the roof", 2, true}, {"crown above the roof", 9, false}} {
+		t.Run(c.name, func(t *testing.T) {
+			in := fmt.Sprintf(`{"type": "FeatureCollection", "features": [
+{"type": "Feature", "properties": {"kind": "roof", "id": "S", "pitch_deg": 30, "aspect_deg": 180, "eave_height_m": 3}, "geometry": {"type": "Polygon", "coordinates": [[[15.4, 47.1], [15.4001, 47.1], [15.4001, 47.1001], [15.4, 47.1001], [15.4, 47.1]]]}},
+{"type": "Feature", "properties": {"kind": "tree", "id": "t", "height_m": 14, "crown_radius_m": 2, "crown_base_m": %g}, "geometry": {"type": "Point", "coordinates": [15.40005, 47.10005]}}]}`, c.crownBase)
+			s, err := Decode(strings.NewReader(in), DecodeOptions{File: "m.geojson"})
+			if err != nil {
+				t.Fatal(err)
+			}
+			got := strings.Join(s.Warnings, "\n")
+			if strings.Contains(got, "passes through the roof") != c.warn {
+				t.Errorf("warnings %q, want the through-the-roof warning: %v", got, c.warn)
+			}
+		})
 	}
 }
 
