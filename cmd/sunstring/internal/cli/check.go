@@ -22,6 +22,12 @@ func (p *project) checkElectrics() (checks []report.Check, bad error, err error)
 	checks = append(checks, report.Check{Severity: "info", Subject: "strings", Unit: "modules", Value: float64(b.MaxSeries), Limit: float64(b.MinSeries),
 		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %g °C cell); at most %d string(s) per input",
 			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), b.MaxParallel)})
+	// The roof-order layout's strings, which a survey always reports.
+	if seq, _, err := p.roofOrder(); err == nil && len(p.Modules) > 0 {
+		checks = append(checks, p.electricalChecks(roofOrderName, lengths(seq))...)
+	} else if err != nil {
+		return nil, nil, err
+	}
 	for i, fl := range cfg.Layouts.Fixed {
 		cs := p.electricalChecks(fl.Name, lengths(p.fixed[i]))
 		for _, c := range cs {
@@ -31,6 +37,7 @@ func (p *project) checkElectrics() (checks []report.Check, bad error, err error)
 		}
 		checks = append(checks, cs...)
 	}
+	checks = append(checks, p.leakageChecks()...)
 	return checks, bad, nil
 }
 

@@ -15,8 +15,7 @@ func (p *project) hotCellC() float64 { return p.Cfg.Climate.HighTempC + layout.H
 
 // electricalChecks gives, for a layout's string lengths per inverter input, the numbers a
 // surveyor must see (open-circuit voltage at the coldest, MPP voltage at the hottest, input
-// current) and every limit broken, each in volts or amperes, and the leakage estimate for a
-// transformerless inverter.
+// current) and every limit broken, each in volts or amperes.
 func (p *project) electricalChecks(name string, lens [][]int) []report.Check {
 	ds, inv := p.Datasheet, p.Inverter
 	low, hot := p.Cfg.Climate.LowTempC, p.hotCellC()
@@ -47,6 +46,13 @@ func (p *project) electricalChecks(name string, lens [][]int) []report.Check {
 	for _, f := range electric.CheckStrings(ds, lens, low, hot, inv) {
 		out = append(out, fromFinding(name, f))
 	}
+	return out
+}
+
+// leakageChecks is the capacitive leakage estimate for a transformerless inverter.
+func (p *project) leakageChecks() []report.Check {
+	var out []report.Check
+	inv := p.Inverter
 	if p.Cfg.Inverter.Transformerless && len(p.Modules) > 0 {
 		area := float64(len(p.Modules)) * p.Modules[0].AreaM2()
 		if lr, err := electric.Leakage(area, electric.LeakageAssumptions{RatedKVA: inv.ACPowerW / 1000}); err == nil {

@@ -22,21 +22,12 @@ func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, 
 		return nil, err
 	}
 	b := p.bounds
-	var err error
 	n := len(p.Modules)
-	index := make(map[string]int, n)
 	order := make([]int, n)
-	face := make([]int, n)
-	faceNo := map[string]int{}
 	pos := make([]layout.Point, n)
 	reach := 0.0
 	for i, mod := range p.Modules {
-		index[mod.ID] = i
 		order[i] = i
-		if _, ok := faceNo[mod.Face]; !ok {
-			faceNo[mod.Face] = len(faceNo)
-		}
-		face[i] = faceNo[mod.Face]
 		c := mod.Center()
 		pos[i] = layout.Point{X: c.E, Y: c.N, Z: c.U}
 		// Neighbours' leads reach about one module length (common practice); 5 % slack so
@@ -67,23 +58,9 @@ func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, 
 		out = append(out, rl)
 		return nil
 	}
-	// Roof order: strings that stay on one face when the bounds allow it, else straight
-	// through the roof order.
-	seq, onFaces := layout.FaceOrder(order, face, p.Inverter.Inputs, b)
-	note := "modules wired in roof order (face, row, column), each string on one roof face"
-	if !onFaces {
-		var left int
-		seq, left, err = layout.Sequential(order, p.Inverter.Inputs, b)
-		if err != nil {
-			return nil, inputError{fmt.Errorf("%s: %w", cfg.File, err)}
-		}
-		note = "modules wired in roof order (face, row, column)"
-		if len(faceNo) > 1 {
-			note += "; no string length lets every string stay on one face"
-		}
-		if left > 0 {
-			note += fmt.Sprintf("; %d modules do not fit the inverter and are left out", left)
-		}
+	seq, note, err := p.roofOrder()
+	if err != nil {
+		return nil, err
 	}
 	if err := eval(roofOrderName, seq, note); err != nil {
 		return nil, err
@@ -243,6 +220,42 @@ func holders(who string, l rankedLayout, ids []string) string {
 		return who + " leaves them unconnected"
 	}
 	return who + " has " + strings.Join(parts, ", ")
+}
+
+// roofOrder is the plain layout: modules wired in roof order (face, row, column), strings that
+// stay on one face when the bounds allow it, else straight through the roof order. note says
+// which, and how many modules the inverter cannot take.
+func (p *project) roofOrder() (electric.Layout, string, error) {
+	if err := p.prepareLayouts(); err != nil {
+		return electric.Layout{}, "", err
+	}
+	n := len(p.Modules)
+	order := make([]int, n)
+	face := make([]int, n)
+	faceNo := map[string]int{}
+	for i, mod := range p.Modules {
+		order[i] = i
+		if _, ok := faceNo[mod.Face]; !ok {
+			faceNo[mod.Face] = len(faceNo)
+		}
+		face[i] = faceNo[mod.Face]
+	}
+	seq, onFaces := layout.FaceOrder(order, face, p.Inverter.Inputs, p.bounds)
+	if onFaces {
+		return seq, "modules wired in roof order (face, row, column), each string on one roof face", nil
+	}
+	seq, left, err := layout.Sequential(order, p.Inverter.Inputs, p.bounds)
+	if err != nil {
+		return seq, "", inputError{fmt.Errorf("%s: %w", p.Cfg.File, err)}
+	}
+	note := "modules wired in roof order (face, row, column)"
+	if len(faceNo) > 1 {
+		note += "; no string length lets every string stay on one face"
+	}
+	if left > 0 {
+		note += fmt.Sprintf("; %d modules do not fit the inverter and are left out", left)
+	}
+	return seq, note, nil
 }
 
 // prepareLayouts finds the string bounds of the module and inverter and checks the user's fixed

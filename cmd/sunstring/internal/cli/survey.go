@@ -244,7 +244,7 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 		for _, l := range r.Losses {
 			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
 		}
-		s.Checks = p.electricalChecks(best.Name, lengths(best.Result.Layout))
+		s.Checks = append(p.electricalChecks(best.Name, lengths(best.Result.Layout)), p.leakageChecks()...)
 		// "<input>.<string on that input>", both counted from 1.
 		nth := map[int]int{}
 		for i, st := range best.Strings {
