@@ -5,6 +5,7 @@ import (
 	"crypto/sha256"
 	"encoding/json"
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -349,12 +350,33 @@ func TestCheckExample(t *testing.T) {
 		Faces   []struct {
 			ID string `json:"id"`
 		} `json:"faces"`
+		Checks []struct {
+			Subject, Message, Unit string
+			Value, Limit           float64
+		} `json:"checks"`
+		Cautions []string `json:"cautions"`
 	}
 	if err := json.Unmarshal([]byte(out), &r); err != nil {
 		t.Fatal(err)
 	}
 	if len(r.Faces) != 2 || r.Modules == 0 || !scalar.EqualWithinAbs(r.KWp, float64(r.Modules)*0.41, 1e-9) {
 		t.Errorf("check: %+v (want the example's two faces S and G, 410 W modules)", r)
+	}
+	// Hand calculation (IEC 62548-1 rule): the example's module, Voc 37.4 V at −0.27 %/K, at
+	// −16 °C: 37.4·(1 − 0.0027·(−41)) = 41.54 V a module; each roof-order string's open-circuit
+	// voltage is a whole number of that, below the inverter's 600 V.
+	seen := 0
+	for _, c := range r.Checks {
+		if strings.HasPrefix(c.Subject, "roof order") && c.Unit == "V" && strings.Contains(c.Message, "open circuit") {
+			seen++
+			n := c.Value / 41.54
+			if !scalar.EqualWithinAbs(n, math.Round(n), 0.01) || c.Value > c.Limit || c.Limit != 600 {
+				t.Errorf("%s: %.2f V is not a whole number of 41.54 V modules under 600 V", c.Subject, c.Value)
+			}
+		}
+	}
+	if seen == 0 || len(r.Cautions) == 0 {
+		t.Errorf("check --json lacks the roof order's open-circuit checks (%d) or the cautions (%d)", seen, len(r.Cautions))
 	}
 }
 
