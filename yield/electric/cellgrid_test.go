@@ -324,3 +324,38 @@ func TestNewYearWorkers(t *testing.T) {
 		}
 	}
 }
+
+// TestWarmStep: where warmStep accepts its step, W and ln W agree with
+// lambertWExp to a few ulps [calc: both solve w + ln w = L]; and it accepts
+// steps of up to |ΔL|/(1+W) = 0.05 in forward bias, the common case along a
+// curve's grid.
+func TestWarmStep(t *testing.T) {
+	rng := rand.New(rand.NewPCG(21, 22))
+	accepted := 0
+	for trial := range 20000 {
+		Lp := 2 + 5e3*math.Pow(rng.Float64(), 2)
+		wp := lambertWExp(Lp)
+		tt := 0.3 * (2*rng.Float64() - 1)
+		if trial%2 == 0 {
+			tt *= 0.05 / 0.3
+		}
+		L := Lp + tt*(1+wp)
+		w, u, _, ok := warmStep(L, Lp, wp, math.Log(wp), 1/(1+wp))
+		if !ok {
+			if math.Abs(tt) <= 0.05 && wp > 20 {
+				t.Fatalf("L=%g from %g (t=%g, W=%g) refused", L, Lp, tt, wp)
+			}
+			continue
+		}
+		accepted++
+		want := lambertWExp(L)
+		// Rounding of L − Lp and of ln wp (|ln wp|·2⁻⁵³) carry into u and,
+		// relative, into w; a few ulps of slack on top.
+		if !scalar.EqualWithinRel(w, want, 2e-15) || !scalar.EqualWithinAbs(u, math.Log(want), 1e-14) {
+			t.Fatalf("L=%g from %g (t=%g): W %.17g, ln W %.17g; want %.17g, %.17g", L, Lp, tt, w, u, want, math.Log(want))
+		}
+	}
+	if accepted < 10000 {
+		t.Errorf("only %d of 20000 steps accepted", accepted)
+	}
+}

@@ -329,3 +329,104 @@ func BenchmarkNewYear(b *testing.B) {
 		shadeYear(b, m, 120, 4400, 0.3, 7)
 	}
 }
+
+// exampleYear builds the year of module curves of a workload the size and
+// shape of the bundled example (22 modules of 120 half-cells, about 4800
+// sun-up steps, seeded, no files): per step a beam and a diffuse level on a
+// daily and seasonal cycle; per module a sky-view factor (0.85–1.0), so that
+// modules see slightly different diffuse light, and a cell temperature from
+// its own irradiance and an offset (±0.3 K); on half the steps a shadow
+// covering a contiguous rectangle of cells (diffuse light only) on a third to
+// a half of the modules. On the example about 17 % of module-steps are
+// shaded, nearly all with two distinct cell irradiances, and no two modules
+// of a step share irradiance and temperature; this workload has the same
+// traits (about 20 % shaded).
+func exampleYear(tb testing.TB, m *Module) *Year {
+	tb.Helper()
+	const n, steps = 22, 4800
+	cols, rows := m.Grid()
+	sky := make([]float64, n)
+	toff := make([]float64, n)
+	rng := rand.New(rand.NewPCG(11, 12))
+	for k := range n {
+		sky[k] = 0.85 + 0.15*rng.Float64()
+		toff[k] = 0.6*rng.Float64() - 0.3
+	}
+	y, err := NewYear(m, n, steps, func(s int, d *StepInput) {
+		rng := rand.New(rand.NewPCG(13, uint64(s)))
+		day := float64(s) / 13 // about 13 sun-up hours a day
+		elev := math.Sin(math.Pi * (day - math.Floor(day)))
+		season := 0.6 + 0.4*math.Cos(2*math.Pi*(float64(s)/steps-0.5))
+		clearness := rng.Float64()
+		beam := 850 * elev * season * clearness
+		diffuse := 30 + 180*elev*(1-0.6*clearness)
+		shaded := rng.Float64() < 0.5
+		first := rng.IntN(n)
+		count := n/3 + rng.IntN(n/2-n/3+1)
+		r0, r1 := rng.IntN(rows), rng.IntN(rows)
+		c0, c1 := rng.IntN(cols), rng.IntN(cols)
+		if r0 > r1 {
+			r0, r1 = r1, r0
+		}
+		if c0 > c1 {
+			c0, c1 = c1, c0
+		}
+		for k := range n {
+			df := diffuse * sky[k]
+			lit := 0.98 * (beam + df)
+			for c := range d.CellIrr[k] {
+				d.CellIrr[k][c] = lit
+			}
+			d.UnshadedIrr[k] = lit
+			poa := beam + df
+			if shaded && (k-first+n)%n < count {
+				for r := r0; r <= r1; r++ {
+					for c := c0; c <= c1; c++ {
+						d.CellIrr[k][r*cols+c] = 0.98 * df
+					}
+				}
+				poa -= beam * float64((r1-r0+1)*(c1-c0+1)) / float64(cols*rows)
+			}
+			d.TempC[k] = 5 + 15*season + poa/(25+6.84*2) + toff[k] // Faiman-like, 2 m/s wind
+		}
+	})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return y
+}
+
+// exampleLayout is two inputs of one string of 11 modules each.
+func exampleLayout() Layout {
+	var l Layout
+	for a := range 2 {
+		str := make([]int, 11)
+		for k := range str {
+			str[k] = a*11 + k
+		}
+		l.Inputs = append(l.Inputs, [][]int{str})
+	}
+	return l
+}
+
+// exampleInverter is a two-input 6 kW inverter like the example's.
+var exampleInverter = Inverter{ACPowerW: 6000, MaxDCVoltageV: 600, MPPTMinV: 90, MPPTMaxV: 560, Inputs: 2,
+	MaxInputCurrentA: 16, Efficiency: []EffPoint{{0.1, 0.948}, {0.5, 0.972}, {1, 0.968}}}
+
+// BenchmarkNewYearExample is the issue's "a year of one layout on the
+// example ≤ 100 ms on one core once the shade fractions exist": building the
+// year of module curves of exampleYear plus one Evaluate. Measure with
+// -cpu 1.
+func BenchmarkNewYearExample(b *testing.B) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		y := exampleYear(b, m)
+		if _, err := y.Evaluate(exampleLayout(), exampleInverter, EvalOptions{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
