@@ -29,8 +29,12 @@ type LayoutResult struct {
 	Losses       []Loss
 }
 
-// nightHours fills in the inverter's night time for opt, from the year's records.
-func (m *Model) nightHours(opt electric.EvalOptions) electric.EvalOptions {
+// options fills in the inverter's night time, from the year's records, and the flat DC
+// losses, which act before the inverter's efficiency and AC limit.
+func (m *Model) options(opt electric.EvalOptions) electric.EvalOptions {
+	if opt.DCKeep == 0 {
+		opt.DCKeep, _ = m.flat()
+	}
 	if opt.NightHours == 0 {
 		opt.NightHours = float64(m.NightHours) * m.In.Weather.Interval.Hours()
 		if opt.NightHours == 0 {
@@ -40,11 +44,8 @@ func (m *Model) nightHours(opt electric.EvalOptions) electric.EvalOptions {
 	return opt
 }
 
-// flat returns the factor the flat DC losses (module tolerance mismatch, DC wiring) leave,
-// and the one availability leaves. The DC losses act before the inverter; they are applied
-// as a factor on the AC energy, which ignores their small effect on the inverter's operating
-// point (under 0.1 % of AC for a few percent of DC loss on a flat efficiency curve — common
-// practice).
+// flat returns the factor the flat DC losses (module tolerance mismatch, DC wiring) leave
+// of the DC power on its way to the inverter, and the one availability leaves of the AC.
 func (m *Model) flat() (dcKeep, avail float64) {
 	l := m.In.System.Losses
 	return (1 - l.MismatchPct/100) * (1 - l.WiringPct/100), 1 - l.AvailabilityPct/100
@@ -53,26 +54,26 @@ func (m *Model) flat() (dcKeep, avail float64) {
 // EvaluateACWh is the layout's annual AC energy (Wh) net of every loss, as Evaluate's ACkWh,
 // without the unshaded reference and the breakdown: the layout search's objective.
 func (m *Model) EvaluateACWh(l electric.Layout, opt electric.EvalOptions) (float64, error) {
-	yr, err := m.Year.Evaluate(l, m.In.System.Inverter, m.nightHours(opt))
+	yr, err := m.Year.Evaluate(l, m.In.System.Inverter, m.options(opt))
 	if err != nil {
 		return 0, fmt.Errorf("yield: layout: %w", err)
 	}
-	dcKeep, avail := m.flat()
-	return (yr.ACWh*dcKeep - yr.NightWh) * avail, nil
+	_, avail := m.flat()
+	return (yr.ACWh - yr.NightWh) * avail, nil
 }
 
 // Evaluate runs a layout over the prepared year, and the same layout over the unshaded
 // reference year for its shade loss.
 func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutResult, error) {
 	sys := m.In.System
-	opt = m.nightHours(opt)
+	opt = m.options(opt)
 	yr, err := m.Year.Evaluate(l, sys.Inverter, opt)
 	if err != nil {
 		return LayoutResult{}, fmt.Errorf("yield: layout: %w", err)
 	}
 	r := LayoutResult{Layout: l, Year: yr}
-	dcKeep, avail := m.flat()
-	net := func(y electric.YearResult) float64 { return (y.ACWh*dcKeep - y.NightWh) * avail / 1000 }
+	_, avail := m.flat()
+	net := func(y electric.YearResult) float64 { return (y.ACWh - y.NightWh) * avail / 1000 }
 	r.ACkWh = net(yr)
 	var yu electric.YearResult
 	if m.YearUnshaded != nil {
@@ -98,8 +99,8 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 		if m.NightHours > 0 {
 			night = yr.NightWh * float64(m.MonthNightHours[i]) / float64(m.NightHours)
 		}
-		r.MonthlyACkWh[i] = (month[i]*dcKeep - night) * avail / 1000
-		r.MonthlyUnshadedACkWh[i] = (monthUn[i]*dcKeep - night) * avail / 1000
+		r.MonthlyACkWh[i] = (month[i] - night) * avail / 1000
+		r.MonthlyUnshadedACkWh[i] = (monthUn[i] - night) * avail / 1000
 	}
 
 	// The breakdown, over the layout's modules only.
@@ -156,12 +157,11 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	}
 	add("module tolerance mismatch", yr.DCWh*sys.Losses.MismatchPct/100)
 	add("DC wiring", yr.DCWh*(1-sys.Losses.MismatchPct/100)*sys.Losses.WiringPct/100)
-	grossAC := yr.ACWh
-	dcIn := yr.DCWh * dcKeep
-	add("inverter conversion", dcIn-(grossAC+yr.ClippedWh)*dcKeep)
-	add("inverter clipping (AC limit)", yr.ClippedWh*dcKeep)
+	dcIn := yr.DCWh * opt.DCKeep
+	add("inverter conversion", dcIn-yr.ACWh-yr.ClippedWh)
+	add("inverter clipping (AC limit)", yr.ClippedWh)
 	add("inverter night consumption", yr.NightWh)
-	add("availability", (grossAC*dcKeep-yr.NightWh)*(1-avail))
+	add("availability", (yr.ACWh-yr.NightWh)*(1-avail))
 	r.Losses = steps
 	return r, nil
 }

@@ -53,10 +53,16 @@ type EvalOptions struct {
 	// inverter's night consumption is counted; zero means 8760 h minus the
 	// steps' hours, negative means none.
 	NightHours float64
+	// DCKeep is the share of the DC power that reaches the inverter after flat
+	// DC losses (module tolerance mismatch, cable resistance), in (0, 1];
+	// zero means 1. It is applied before the inverter's efficiency and limits,
+	// so that clipping acts on what arrives.
+	DCKeep float64
 }
 
 // YearResult sums a layout's energy over all steps. DC energies are at the
-// inverter input; ACWh is gross of the night consumption NightWh.
+// strings' operating points, before EvalOptions.DCKeep (the inverter receives
+// DCWh·DCKeep); ACWh is gross of the night consumption NightWh.
 type YearResult struct {
 	DCWh, ACWh, ClippedWh float64
 	// GlobalDCWh is the DC energy at each input's unconstrained global
@@ -448,6 +454,13 @@ func (y *Year) Evaluate(l Layout, inv Inverter, opt EvalOptions) (YearResult, er
 	if opt.ModuleLevel && !(eff > 0 && eff <= 1) {
 		return YearResult{}, badf("module_level_eff", "%g must lie in (0, 1]", opt.ModuleLevelEff)
 	}
+	keep := opt.DCKeep
+	if keep == 0 {
+		keep = 1
+	}
+	if !(keep > 0 && keep <= 1) {
+		return YearResult{}, badf("dc_keep", "%g must lie in (0, 1]", opt.DCKeep)
+	}
 	res := YearResult{StepACWh: make([]float64, y.steps)}
 	var sc evalScratch
 	sc.gi = make([]float64, curvePoints)
@@ -514,9 +527,11 @@ func (y *Year) Evaluate(l Layout, inv Inverter, opt EvalOptions) (YearResult, er
 		if dc > 0 && dcV > 0 {
 			dcV /= dc
 		}
+		res.DCWh += dc * h
+		dc *= keep
+		unDC *= keep
 		ac, clip := inv.ACPowerAt(dc, dcV)
 		unAC, _ := inv.ACPower(unDC)
-		res.DCWh += dc * h
 		res.ACWh += ac * h
 		res.ClippedWh += clip * h
 		res.StepACWh[s] = ac * h

@@ -19,8 +19,8 @@ type HourlyRow struct {
 	// BeamLitPct is the mean over the modules of the share of cell area in direct sun, %;
 	// NaN while the sun is down.
 	BeamLitPct float64
-	// ACW is the mean AC power of the chosen layout over the interval, W, before the flat
-	// yearly losses (module tolerance mismatch, DC wiring, availability) and the inverter's
+	// ACW is the mean AC power of the chosen layout over the interval, W, after the flat DC
+	// losses (module tolerance mismatch, DC wiring) but before availability and the inverter's
 	// night consumption; 0 while the sun is down.
 	ACW float64
 }

@@ -73,11 +73,11 @@ func TestSurveyReportFiles(t *testing.T) {
 		tol  float64 // relative
 		why  string
 	}{
-		// ac_w comes before the flat module-tolerance and DC-wiring losses and availability,
+		// ac_w comes after the flat DC losses but before availability,
 		// which the loss breakdown applies to the year; night consumption (a few kWh) is
 		// left in the tolerance.
-		{"AC energy", "ac_w", 1000 * (s.AnnualACkWh + lossKWh(s, "module tolerance mismatch", "DC wiring", "availability")), 0.003,
-			"hourly AC power integrates to the annual AC energy before the flat yearly losses"},
+		{"AC energy", "ac_w", 1000 * (s.AnnualACkWh + lossKWh(s, "availability")), 0.003,
+			"hourly AC power integrates to the annual AC energy before availability"},
 		// GHI integrates to the climate's annual total, which summary.json reports from the
 		// same records (rounded to 0.1 kWh/m²).
 		{"GHI", "ghi_w_m2", s.Climate.AnnualGHIkWhM2 * 1000, 0.001, "hourly GHI integrates to the annual GHI"},
