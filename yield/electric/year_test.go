@@ -430,3 +430,44 @@ func BenchmarkNewYearExample(b *testing.B) {
 		}
 	}
 }
+
+// TestDCKeepBeforeClipping: flat DC losses reduce what reaches the inverter, before its AC
+// limit. With an array twice the inverter's size, the steps that clip still deliver the full
+// AC power (analytic: min(keep·DC·η, Pac) = Pac when keep·DC·η > Pac), and the unclipped
+// steps deliver keep times as much.
+func TestDCKeepBeforeClipping(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	y := shadeYear(t, m, 120, 20, 0, 3)
+	inv := bigInverter
+	inv.ACPowerW = 20000
+	full, err := y.Evaluate(layout6x20(), inv, EvalOptions{NightHours: -1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	kept, err := y.Evaluate(layout6x20(), inv, EvalOptions{NightHours: -1, DCKeep: 0.98})
+	if err != nil {
+		t.Fatal(err)
+	}
+	clipped := 0
+	for s := range full.StepACWh {
+		a, b := full.StepACWh[s], kept.StepACWh[s]
+		switch {
+		case a >= 20000*(1-1e-9) && b >= 20000*(1-1e-9):
+			clipped++ // both at the AC limit
+		case a < 0.97*20000:
+			// Flat 97 % efficiency, no clipping: proportional to the DC (1e-9 relative).
+			if !scalar.EqualWithinRel(b, 0.98*a, 1e-9) {
+				t.Errorf("step %d: %.3f Wh with 2 %% DC loss, want 0.98 × %.3f", s, b, a)
+			}
+		}
+	}
+	if clipped == 0 {
+		t.Error("no step clipped in both runs: the test lost its point")
+	}
+	if _, err := y.Evaluate(layout6x20(), inv, EvalOptions{DCKeep: 1.5}); err == nil {
+		t.Error("DCKeep 1.5 accepted")
+	}
+}
