@@ -26,7 +26,10 @@ type LayoutResult struct {
 	// NominalDCkWh is the layout's modules' unshaded POA irradiation at STC efficiency, the
 	// start of the loss breakdown.
 	NominalDCkWh float64
-	Losses       []Loss
+	// RefPOAKWhM2 is the layout's modules' mean unshaded plane-of-array irradiation: the
+	// reference yield of the performance ratio (IEC 61724-1), kWh/m² = kWh/kWp at 1 kW/m².
+	RefPOAKWhM2 float64
+	Losses      []Loss
 }
 
 // options fills in the inverter's night time, from the year's records, and the flat DC
@@ -126,6 +129,9 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	}
 	eta := m.EtaSTC
 	r.NominalDCkWh = poaUn * eta / 1000
+	if count := len(lengthsOf(l)); count > 0 && len(m.In.Modules) > 0 {
+		r.RefPOAKWhM2 = poaUn / (float64(count) * m.In.Modules[0].AreaM2()) / 1000
+	}
 	var steps []Loss
 	level := poaUn * eta
 	add := func(name string, lossWh float64) {
@@ -164,4 +170,15 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	add("availability", (yr.ACWh-yr.NightWh)*(1-avail))
 	r.Losses = steps
 	return r, nil
+}
+
+// lengthsOf lists the layout's modules.
+func lengthsOf(l electric.Layout) []int {
+	var out []int
+	for _, in := range l.Inputs {
+		for _, st := range in {
+			out = append(out, st...)
+		}
+	}
+	return out
 }

@@ -23,11 +23,22 @@ func (p *project) checkElectrics() (checks []report.Check, bad error, err error)
 		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %g °C cell); at most %d string(s) per input",
 			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), b.MaxParallel)})
 	// The roof-order layout's strings, which a survey always reports.
-	if seq, _, err := p.roofOrder(); err == nil && len(p.Modules) > 0 {
-		checks = append(checks, p.electricalChecks(roofOrderName, lengths(seq))...)
-	} else if err != nil {
+	seq, _, err := p.roofOrder()
+	if err != nil {
 		return nil, nil, err
 	}
+	connected := 0
+	for _, ls := range lengths(seq) {
+		for _, n := range ls {
+			connected += n
+		}
+	}
+	if connected < len(p.Modules) {
+		checks = append(checks, report.Check{Severity: "warning", Subject: "inverter", Unit: "modules", Value: float64(len(p.Modules)), Limit: float64(connected),
+			Message: fmt.Sprintf("the inverter takes at most %d of the %d placed modules (%d input(s) × %d string(s) × %d modules); the rest stay unconnected unless the inverter changes",
+				connected, len(p.Modules), p.Inverter.Inputs, b.MaxParallel, b.MaxSeries)})
+	}
+	checks = append(checks, p.electricalChecks(roofOrderName, lengths(seq))...)
 	for i, fl := range cfg.Layouts.Fixed {
 		cs := p.electricalChecks(fl.Name, lengths(p.fixed[i]))
 		for _, c := range cs {
@@ -37,7 +48,7 @@ func (p *project) checkElectrics() (checks []report.Check, bad error, err error)
 		}
 		checks = append(checks, cs...)
 	}
-	checks = append(checks, p.leakageChecks()...)
+	checks = append(checks, p.leakageChecks(connected)...)
 	return checks, bad, nil
 }
 

@@ -49,12 +49,13 @@ func (p *project) electricalChecks(name string, lens [][]int) []report.Check {
 	return out
 }
 
-// leakageChecks is the capacitive leakage estimate for a transformerless inverter.
-func (p *project) leakageChecks() []report.Check {
+// leakageChecks is the capacitive leakage estimate for a transformerless inverter, over the
+// connected modules.
+func (p *project) leakageChecks(connected int) []report.Check {
 	var out []report.Check
 	inv := p.Inverter
-	if p.Cfg.Inverter.Transformerless && len(p.Modules) > 0 {
-		area := float64(len(p.Modules)) * p.Modules[0].AreaM2()
+	if p.Cfg.Inverter.Transformerless && len(p.Modules) > 0 && connected > 0 {
+		area := float64(connected) * p.Modules[0].AreaM2()
 		if lr, err := electric.Leakage(area, electric.LeakageAssumptions{RatedKVA: inv.ACPowerW / 1000}); err == nil {
 			out = append(out, report.Check{Severity: "info", Subject: "array", Unit: "mA", Value: lr.WetmA, Limit: 300,
 				Message: fmt.Sprintf("capacitive leakage with a transformerless inverter: about %.0f mA dry, %.0f mA wet (%.0f / %.0f nF to earth; assumed 20 / 100 nF per m² of module and 115 V common-mode at 50 Hz)",

@@ -234,9 +234,10 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 		}
 		s.AnnualACkWh = r.ACkWh
 		s.SpecificYield = r.ACkWh / kwp
-		if m.RefPOAKWhM2 > 0 {
-			// IEC 61724-1: final yield over reference yield (in-plane irradiation / 1 kW/m²).
-			s.PerformanceRatio = s.SpecificYield / m.RefPOAKWhM2
+		if r.RefPOAKWhM2 > 0 {
+			// IEC 61724-1: final yield over reference yield (in-plane irradiation / 1 kW/m²),
+			// both over the connected modules.
+			s.PerformanceRatio = s.SpecificYield / r.RefPOAKWhM2
 		}
 		s.MonthlyACkWh = r.MonthlyACkWh
 		s.MonthlyUnshaded = r.MonthlyUnshadedACkWh
@@ -244,7 +245,7 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 		for _, l := range r.Losses {
 			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
 		}
-		s.Checks = append(p.electricalChecks(best.Name, lengths(best.Result.Layout)), p.leakageChecks()...)
+		s.Checks = append(p.electricalChecks(best.Name, lengths(best.Result.Layout)), p.leakageChecks(connected)...)
 		// "<input>.<string on that input>", both counted from 1.
 		nth := map[int]int{}
 		for i, st := range best.Strings {
