@@ -10,6 +10,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"gonum.org/v1/gonum/floats/scalar"
 )
@@ -428,5 +429,31 @@ func TestIndicativeClimateIsLoud(t *testing.T) {
 	b, _ := os.ReadFile(filepath.Join(out, "summary.json"))
 	if !bytes.Contains(b, []byte(`"source": "indicative"`)) {
 		t.Error(`summary.json climate.source is not "indicative"`)
+	}
+}
+
+// A temporary folder left by a killed run is removed by the next run once it is stale; a
+// fresh one (a run still writing) is left alone.
+func TestStaleTemporaryFolders(t *testing.T) {
+	parent := t.TempDir()
+	old := filepath.Join(parent, ".sunstring-new-111")
+	fresh := filepath.Join(parent, ".sunstring-new-222")
+	for _, d := range []string{old, fresh} {
+		if err := os.MkdirAll(d, 0o755); err != nil {
+			t.Fatal(err)
+		}
+	}
+	past := time.Now().Add(-2 * staleAfter)
+	if err := os.Chtimes(old, past, past); err != nil {
+		t.Fatal(err)
+	}
+	if err := (outputSet{"a.txt": []byte("x")}).commit(filepath.Join(parent, "out")); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(old); err == nil {
+		t.Error("the stale folder is still there")
+	}
+	if _, err := os.Stat(fresh); err != nil {
+		t.Error("a fresh temporary folder was removed")
 	}
 }

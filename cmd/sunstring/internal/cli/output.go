@@ -6,6 +6,8 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strings"
+	"time"
 )
 
 // markerFile marks a folder as sunstring's own report folder, which a later run may replace.
@@ -33,6 +35,7 @@ func (o outputSet) commit(dir string) error {
 	if err := os.MkdirAll(parent, 0o755); err != nil {
 		return fmt.Errorf("output folder %s: %w", parent, err)
 	}
+	removeStale(parent)
 	tmp, err := os.MkdirTemp(parent, ".sunstring-new-*")
 	if err != nil {
 		return fmt.Errorf("output folder %s: %w", dir, err)
@@ -111,4 +114,25 @@ func replaceable(dir string) bool {
 	}
 	_, err = os.Stat(filepath.Join(dir, markerFile))
 	return err == nil
+}
+
+// staleAfter is how old a leftover temporary folder must be before a later run removes it: a
+// run killed while writing (power cut, SIGKILL) cannot clean up after itself, and no run takes
+// anywhere near this long to write its files.
+const staleAfter = 10 * time.Minute
+
+// removeStale deletes temporary folders that an earlier, killed run left beside the output.
+func removeStale(parent string) {
+	es, err := os.ReadDir(parent)
+	if err != nil {
+		return
+	}
+	for _, e := range es {
+		if !e.IsDir() || !strings.HasPrefix(e.Name(), ".sunstring-new-") {
+			continue
+		}
+		if info, err := e.Info(); err == nil && time.Since(info.ModTime()) > staleAfter {
+			os.RemoveAll(filepath.Join(parent, e.Name()))
+		}
+	}
 }
