@@ -129,16 +129,58 @@ type Model struct {
 	IAM string `mapstructure:"iam"` // martin-ruiz | ashrae
 }
 
-// defaults gives every key a default so that environment variables reach it.
+// required are the keys with no default: a guess would change the voltages or the hours.
+var required = []string{
+	"map", "timezone",
+	"module.power_w", "module.voc_v", "module.isc_a", "module.vmp_v", "module.imp_a",
+	"module.temp_coeff_voc_pct", "module.temp_coeff_isc_pct", "module.temp_coeff_pmax_pct",
+	"module.cells_series", "module.bypass_diodes", "module.length_m", "module.width_m",
+	"inverter.ac_power_w", "inverter.max_dc_voltage_v", "inverter.mppt_min_v", "inverter.mppt_max_v",
+	"inverter.inputs", "inverter.max_input_current_a",
+}
+
+var requiredWhy = map[string]string{
+	"map":                          "the path of the GeoJSON map, relative to the site file",
+	"timezone":                     "the site's IANA time zone, such as Europe/Vienna; the hours of every weather record depend on it",
+	"module.power_w":               "the module's power at STC from its datasheet, W",
+	"module.voc_v":                 "the module's open-circuit voltage at STC, V",
+	"module.isc_a":                 "the module's short-circuit current at STC, A",
+	"module.vmp_v":                 "the module's MPP voltage at STC, V",
+	"module.imp_a":                 "the module's MPP current at STC, A",
+	"module.temp_coeff_voc_pct":    "the datasheet's Voc temperature coefficient, %/K (it sets the cold string voltage)",
+	"module.temp_coeff_isc_pct":    "the datasheet's Isc temperature coefficient, %/K",
+	"module.temp_coeff_pmax_pct":   "the datasheet's Pmax temperature coefficient, %/K",
+	"module.cells_series":          "the number of cells as the datasheet counts them (60, 72, 120, 144 …)",
+	"module.bypass_diodes":         "the number of bypass diodes (usually 3)",
+	"module.length_m":              "the module's long side, m",
+	"module.width_m":               "the module's short side, m",
+	"inverter.ac_power_w":          "the inverter's rated AC power, W",
+	"inverter.max_dc_voltage_v":    "the inverter's maximum DC input voltage, V",
+	"inverter.mppt_min_v":          "the lower end of the MPPT voltage window, V",
+	"inverter.mppt_max_v":          "the upper end of the MPPT voltage window, V",
+	"inverter.inputs":              "the number of MPPT inputs",
+	"inverter.max_input_current_a": "the maximum current of one MPPT input, A",
+}
+
+// allKeys lists every key of the site file: the required ones, those with a default and the
+// optional ones without.
+func allKeys() []string {
+	keys := append([]string{"latitude", "longitude", "elevation_m", "climate.monthly_ghi_kwh_m2", "climate.monthly_temp_c", "layouts.fixed"}, required...)
+	for k := range defaults {
+		keys = append(keys, k)
+	}
+	return keys
+}
+
+// defaults gives every other key a default, so that environment variables reach it.
 var defaults = map[string]any{
-	"name": "", "map": "", "timezone": "UTC", "horizon": "",
+	"name": "", "map": "", "horizon": "",
 	"climate.file": "", "climate.low_temp_c": -10.0, "climate.high_temp_c": 35.0, "climate.albedo": 0.2,
 	"module.power_w": 0.0, "module.voc_v": 0.0, "module.isc_a": 0.0, "module.vmp_v": 0.0, "module.imp_a": 0.0,
-	"module.temp_coeff_voc_pct": -0.28, "module.temp_coeff_isc_pct": 0.05, "module.temp_coeff_pmax_pct": -0.35,
-	"module.cells_series": 60.0, "module.bypass_diodes": 3.0, "module.half_cut": false,
+	"module.half_cut": false,
 	"module.length_m": 0.0, "module.width_m": 0.0, "module.max_system_voltage_v": 1000.0,
 	"inverter.ac_power_w": 0.0, "inverter.max_dc_voltage_v": 0.0, "inverter.mppt_min_v": 0.0,
-	"inverter.mppt_max_v": 0.0, "inverter.inputs": 1.0, "inverter.max_input_current_a": 0.0,
+	"inverter.mppt_max_v": 0.0, "inverter.max_input_current_a": 0.0,
 	"inverter.efficiency_pct": 96.0, "inverter.night_w": 0.0, "inverter.transformerless": true,
 	"fill.orientation": "portrait", "fill.setback_m": 0.3, "fill.gap_m": 0.02, "fill.clearance_m": 0.3,
 	"fill.min_modules": 1.0,
@@ -217,7 +259,7 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 		v.SetDefault(k, d)
 	}
 	from := map[string]string{} // key → where its value came from, when not the file
-	for k := range defaults {
+	for _, k := range allKeys() {
 		if _, set := os.LookupEnv(EnvName(k)); set {
 			from[k] = "environment variable " + EnvName(k)
 		}
@@ -244,6 +286,13 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 		}
 		return nil, &Error{File: path, Msg: fmt.Sprintf("not valid YAML: %v", unwrapYAML(err))}
 	}
+	// Keys without a sensible default must be given (in the file or the environment).
+	var missing Errors
+	for _, k := range required {
+		if !v.IsSet(k) {
+			missing = append(missing, &Error{File: path, Key: k, Msg: "missing: " + requiredWhy[k]})
+		}
+	}
 	var s Site
 	err := v.Unmarshal(&s, func(c *mapstructure.DecoderConfig) {
 		c.ErrorUnused = true
@@ -252,6 +301,9 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 	})
 	if err != nil {
 		return nil, blame(decodeErrors(path, err), from)
+	}
+	if len(missing) > 0 {
+		return nil, missing
 	}
 	s.File = path
 	s.Dir = filepath.Dir(path)

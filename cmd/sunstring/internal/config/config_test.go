@@ -22,7 +22,8 @@ func write(t *testing.T, body string) string {
 const minimal = `
 map: roof.geojson
 timezone: Europe/Vienna
-module: {power_w: 400, voc_v: 37.1, isc_a: 13.7, vmp_v: 31.0, imp_a: 12.9, length_m: 1.72, width_m: 1.13}
+module: {power_w: 400, voc_v: 37.1, isc_a: 13.7, vmp_v: 31.0, imp_a: 12.9, length_m: 1.72, width_m: 1.13,
+  temp_coeff_voc_pct: -0.26, temp_coeff_isc_pct: 0.05, temp_coeff_pmax_pct: -0.32, cells_series: 120, half_cut: true, bypass_diodes: 3}
 inverter: {ac_power_w: 6000, max_dc_voltage_v: 600, mppt_min_v: 90, mppt_max_v: 560, inputs: 2, max_input_current_a: 16}
 `
 
@@ -152,5 +153,29 @@ func TestErrorsNameTheirSource(t *testing.T) {
 	_, err = Load(p, fs, map[string]string{"model.sky": "sky"})
 	if err == nil || !strings.Contains(err.Error(), "model.sky (set by flag --sky)") {
 		t.Errorf("error %v does not name the flag", err)
+	}
+}
+
+func TestRequiredKeys(t *testing.T) {
+	// Keys whose guess would change voltages or hours must be given; each missing one is
+	// named, all at once.
+	p := write(t, "map: roof.geojson\nmodule: {power_w: 400}\n")
+	_, err := Load(p, nil, nil)
+	if err == nil {
+		t.Fatal("accepted a site file without timezone, datasheet and inverter")
+	}
+	for _, k := range []string{"timezone: missing", "module.temp_coeff_voc_pct: missing", "module.cells_series: missing", "inverter.inputs: missing"} {
+		if !strings.Contains(err.Error(), k) {
+			t.Errorf("message lacks %q:\n%v", k, err)
+		}
+	}
+	if strings.Contains(err.Error(), "module.power_w: missing") {
+		t.Error("a key given in the file is reported missing")
+	}
+	// The environment can give a required key.
+	t.Setenv("SUNSTRING_TIMEZONE", "Europe/Vienna")
+	_, err = Load(p, nil, nil)
+	if err == nil || strings.Contains(err.Error(), "timezone: missing") {
+		t.Errorf("SUNSTRING_TIMEZONE did not count: %v", err)
 	}
 }
