@@ -74,7 +74,7 @@ type project struct {
 
 // siteFlags are the flags that override site-file keys, shared by the commands that read one.
 func bindSiteFlags(f *pflag.FlagSet) map[string]string {
-	f.String("weather", "", "weather file (EPW or CSV), overrides climate.file")
+	f.String("weather", "", "weather file (EPW or CSV), relative to the current folder; overrides climate.file")
 	f.String("orientation", "", "module orientation: portrait, landscape or best (overrides fill.orientation)")
 	f.Float64("setback", 0, "setback from every roof edge, m (overrides fill.setback_m)")
 	f.String("sky", "", "sky model: perez, hay-davies or isotropic (overrides model.sky)")

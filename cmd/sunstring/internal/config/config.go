@@ -307,6 +307,15 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*Site, err
 	}
 	s.File = path
 	s.Dir = filepath.Dir(path)
+	// A path typed on the command line or set in the environment is the user's, relative to
+	// where they are; only the file's own paths are relative to the file.
+	for key, p := range map[string]*string{"map": &s.Map, "horizon": &s.Horizon, "climate.file": &s.Climate.File} {
+		if _, ok := from[key]; ok && *p != "" && !filepath.IsAbs(*p) {
+			if abs, err := filepath.Abs(*p); err == nil {
+				*p = abs
+			}
+		}
+	}
 	if errs := s.Validate(); len(errs) > 0 {
 		return nil, blame(errs, from)
 	}

@@ -179,3 +179,25 @@ func TestRequiredKeys(t *testing.T) {
 		t.Errorf("SUNSTRING_TIMEZONE did not count: %v", err)
 	}
 }
+
+func TestPathsFromTheEnvironmentAreTheUsers(t *testing.T) {
+	// climate.file from the file: relative to the file's folder; from the environment:
+	// relative to the current folder (made absolute).
+	p := write(t, minimal+"climate: {file: year.csv}\n")
+	s, err := Load(p, nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got, want := s.Path(s.Climate.File), filepath.Join(filepath.Dir(p), "year.csv"); got != want {
+		t.Errorf("file's path %q, want %q", got, want)
+	}
+	t.Setenv("SUNSTRING_CLIMATE_FILE", "data/year.epw")
+	s, err = Load(p, nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	wd, _ := os.Getwd()
+	if got, want := s.Path(s.Climate.File), filepath.Join(wd, "data/year.epw"); got != want {
+		t.Errorf("environment's path %q, want %q", got, want)
+	}
+}
