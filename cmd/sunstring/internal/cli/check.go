@@ -78,13 +78,9 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 		warnings := append(append([]string{}, p.Site.Warnings...), p.Notes...)
 		w := c.OutOrStdout()
 		if asJSON {
-			type face struct {
-				geo.FaceSummary
-				KWp float64 `json:"kwp"`
-			}
 			out := struct {
 				Name     string         `json:"name"`
-				Faces    []face         `json:"faces"`
+				Faces    []report.Face  `json:"faces"`
 				Modules  int            `json:"modules"`
 				KWp      float64        `json:"dc_kwp"`
 				Warnings []string       `json:"warnings"`
@@ -92,9 +88,13 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 				Cautions []string       `json:"cautions"`
 			}{Name: p.Cfg.Name, Modules: len(p.Modules), KWp: float64(len(p.Modules)) * kw, Warnings: warnings,
 				Checks: elec, Cautions: report.Cautions}
-			for _, f := range faces {
-				out.Faces = append(out.Faces, face{f, float64(f.Modules) * kw})
+			for _, f := range p.faces() {
+				// Rounded as summary.json rounds them.
+				f.PlanAreaM2, f.SlopedAreaM2 = report.Round(f.PlanAreaM2, 2), report.Round(f.SlopedAreaM2, 2)
+				f.PitchDeg, f.AspectDeg, f.KWp = report.Round(f.PitchDeg, 1), report.Round(f.AspectDeg, 1), report.Round(f.KWp, 3)
+				out.Faces = append(out.Faces, f)
 			}
+			out.KWp = report.Round(out.KWp, 3)
 			if out.Warnings == nil {
 				out.Warnings = []string{}
 			}

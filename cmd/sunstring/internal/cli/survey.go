@@ -145,6 +145,16 @@ Estimates only: local codes and a licensed installer have the final word.`,
 	return c
 }
 
+// faces summarizes each roof face with its modules and their power.
+func (p *project) faces() []report.Face {
+	var out []report.Face
+	for _, f := range geo.Summarize(p.Site, p.Modules) {
+		out = append(out, report.Face{ID: f.ID, PitchDeg: f.PitchDeg, AspectDeg: f.AspectDeg, PlanAreaM2: f.PlanAreaM2,
+			SlopedAreaM2: f.SlopedAreaM2, Modules: f.Modules, KWp: float64(f.Modules) * p.Datasheet.PowerW / 1000})
+	}
+	return out
+}
+
 // moduleConverterEff is the efficiency assumed for module-level DC converters (common
 // practice: 98–99 % for current products' weighted efficiency).
 const moduleConverterEff = 0.985
@@ -212,10 +222,7 @@ func (p *project) summary(m *yield.Model, ws *weather.Series, ls []rankedLayout)
 	s.Warnings = append(s.Warnings, ws.Warnings...)
 	s.Warnings = append(s.Warnings, p.Site.Warnings...)
 	s.Warnings = append(s.Warnings, p.Notes...)
-	for _, f := range geo.Summarize(p.Site, p.Modules) {
-		s.Faces = append(s.Faces, report.Face{ID: f.ID, PitchDeg: f.PitchDeg, AspectDeg: f.AspectDeg, PlanAreaM2: f.PlanAreaM2,
-			SlopedAreaM2: f.SlopedAreaM2, Modules: f.Modules, KWp: float64(f.Modules) * p.Datasheet.PowerW / 1000})
-	}
+	s.Faces = p.faces()
 	stringOf := map[string]string{}
 	if len(ls) > 0 {
 		best := ls[0]
