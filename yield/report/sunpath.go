@@ -166,6 +166,11 @@ func SunPathChart(in *SunPath) *plot.Plot {
 				continue
 			}
 			x := azX(pos.Azimuth.Degrees(), south)
+			// In polar day the path crosses the chart's edge azimuth (north, or south in the
+			// southern hemisphere): start a new line there rather than draw across the chart.
+			if n := len(seg); n > 0 && math.Abs(x-seg[n-1].X) > 180 {
+				flush()
+			}
 			seg = append(seg, plotter.XY{X: x, Y: el})
 			maxEl = math.Max(maxEl, el)
 			if el > best.y {
@@ -188,7 +193,8 @@ func SunPathChart(in *SunPath) *plot.Plot {
 	}
 	var hx plotter.XYs
 	var hl []string
-	for h := 0; h <= 24; h++ {
+	// Hour 24 is hour 0 of the next day: one label, not two on top of each other.
+	for h := 0; h < 24; h++ {
 		ms := hours[h]
 		if len(ms) == 0 {
 			continue
