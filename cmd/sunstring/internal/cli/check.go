@@ -70,8 +70,11 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 			return err
 		}
 		faces := geo.Summarize(p.Site, p.Modules)
-		elec, bad, err := p.checkElectrics()
-		if err != nil {
+		var elec []report.Check
+		var bad error
+		if len(p.Modules) == 0 {
+			bad = p.noModules(p.Cfg.Path(p.Cfg.Map)) // the face table still helps to see why
+		} else if elec, bad, err = p.checkElectrics(); err != nil {
 			return err
 		}
 		kw := p.Datasheet.PowerW / 1000

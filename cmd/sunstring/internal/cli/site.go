@@ -231,6 +231,20 @@ func defaultTemps(latDeg float64) [12]float64 {
 	return t
 }
 
+// noModules says why no module was placed: no roof face at all, or the faces' own notes
+// (too small for the module at this setback, skipped below the minimum count).
+func (p *project) noModules(mapFile string) error {
+	if len(p.Site.Faces) == 0 {
+		return inputError{fmt.Errorf("%s: the map has no roof face (a feature with \"kind\": \"roof\"); there is nothing to place modules on", mapFile)}
+	}
+	why := "check the faces, the setback and the module size"
+	if len(p.Notes) > 0 {
+		why = strings.Join(p.Notes, "; ")
+	}
+	return inputError{fmt.Errorf("%s: no module fits on any roof face (module %.2f × %.2f m, setback %.2f m): %s",
+		mapFile, p.Cfg.Module.LengthM, p.Cfg.Module.WidthM, p.Cfg.Fill.SetbackM, why)}
+}
+
 // zoneWarning flags a time zone whose standard offset is far from the site's longitude (15°
 // an hour): a likely wrong zone, which would shift every hour of a weather file. Zones
 // legitimately stray up to about 2 hours (common practice: western Europe, western China), so

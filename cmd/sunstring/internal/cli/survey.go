@@ -77,7 +77,7 @@ Estimates only: local codes and a licensed installer have the final word.`,
 			return err
 		}
 		if len(p.Modules) == 0 {
-			return inputError{fmt.Errorf("%s: no module fits on any roof face (check the faces, the setback and the module size)", a[0])}
+			return p.noModules(p.Cfg.Path(p.Cfg.Map))
 		}
 		if err := p.prepareLayouts(); err != nil {
 			return err
