@@ -32,7 +32,8 @@ type Equipment struct {
 	ModulePowerW           float64 // at STC
 	ModuleLengthM          float64
 	ModuleWidthM           float64
-	CellsSeries            int
+	CellsSeries            int  // as the datasheet counts them
+	HalfCut                bool // two halves in parallel: CellsSeries/2 in series
 	BypassDiodes           int
 	InverterACW            float64
 	InverterInputs         int
@@ -372,6 +373,14 @@ func (pr *Proposal) electrics(d *pdfDoc) {
 	d.bullets(s.Cautions)
 }
 
+// cellsText describes the module's cells: half-cut modules have two halves in parallel.
+func cellsText(e Equipment) string {
+	if e.HalfCut {
+		return fmt.Sprintf("%d half-cut cells (two halves of %d in series, in parallel)", e.CellsSeries, e.CellsSeries/2)
+	}
+	return fmt.Sprintf("%d cells in series", e.CellsSeries)
+}
+
 func lossPct(a, u float64) string {
 	if u <= 0 {
 		return "–"
@@ -485,8 +494,8 @@ func (pr *Proposal) overview(d *pdfDoc) {
 	rows := [][]string{
 		{"Location", latLon(s.Site.Latitude, s.Site.Longitude) + ", time zone " + s.Site.Timezone},
 		{"Climate", fmt.Sprintf("%s; %s kWh/m² global horizontal irradiation per year", climateText(s.Climate), Thousands(s.Climate.AnnualGHIkWhM2, 0))},
-		{"Modules", fmt.Sprintf("%d × %s W (%s kWp), %s m × %s m, %d cells in series, %d bypass diodes", s.Modules, Thousands(e.ModulePowerW, 0),
-			Thousands(s.DCkWp, 2), Thousands(e.ModuleLengthM, 2), Thousands(e.ModuleWidthM, 2), e.CellsSeries, e.BypassDiodes)},
+		{"Modules", fmt.Sprintf("%d × %s W (%s kWp), %s m × %s m, %s, %d bypass diodes", s.Modules, Thousands(e.ModulePowerW, 0),
+			Thousands(s.DCkWp, 2), Thousands(e.ModuleLengthM, 2), Thousands(e.ModuleWidthM, 2), cellsText(e), e.BypassDiodes)},
 		{"Inverter", fmt.Sprintf("%s W AC, %d MPPT inputs, %s to %s V MPPT window, %s V DC maximum", Thousands(e.InverterACW, 0), e.InverterInputs,
 			Thousands(e.MPPTMinV, 0), Thousands(e.MPPTMaxV, 0), Thousands(e.InverterMaxDCV, 0))},
 	}

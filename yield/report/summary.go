@@ -150,6 +150,7 @@ func Round(x float64, d int) float64 {
 }
 
 func roundAll(s Summary) Summary {
+	s.Site.Latitude, s.Site.Longitude = Round(s.Site.Latitude, 6), Round(s.Site.Longitude, 6) // 0.1 m
 	s.DCkWp = Round(s.DCkWp, 3)
 	s.Climate.AnnualGHIkWhM2 = Round(s.Climate.AnnualGHIkWhM2, 1)
 	s.AnnualACkWh = Round(s.AnnualACkWh, 1)

@@ -23,7 +23,7 @@ file's monthly values turned into an hourly year, or an indicative clear-sky yea
 		Args: args(cobra.ExactArgs(1)),
 	}
 	bind := bindSiteFlags(c.Flags())
-	c.Flags().BoolVar(&asCSV, "csv", false, "print CSV (month,ghi_kwh_m2,dni_kwh_m2,dhi_kwh_m2,air_temp_c)")
+	c.Flags().BoolVar(&asCSV, "csv", false, "print CSV (month,ghi_kwh_m2,dni_kwh_m2,dhi_kwh_m2,air_temp_c,source)")
 	c.RunE = func(c *cobra.Command, a []string) error {
 		p, err := loadProject(a[0], c.Flags(), bind)
 		if err != nil {
@@ -37,10 +37,10 @@ file's monthly values turned into an hourly year, or an indicative clear-sky yea
 		w := c.OutOrStdout()
 		if asCSV {
 			cw := csv.NewWriter(w)
-			cw.Write([]string{"month", "ghi_kwh_m2", "dni_kwh_m2", "dhi_kwh_m2", "air_temp_c"})
+			cw.Write([]string{"month", "ghi_kwh_m2", "dni_kwh_m2", "dhi_kwh_m2", "air_temp_c", "source"})
 			f := func(x float64) string { return strconv.FormatFloat(report.Round(x, 2), 'f', -1, 64) }
 			for i, m := range ms {
-				cw.Write([]string{strconv.Itoa(i + 1), f(m.GHIKWhM2), f(m.DNIKWhM2), f(m.DHIKWhM2), f(m.TempC)})
+				cw.Write([]string{strconv.Itoa(i + 1), f(m.GHIKWhM2), f(m.DNIKWhM2), f(m.DHIKWhM2), f(m.TempC), string(ws.Source)})
 			}
 			cw.Flush()
 			return cw.Error()

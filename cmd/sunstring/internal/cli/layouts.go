@@ -176,6 +176,11 @@ func (p *project) explain(m *yield.Model, ls []rankedLayout, cableWeight float64
 		pct = 100 * diff / other.Result.ACkWh
 	}
 	var b strings.Builder
+	if diff < 0.5 && cableWeight == 0 {
+		// A tie to the kWh: nothing to explain about shade.
+		fmt.Fprintf(&b, "It ties with %q (%.1f kWh a year apart); either wiring serves.", other.Name, diff)
+		return b.String()
+	}
 	fmt.Fprintf(&b, "Why it leads: it yields %.0f kWh a year (%.1f %%) more than %q", diff, pct, other.Name)
 	if cableWeight > 0 {
 		fmt.Fprintf(&b, " after weighing %.1f m against %.1f m of extra cable", best.CableM, other.CableM)

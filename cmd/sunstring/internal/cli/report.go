@@ -196,7 +196,7 @@ func (p *project) equipment() report.Equipment {
 	c := p.Cfg
 	return report.Equipment{
 		ModulePowerW: c.Module.PowerW, ModuleLengthM: c.Module.LengthM, ModuleWidthM: c.Module.WidthM,
-		CellsSeries: int(c.Module.CellsSeries), BypassDiodes: int(c.Module.BypassDiodes),
+		CellsSeries: int(c.Module.CellsSeries), HalfCut: c.Module.HalfCut, BypassDiodes: int(c.Module.BypassDiodes),
 		InverterACW: c.Inverter.ACPowerW, InverterInputs: int(c.Inverter.Inputs), InverterMaxDCV: c.Inverter.MaxDCVoltageV,
 		MPPTMinV: c.Inverter.MPPTMinV, MPPTMaxV: c.Inverter.MPPTMaxV,
 	}

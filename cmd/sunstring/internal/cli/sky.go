@@ -2,6 +2,7 @@ package cli
 
 import (
 	"fmt"
+	"os"
 	"path/filepath"
 	"strings"
 
@@ -43,6 +44,11 @@ The file's extension chooses the format: .png or .svg.`,
 			format = report.SVG
 		default:
 			probs = append(probs, "-o: give a file ending in .png or .svg")
+		}
+		if d := filepath.Dir(out); out != "" {
+			if st, err := os.Stat(d); err != nil || !st.IsDir() {
+				probs = append(probs, fmt.Sprintf("-o %s: the folder %s does not exist", out, d))
+			}
 		}
 		if len(probs) > 0 {
 			return usageError{joinLines(probs)}

@@ -39,11 +39,14 @@ also the angle of incidence on that surface (aspect: the direction its slope fac
 			if err != nil {
 				probs = append(probs, fmt.Sprintf("--time: %q is not an RFC 3339 time with an offset, such as 2026-06-21T12:00:00+02:00", at))
 			}
-			if c.Flags().Changed("tilt") != c.Flags().Changed("aspect") {
-				probs = append(probs, "--tilt and --aspect go together")
+			if c.Flags().Changed("aspect") && !c.Flags().Changed("tilt") {
+				probs = append(probs, "--aspect needs --tilt: the incidence angle is for a tilted surface")
 			}
 			if tilt < 0 || tilt > 180 {
-				probs = append(probs, "--tilt: from 0 to 180 degrees")
+				probs = append(probs, fmt.Sprintf("--tilt %g: from 0 to 180 degrees", tilt))
+			}
+			if aspect < 0 || aspect >= 360 {
+				probs = append(probs, fmt.Sprintf("--aspect %g: from 0 to 360 degrees (clockwise from north)", aspect))
 			}
 			if pressure < 0 || pressure > 1200 {
 				probs = append(probs, "--pressure: from 0 to 1200 mbar (0: from the elevation)")
