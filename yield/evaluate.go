@@ -129,7 +129,7 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	}
 	eta := m.EtaSTC
 	r.NominalDCkWh = poaUn * eta / 1000
-	if count := len(lengthsOf(l)); count > 0 && len(m.In.Modules) > 0 {
+	if count := len(modulesOf(l)); count > 0 && len(m.In.Modules) > 0 {
 		r.RefPOAKWhM2 = poaUn / (float64(count) * m.In.Modules[0].AreaM2()) / 1000
 	}
 	var steps []Loss
@@ -172,8 +172,8 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	return r, nil
 }
 
-// lengthsOf lists the layout's modules.
-func lengthsOf(l electric.Layout) []int {
+// modulesOf lists the layout's modules.
+func modulesOf(l electric.Layout) []int {
 	var out []int
 	for _, in := range l.Inputs {
 		for _, st := range in {
