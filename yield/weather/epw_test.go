@@ -107,18 +107,7 @@ func TestReadEPWBad(t *testing.T) {
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			s, err := ReadEPW(strings.NewReader(c.text), "bad.epw")
-			if err == nil {
-				t.Fatalf("accepted: %d records", len(s.Records))
-			}
-			var ie *InputError
-			if !errors.As(err, &ie) || !ie.BadInput() {
-				t.Fatalf("error %v is not a bad-input error", err)
-			}
-			for _, w := range c.want {
-				if !strings.Contains(err.Error(), w) {
-					t.Errorf("error\n%s\nlacks\n%s", err, w)
-				}
-			}
+			wantBadInput(t, s, err, c.want)
 		})
 	}
 }
@@ -207,5 +196,23 @@ func TestInputErrorCap(t *testing.T) {
 	}
 	if !strings.HasSuffix(err.Error(), "many.epw: and 10 more problems") {
 		t.Errorf("error does not end with the count of the rest:\n%s", err)
+	}
+}
+
+// wantBadInput asserts that a reader refused its input with an *InputError marked as bad
+// input whose message holds every fragment of want (line, field, rule).
+func wantBadInput(t *testing.T, s *Series, err error, want []string) {
+	t.Helper()
+	if err == nil {
+		t.Fatalf("accepted: %d records", len(s.Records))
+	}
+	var ie *InputError
+	if !errors.As(err, &ie) || !ie.BadInput() {
+		t.Fatalf("error %v is not a bad-input error", err)
+	}
+	for _, w := range want {
+		if !strings.Contains(err.Error(), w) {
+			t.Errorf("error\n%s\nlacks\n%s", err, w)
+		}
 	}
 }
