@@ -11,47 +11,6 @@ import (
 	"sunstring/yield/report"
 )
 
-// checkElectrics gives the string-length window of the module and inverter and the checks of
-// every fixed layout; bad is an input error when a fixed layout breaks a limit.
-func (p *project) checkElectrics() (checks []report.Check, bad error, err error) {
-	cfg := p.Cfg
-	if err := p.prepareLayouts(); err != nil {
-		return nil, nil, err
-	}
-	b := p.bounds
-	checks = append(checks, report.Check{Severity: "info", Subject: "strings", Unit: "modules", Value: float64(b.MaxSeries), Limit: float64(b.MinSeries),
-		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %g °C cell); at most %d string(s) per input",
-			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), b.MaxParallel)})
-	// The roof-order layout's strings, which a survey always reports.
-	seq, _, err := p.roofOrder()
-	if err != nil {
-		return nil, nil, err
-	}
-	connected := 0
-	for _, ls := range lengths(seq) {
-		for _, n := range ls {
-			connected += n
-		}
-	}
-	if connected < len(p.Modules) {
-		checks = append(checks, report.Check{Severity: "warning", Subject: "inverter", Unit: "modules", Value: float64(len(p.Modules)), Limit: float64(connected),
-			Message: fmt.Sprintf("the inverter takes at most %d of the %d placed modules (%d input(s) × %d string(s) × %d modules); the rest stay unconnected unless the inverter changes",
-				connected, len(p.Modules), p.Inverter.Inputs, b.MaxParallel, b.MaxSeries)})
-	}
-	checks = append(checks, p.electricalChecks(roofOrderName, lengths(seq))...)
-	for i, fl := range cfg.Layouts.Fixed {
-		cs := p.electricalChecks(fl.Name, lengths(p.fixed[i]))
-		for _, c := range cs {
-			if c.Severity == "error" && bad == nil {
-				bad = inputError{fmt.Errorf("%s: layouts.fixed[%d] (%q): %s", cfg.File, i, fl.Name, c.Message)}
-			}
-		}
-		checks = append(checks, cs...)
-	}
-	checks = append(checks, p.leakageChecks(connected)...)
-	return checks, bad, nil
-}
-
 func newCheckCmd() *cobra.Command {
 	var asJSON bool
 	c := &cobra.Command{
@@ -73,8 +32,8 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 		var elec []report.Check
 		var bad error
 		if len(p.Modules) == 0 {
-			bad = p.noModules(p.Cfg.Path(p.Cfg.Map)) // the face table still helps to see why
-		} else if elec, bad, err = p.checkElectrics(); err != nil {
+			bad = p.NoModules() // the face table still helps to see why
+		} else if elec, bad, err = p.Checks(); err != nil {
 			return err
 		}
 		kw := p.Datasheet.PowerW / 1000
@@ -91,7 +50,7 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 				Cautions []string       `json:"cautions"`
 			}{Name: p.Cfg.Name, Modules: len(p.Modules), KWp: float64(len(p.Modules)) * kw, Warnings: warnings,
 				Checks: elec, Cautions: report.Cautions}
-			for _, f := range p.faces() {
+			for _, f := range p.Faces() {
 				// Rounded as summary.json rounds them.
 				f.PlanAreaM2, f.SlopedAreaM2 = report.Round(f.PlanAreaM2, 2), report.Round(f.SlopedAreaM2, 2)
 				f.PitchDeg, f.AspectDeg, f.KWp = report.Round(f.PitchDeg, 1), report.Round(f.AspectDeg, 1), report.Round(f.KWp, 3)

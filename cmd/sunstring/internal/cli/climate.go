@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"sunstring/yield/report"
+	"sunstring/yield/survey"
 )
 
 func newClimateCmd() *cobra.Command {
@@ -29,7 +30,7 @@ file's monthly values turned into an hourly year, or an indicative clear-sky yea
 		if err != nil {
 			return err
 		}
-		ws, err := p.loadWeather()
+		ws, err := p.Weather()
 		if err != nil {
 			return err
 		}
@@ -47,7 +48,7 @@ file's monthly values turned into an hourly year, or an indicative clear-sky yea
 		}
 		fmt.Fprintf(w, "climate source: %s\n", ws.Source)
 		if ws.Source == "indicative" {
-			fmt.Fprintln(w, IndicativeWarning)
+			fmt.Fprintln(w, survey.IndicativeWarning)
 		}
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 		fmt.Fprintln(tw, "month\tGHI kWh/m²\tDNI kWh/m²\tDHI kWh/m²\tair °C\t")

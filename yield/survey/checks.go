@@ -1,9 +1,8 @@
-package cli
+package survey
 
 import (
 	"fmt"
 	"strings"
-
 	"sunstring/yield/electric"
 	"sunstring/yield/layout"
 	"sunstring/yield/report"
@@ -11,12 +10,12 @@ import (
 
 // hotCellC is the hottest expected cell temperature: the hottest air plus the rise of a
 // roof-mounted module in full sun.
-func (p *project) hotCellC() float64 { return p.Cfg.Climate.HighTempC + layout.HotCellRiseK }
+func (p *Project) hotCellC() float64 { return p.Cfg.Climate.HighTempC + layout.HotCellRiseK }
 
 // electricalChecks gives, for a layout's string lengths per inverter input, the numbers a
 // surveyor must see (open-circuit voltage at the coldest, MPP voltage at the hottest, input
 // current) and every limit broken, each in volts or amperes.
-func (p *project) electricalChecks(name string, lens [][]int) []report.Check {
+func (p *Project) electricalChecks(name string, lens [][]int) []report.Check {
 	ds, inv := p.Datasheet, p.Inverter
 	low, hot := p.Cfg.Climate.LowTempC, p.hotCellC()
 	var out []report.Check
@@ -51,7 +50,7 @@ func (p *project) electricalChecks(name string, lens [][]int) []report.Check {
 
 // leakageChecks is the capacitive leakage estimate for a transformerless inverter, over the
 // connected modules.
-func (p *project) leakageChecks(connected int) []report.Check {
+func (p *Project) leakageChecks(connected int) []report.Check {
 	var out []report.Check
 	inv := p.Inverter
 	if p.Cfg.Inverter.Transformerless && len(p.Modules) > 0 && connected > 0 {

@@ -1,4 +1,4 @@
-package cli
+package survey
 
 import (
 	"context"
@@ -6,7 +6,6 @@ import (
 	"slices"
 	"sort"
 	"strings"
-
 	"sunstring/yield"
 	"sunstring/yield/electric"
 	"sunstring/yield/layout"
@@ -16,7 +15,7 @@ import (
 // is on) the searched ones on the same footing, and returns them best first by annual AC
 // energy less the weighed extra cable: at most layouts.keep of them plus every fixed layout.
 // The best one's note explains what makes it better.
-func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, error) {
+func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, error) {
 	cfg := p.Cfg
 	if err := p.prepareLayouts(); err != nil {
 		return nil, err
@@ -35,14 +34,14 @@ func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, 
 		reach = max(reach, 1.05*max(mod.LengthM, mod.WidthM))
 	}
 	weightWh := cfg.Layouts.CableWeight * 1000
-	var out []rankedLayout
+	var out []RankedLayout
 	seen := map[string]bool{}
 	eval := func(name string, l electric.Layout, note string) error {
 		r, err := m.Evaluate(l, electric.EvalOptions{})
 		if err != nil {
 			return fmt.Errorf("layout %q: %w", name, err)
 		}
-		rl := rankedLayout{Name: name, Result: r, Note: note, CableM: layout.ExtraCableM(l, pos, reach)}
+		rl := RankedLayout{Name: name, Result: r, Note: note, CableM: layout.ExtraCableM(l, pos, reach)}
 		for in, strs := range l.Inputs {
 			for _, s := range strs {
 				s = layout.Chain(s, pos)
@@ -103,9 +102,9 @@ func (p *project) layouts(ctx context.Context, m *yield.Model) ([]rankedLayout, 
 			}
 		}
 	}
-	score := func(l rankedLayout) float64 { return l.Result.ACkWh - cfg.Layouts.CableWeight*l.CableM }
+	score := func(l RankedLayout) float64 { return l.Result.ACkWh - cfg.Layouts.CableWeight*l.CableM }
 	sort.SliceStable(out, func(i, j int) bool { return score(out[i]) > score(out[j]) })
-	var kept []rankedLayout
+	var kept []RankedLayout
 	for i, l := range out {
 		if i < keep || l.Note == userNote {
 			kept = append(kept, l)
@@ -144,7 +143,7 @@ func layoutKey(l electric.Layout) string {
 // explain says in a sentence or three what makes the best layout better than the next one
 // and than the roof order: which modules carry most of the shade, and how the best layout's
 // strings hold them compared with the other layout's.
-func (p *project) explain(m *yield.Model, ls []rankedLayout, cableWeight float64) string {
+func (p *Project) explain(m *yield.Model, ls []RankedLayout, cableWeight float64) string {
 	best := ls[0]
 	other := ls[1]
 	for _, l := range ls[1:] {
@@ -202,7 +201,7 @@ func (p *project) explain(m *yield.Model, ls []rankedLayout, cableWeight float64
 
 // holders says which strings of a layout hold the given modules, e.g. "the best layout
 // puts them in 1 string (input 2) of 6 modules".
-func holders(who string, l rankedLayout, ids []string) string {
+func holders(who string, l RankedLayout, ids []string) string {
 	want := map[string]bool{}
 	for _, id := range ids {
 		want[id] = true
@@ -230,7 +229,7 @@ func holders(who string, l rankedLayout, ids []string) string {
 // roofOrder is the plain layout: modules wired in roof order (face, row, column), strings that
 // stay on one face when the bounds allow it, else straight through the roof order. note says
 // which, and how many modules the inverter cannot take.
-func (p *project) roofOrder() (electric.Layout, string, error) {
+func (p *Project) roofOrder() (electric.Layout, string, error) {
 	if err := p.prepareLayouts(); err != nil {
 		return electric.Layout{}, "", err
 	}
@@ -251,7 +250,7 @@ func (p *project) roofOrder() (electric.Layout, string, error) {
 	}
 	seq, left, err := layout.Sequential(order, p.Inverter.Inputs, p.bounds)
 	if err != nil {
-		return seq, "", inputError{fmt.Errorf("%s: %w", p.Cfg.File, err)}
+		return seq, "", badInput{fmt.Errorf("%s: %w", p.Cfg.File, err)}
 	}
 	note := "modules wired in roof order (face, row, column)"
 	if len(faceNo) > 1 {
@@ -266,7 +265,7 @@ func (p *project) roofOrder() (electric.Layout, string, error) {
 // prepareLayouts finds the string bounds of the module and inverter and checks the user's fixed
 // layouts against them, before any long computation: a fixed layout that breaks a limit is an
 // input error, never silently used.
-func (p *project) prepareLayouts() error {
+func (p *Project) prepareLayouts() error {
 	if p.fixed != nil || p.boundsOK {
 		return nil
 	}
@@ -275,7 +274,7 @@ func (p *project) prepareLayouts() error {
 		LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
 	})
 	if err != nil {
-		return inputError{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
+		return badInput{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}
 	}
 	// Some layout must take the modules (all of them, unless modules may be left out or the
 	// inverter cannot take them all), or the long run would end in nothing to report.
@@ -286,7 +285,7 @@ func (p *project) prepareLayouts() error {
 		minMods = min(n, capacity) - n/4
 	}
 	if n > 0 && len(layout.Shapes(n, minMods, p.Inverter.Inputs, b)) == 0 {
-		return inputError{fmt.Errorf("%s: no string layout takes the %d modules: strings of %d to %d modules (from inverter.max_dc_voltage_v, inverter.mppt_min_v and inverter.mppt_max_v at climate.low_temp_c and climate.high_temp_c), at most %d in parallel (inverter.max_input_current_a), %d input(s) (inverter.inputs); change the inverter, or allow layouts.leave_out",
+		return badInput{fmt.Errorf("%s: no string layout takes the %d modules: strings of %d to %d modules (from inverter.max_dc_voltage_v, inverter.mppt_min_v and inverter.mppt_max_v at climate.low_temp_c and climate.high_temp_c), at most %d in parallel (inverter.max_input_current_a), %d input(s) (inverter.inputs); change the inverter, or allow layouts.leave_out",
 			cfg.File, n, b.MinSeries, b.MaxSeries, b.MaxParallel, p.Inverter.Inputs)}
 	}
 	index := make(map[string]int, len(p.Modules))
@@ -304,7 +303,7 @@ func (p *project) prepareLayouts() error {
 		fixed = append(fixed, l)
 	}
 	if len(probs) > 0 {
-		return inputError{fmt.Errorf("%s", strings.Join(probs, "\n"))}
+		return badInput{fmt.Errorf("%s", strings.Join(probs, "\n"))}
 	}
 	p.bounds, p.fixed, p.boundsOK = b, fixed, true
 	return nil
@@ -358,7 +357,7 @@ func fixedLayout(file string, li int, name string, strs [][]string, inputs []flo
 		}
 	}
 	if len(probs) > 0 {
-		return l, inputError{fmt.Errorf("%s", strings.Join(probs, "\n"))}
+		return l, badInput{fmt.Errorf("%s", strings.Join(probs, "\n"))}
 	}
 	return l, nil
 }

@@ -1,39 +1,31 @@
-package cli
+package survey
 
 import (
 	"bytes"
 	"encoding/json"
 	"fmt"
 	"math"
-	"strings"
-
-	"github.com/paulmach/orb"
-
 	"sunstring/geo"
 	"sunstring/shading"
 	"sunstring/yield"
 	"sunstring/yield/report"
+
+	"github.com/paulmach/orb"
 )
 
-// reportOptions are the survey flags that shape the report files.
-type reportOptions struct {
-	SVG    bool   // also write the charts as SVG
-	Paper  string // proposal paper: a4 or letter
-	Hourly bool   // also write hourly.csv
+// RenderOptions shape the report files. The zero value gives A4 and PNG charts only.
+type RenderOptions struct {
+	SVG    bool   // also the charts as SVG
+	Paper  string // proposal paper: "a4" (default) or "letter"
+	Hourly bool   // also hourly.csv
 }
 
-// checkPaper rejects a paper size the proposal cannot use, before the long simulation runs.
-func checkPaper(paper string) error {
-	switch strings.ToLower(paper) {
-	case "", "a4", "letter":
-		return nil
-	}
-	return usageError{fmt.Errorf("--paper %q: use a4 or letter", paper)}
-}
-
-// outputs renders every file of the report.
-func (p *project) outputs(m *yield.Model, s *report.Summary, ls []rankedLayout, opt reportOptions) (outputSet, error) {
-	files := outputSet{}
+// Render makes every file of the report, by name (summary.json, modules.geojson,
+// proposal.pdf, the charts and, on request, hourly.csv). It writes nothing: the front end
+// decides where the files go.
+func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
+	p, m, s, ls := r.Project, r.Model, r.Summary, r.Layouts
+	files := map[string][]byte{}
 	js, err := s.JSON()
 	if err != nil {
 		return nil, err
@@ -122,7 +114,7 @@ func roundedSummary(js []byte) (*report.Summary, error) {
 }
 
 // plan is the roof from above with the best layout's strings.
-func (p *project) plan(s *report.Summary, ls []rankedLayout) *report.Plan {
+func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 	pl := &report.Plan{}
 	for _, f := range p.Site.Faces {
 		pl.Faces = append(pl.Faces, report.Shape{ID: f.ID, Ring: ringOf(f.Plan)})
@@ -165,7 +157,7 @@ func (p *project) plan(s *report.Summary, ls []rankedLayout) *report.Plan {
 }
 
 // sunPath is the sun-path chart's input, seen from the module that loses most to shade.
-func (p *project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, error) {
+func (p *Project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, error) {
 	worst := -1
 	for i, r := range s.ModuleResults {
 		if worst < 0 || r.ShadeLossPct > s.ModuleResults[worst].ShadeLossPct {
@@ -192,7 +184,7 @@ func (p *project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, e
 }
 
 // equipment is the module and inverter for the proposal's system table.
-func (p *project) equipment() report.Equipment {
+func (p *Project) equipment() report.Equipment {
 	c := p.Cfg
 	return report.Equipment{
 		ModulePowerW: c.Module.PowerW, ModuleLengthM: c.Module.LengthM, ModuleWidthM: c.Module.WidthM,
@@ -205,7 +197,7 @@ func (p *project) equipment() report.Equipment {
 // hourlyRows takes, for each weather record, the weather itself, the mean sunlit share of the
 // modules (Model.Shade) and the best layout's AC energy per sun-up step
 // (electric.YearResult.StepACWh, mapped to records by Model.StepRecord) as mean power.
-func hourlyRows(m *yield.Model, best rankedLayout) []report.HourlyRow {
+func hourlyRows(m *yield.Model, best RankedLayout) []report.HourlyRow {
 	hours := 1.0
 	if m.In.Weather != nil && m.In.Weather.Interval > 0 {
 		hours = m.In.Weather.Interval.Hours()

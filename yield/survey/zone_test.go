@@ -1,11 +1,9 @@
-package cli
+package survey
 
 import (
 	"strings"
 	"testing"
 	"time"
-
-	"sunstring/cmd/sunstring/internal/config"
 )
 
 func TestZoneWarning(t *testing.T) {
@@ -27,7 +25,7 @@ func TestZoneWarning(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		got := zoneWarning(&config.Site{Timezone: c.zone, Zone: z}, c.lon)
+		got := zoneWarning(&Config{Timezone: c.zone, Zone: z}, c.lon)
 		want := c.warn
 		if (got != "") != want || (got != "" && !strings.Contains(got, c.zone)) {
 			t.Errorf("%s at %.1f°: warning %q, want one: %v", c.zone, c.lon, got, want)

@@ -1,0 +1,119 @@
+package survey
+
+import (
+	"bytes"
+	"fmt"
+	"math"
+	"path/filepath"
+	"strings"
+	"sunstring/yield/weather"
+	"time"
+)
+
+// Weather returns the weather year the site file asks for, and what it is: a weather file, a
+// synthetic year from monthly values, or an indicative clear-sky year.
+func (p *Project) Weather() (*weather.Series, error) {
+	cfg := p.Cfg
+	ws := weather.Site{LatDeg: p.LatDeg, LonDeg: p.LonDeg, ElevationM: p.Observer.ElevationM, Zone: cfg.Zone}
+	var temps *[12]float64
+	if len(cfg.Climate.MonthlyT) == 12 {
+		var t [12]float64
+		copy(t[:], cfg.Climate.MonthlyT)
+		temps = &t
+	}
+	switch {
+	case cfg.Climate.File != "":
+		wp := cfg.Path(cfg.Climate.File)
+		b, err := p.read(wp, "weather file")
+		if err != nil {
+			return nil, err
+		}
+		var s *weather.Series
+		switch strings.ToLower(filepath.Ext(wp)) {
+		case ".epw":
+			s, err = weather.ReadEPW(bytes.NewReader(b), wp)
+		case ".csv":
+			s, err = weather.ReadCSVAt(bytes.NewReader(b), wp, ws)
+		default:
+			return nil, badInput{fmt.Errorf("%s: climate.file: the weather file must end in .epw or .csv", cfg.File)}
+		}
+		if err != nil {
+			return nil, err
+		}
+		// Annual figures need one whole year: a partial year would understate them and
+		// several years would add up to more than one.
+		if n := len(s.Records); s.Interval != time.Hour || n < 8760 || n > 8784 {
+			return nil, badInput{fmt.Errorf("%s: %d records of %v; a survey needs one whole year of hourly records (8760, or 8784 in a leap year)", wp, n, s.Interval)}
+		}
+		s.Warnings = append(s.Warnings, s.CheckSite(ws)...)
+		return s, nil
+	case len(cfg.Climate.MonthlyGHI) == 12:
+		var g, t [12]float64
+		copy(g[:], cfg.Climate.MonthlyGHI)
+		var note string
+		if temps != nil {
+			t = *temps
+		} else {
+			t = defaultTemps(p.LatDeg)
+			note = "climate.monthly_temp_c is not given: a plain seasonal cycle of 12 °C ± 9 K is assumed; give the site's monthly mean temperatures, since cell temperature moves the yield by several percent"
+		}
+		s, err := weather.FromMonthly(ws, g, t)
+		if err == nil && note != "" {
+			s.Warnings = append(s.Warnings, note)
+		}
+		return s, err
+	default:
+		return weather.ClearSky(ws, temps), nil
+	}
+}
+
+// defaultTemps is a plain seasonal cycle for when monthly GHI is given without temperatures:
+// 12 °C mean with a ±9 K swing peaking in the local summer (common practice for a
+// temperate site; it moves the yield by about 1 %).
+func defaultTemps(latDeg float64) [12]float64 {
+	var t [12]float64
+	peak := 6.5 // mid-July in the north
+	if latDeg < 0 {
+		peak = 0.5
+	}
+	for i := range t {
+		t[i] = 12 + 9*math.Cos(2*math.Pi*(float64(i)+0.5-peak)/12)
+	}
+	return t
+}
+
+// NoModules says why no module was placed: no roof face at all, or the faces' own notes
+// (too small for the module at this setback, skipped below the minimum count).
+func (p *Project) NoModules() error {
+	mapFile := p.Cfg.Path(p.Cfg.Map)
+	if len(p.Site.Faces) == 0 {
+		return badInput{fmt.Errorf("%s: the map has no roof face (a feature with \"kind\": \"roof\"); there is nothing to place modules on", mapFile)}
+	}
+	why := "check the faces, the setback and the module size"
+	if len(p.Notes) > 0 {
+		why = strings.Join(p.Notes, "; ")
+	}
+	return badInput{fmt.Errorf("%s: no module fits on any roof face (module %.2f × %.2f m, setback %.2f m): %s",
+		mapFile, p.Cfg.Module.LengthM, p.Cfg.Module.WidthM, p.Cfg.Fill.SetbackM, why)}
+}
+
+// zoneWarning flags a time zone whose standard offset is far from the site's longitude (15°
+// an hour): a likely wrong zone, which would shift every hour of a weather file. Zones
+// legitimately stray up to about 2 hours (common practice: western Europe, western China), so
+// only more than that is flagged.
+func zoneWarning(cfg *Config, lonDeg float64) string {
+	if cfg.Zone == nil {
+		return ""
+	}
+	_, jan := time.Date(weather.TypicalYear, 1, 15, 12, 0, 0, 0, cfg.Zone).Zone()
+	_, jul := time.Date(weather.TypicalYear, 7, 15, 12, 0, 0, 0, cfg.Zone).Zone()
+	std := float64(min(jan, jul)) / 3600
+	d := math.Mod(lonDeg/15-std+36, 24) - 12 // hours, wrapped to (−12, 12]
+	if math.Abs(d) > 2.5 {
+		return fmt.Sprintf("timezone %s (UTC%+.1f h standard) is %.1f hours from the site's longitude %.2f°; check the zone: a wrong one shifts every hour of a weather file", cfg.Timezone, std, d, lonDeg)
+	}
+	return ""
+}
+
+// IndicativeWarning is printed wherever an indicative clear-sky year stands in for a climate.
+const IndicativeWarning = "INDICATIVE ONLY: no climate data was given, so this estimate uses a clear-sky year without clouds; real yields are lower. Add climate.file or monthly values to the site file."

@@ -1,0 +1,146 @@
+package survey
+
+import (
+	"fmt"
+	"sunstring/geo"
+	"sunstring/yield"
+	"sunstring/yield/electric"
+	"sunstring/yield/report"
+	"sunstring/yield/weather"
+)
+
+// Faces summarizes each roof face with its modules and their power.
+func (p *Project) Faces() []report.Face {
+	var out []report.Face
+	for _, f := range geo.Summarize(p.Site, p.Modules) {
+		out = append(out, report.Face{ID: f.ID, PitchDeg: f.PitchDeg, AspectDeg: f.AspectDeg, PlanAreaM2: f.PlanAreaM2,
+			SlopedAreaM2: f.SlopedAreaM2, Modules: f.Modules, KWp: float64(f.Modules) * p.Datasheet.PowerW / 1000})
+	}
+	return out
+}
+
+// moduleConverterEff is the efficiency assumed for module-level DC converters (common
+// practice: 98–99 % for current products' weighted efficiency).
+const moduleConverterEff = 0.985
+
+// alternatives runs the best layout with a plain hill-climbing tracker (which can stop on a
+// local maximum of a shaded string's P-V curve) and with a converter on every module, so the
+// surveyor sees what the tracker choice and module-level electronics are worth here.
+func alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alternative, error) {
+	if len(ls) == 0 {
+		return nil, nil
+	}
+	best := ls[0].Result
+	var out []report.Alternative
+	for _, a := range []struct {
+		name, note string
+		opt        electric.EvalOptions
+	}{
+		{"hill-climbing tracker", "the same strings with a tracker that climbs from its last operating point and can stop on a local maximum when shade splits the P-V curve; the estimate assumes a tracker that finds the global maximum",
+			electric.EvalOptions{Tracker: electric.LocalClimb}},
+		{"module-level converters", fmt.Sprintf("a DC converter on every module holding it at its own maximum power point (%.1f %% conversion efficiency assumed), the inverter's AC stage unchanged", 100*moduleConverterEff),
+			electric.EvalOptions{ModuleLevel: true, ModuleLevelEff: moduleConverterEff}},
+	} {
+		r, err := m.Evaluate(best.Layout, a.opt)
+		if err != nil {
+			return nil, fmt.Errorf("alternative %q: %w", a.name, err)
+		}
+		out = append(out, report.Alternative{Name: a.name, AnnualACkWh: r.ACkWh, DifferenceKWh: r.ACkWh - best.ACkWh, Note: a.note})
+	}
+	return out, nil
+}
+
+// RankedLayout is one evaluated layout with its module ids: Strings[i] is wired to the
+// inverter input Inputs[i] (1-based).
+type RankedLayout struct {
+	Name    string
+	Strings [][]string
+	Inputs  []int
+	Result  yield.LayoutResult
+	CableM  float64
+	Note    string
+}
+
+// summary builds summary.json from the model and the ranked layouts (best first).
+func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout) *report.Summary {
+	kwp := float64(len(p.Modules)) * p.Datasheet.PowerW / 1000
+	s := &report.Summary{
+		Site:    report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
+		Modules: len(p.Modules),
+		DCkWp:   kwp,
+		Climate: report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
+		Models: []string{
+			"sun: Reda & Andreas (2004) SPA, NREL/TP-560-34302",
+			"sky: " + p.Cfg.Model.Sky + " transposition (Perez et al. 1990 by default)",
+			"incidence-angle modifier: " + p.Cfg.Model.IAM,
+			"cell temperature: Faiman (2008)",
+			"module: single-diode model, De Soto et al. (2006), per cell with bypass diodes",
+		},
+		Cautions: report.Cautions,
+	}
+	for _, mo := range ws.Monthly() {
+		s.Climate.AnnualGHIkWhM2 += mo.GHIKWhM2
+	}
+	if ws.Source == weather.Source("indicative") {
+		s.Warnings = append(s.Warnings, IndicativeWarning)
+	}
+	s.Warnings = append(s.Warnings, ws.Warnings...)
+	s.Warnings = append(s.Warnings, p.Site.Warnings...)
+	s.Warnings = append(s.Warnings, p.Notes...)
+	s.Faces = p.Faces()
+	stringOf := map[string]string{}
+	if len(ls) > 0 {
+		best := ls[0]
+		r := best.Result
+		// The figures are the connected modules': a layout may leave some out.
+		connected := 0
+		for _, st := range best.Strings {
+			connected += len(st)
+		}
+		if connected < len(p.Modules) {
+			s.Warnings = append(s.Warnings, fmt.Sprintf("the best layout leaves %d of the %d placed modules unconnected; the figures are for the %d connected ones",
+				len(p.Modules)-connected, len(p.Modules), connected))
+			s.Modules = connected
+			kwp = float64(connected) * p.Datasheet.PowerW / 1000
+			s.DCkWp = kwp
+		}
+		s.AnnualACkWh = r.ACkWh
+		s.SpecificYield = r.ACkWh / kwp
+		if r.RefPOAKWhM2 > 0 {
+			// IEC 61724-1: final yield over reference yield (in-plane irradiation / 1 kW/m²),
+			// both over the connected modules.
+			s.PerformanceRatio = s.SpecificYield / r.RefPOAKWhM2
+		}
+		s.MonthlyACkWh = r.MonthlyACkWh
+		s.MonthlyUnshaded = r.MonthlyUnshadedACkWh
+		s.LossesStartKWh = r.NominalDCkWh
+		for _, l := range r.Losses {
+			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
+		}
+		s.Checks = append(p.electricalChecks(best.Name, lengths(best.Result.Layout)), p.leakageChecks(connected)...)
+		// "<input>.<string on that input>", both counted from 1.
+		nth := map[int]int{}
+		for i, st := range best.Strings {
+			nth[best.Inputs[i]]++
+			for _, id := range st {
+				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], nth[best.Inputs[i]])
+			}
+		}
+		for _, l := range ls {
+			s.Layouts = append(s.Layouts, report.Layout{
+				Name: l.Name, AnnualACkWh: l.Result.ACkWh, ShadeLossPct: l.Result.ShadeLossPct,
+				BehindBestKWh: best.Result.ACkWh - l.Result.ACkWh, CableM: l.CableM,
+				Strings: l.Strings, Inputs: l.Inputs, Note: l.Note,
+			})
+		}
+	}
+	for i, mod := range p.Modules {
+		st := m.Stats[i]
+		s.ModuleResults = append(s.ModuleResults, report.ModuleResult{
+			ID: mod.ID, Face: mod.Face, AnnualPOAkWhM2: st.POAKWhM2, ShadeLossPct: st.ShadeLossPct,
+			BeamShadeLossPct: st.BeamShadeLossPct, SolarAccessPct: 100 - st.ShadeLossPct, SkyViewPct: 100 * st.SkyView,
+			String: stringOf[mod.ID],
+		})
+	}
+	return s
+}
