@@ -58,6 +58,12 @@ type EvalOptions struct {
 	// zero means 1. It is applied before the inverter's efficiency and limits,
 	// so that clipping acts on what arrives.
 	DCKeep float64
+	// ConvertersOn lists modules that are not in the layout's strings but
+	// have a converter of their own (efficiency ModuleLevelEff) feeding the
+	// inverter at their own maximum power, as module-level converters on an
+	// input of their own or microinverters do. With ModuleLevel it is
+	// ignored: every module of the layout has one.
+	ConvertersOn []int
 }
 
 // YearResult sums a layout's energy over all steps. DC energies are at the
@@ -439,8 +445,18 @@ type evalScratch struct {
 type curveCount struct{ c, n int32 }
 
 // Evaluate returns the year's energy for a layout on an inverter. The
-// inverter and the layout are checked first (CheckLayout).
+// inverter and the layout are checked first (CheckLayout). The result does
+// not depend on the order of inputs, of strings on an input or of modules in
+// a string.
 func (y *Year) Evaluate(l Layout, inv Inverter, opt EvalOptions) (YearResult, error) {
+	return y.EvaluateCached(l, inv, opt, nil)
+}
+
+// EvaluateCached is Evaluate with a cache of each input's share of the year
+// (see EvalCache): an input already seen in an earlier layout, with the same
+// strings, inverter and options, is not computed again. The result is the
+// same as Evaluate's to the bit. A nil cache computes everything.
+func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) (YearResult, error) {
 	if err := inv.Validate(); err != nil {
 		return YearResult{}, err
 	}
@@ -451,8 +467,11 @@ func (y *Year) Evaluate(l Layout, inv Inverter, opt EvalOptions) (YearResult, er
 	if eff == 0 {
 		eff = 0.985
 	}
-	if opt.ModuleLevel && !(eff > 0 && eff <= 1) {
+	if (opt.ModuleLevel || len(opt.ConvertersOn) > 0) && !(eff > 0 && eff <= 1) {
 		return YearResult{}, badf("module_level_eff", "%g must lie in (0, 1]", opt.ModuleLevelEff)
+	}
+	if err := y.checkConverters(l, opt.ConvertersOn); err != nil {
+		return YearResult{}, err
 	}
 	keep := opt.DCKeep
 	if keep == 0 {
@@ -461,71 +480,35 @@ func (y *Year) Evaluate(l Layout, inv Inverter, opt EvalOptions) (YearResult, er
 	if !(keep > 0 && keep <= 1) {
 		return YearResult{}, badf("dc_keep", "%g must lie in (0, 1]", opt.DCKeep)
 	}
+	opt.ModuleLevelEff = eff
+	parts := y.parts(l, inv, opt, c)
 	res := YearResult{StepACWh: make([]float64, y.steps)}
-	var sc evalScratch
-	sc.gi = make([]float64, curvePoints)
-	sc.gs = make([]float64, curvePoints)
-	prevV := make([]float64, len(l.Inputs))
-	for k := range prevV {
-		prevV[k] = math.NaN()
-	}
-	var mods []int
-	for _, in := range l.Inputs {
-		for _, str := range in {
-			mods = append(mods, str...)
-		}
+	for _, pt := range parts {
+		res.GlobalDCWh += pt.globalWh
+		res.WindowLossWh += pt.windowWh
+		res.CurrentLimitLossWh += pt.currentWh
+		res.TrackerLossWh += pt.trackerWh
 	}
 	night := inv.nightW()
 	sumHours := 0.0
-	vmin, vmax, imax := inv.MPPTMinV, inv.MPPTMaxV, inv.MaxInputCurrentA
 	for s := range y.steps {
 		h := float64(y.hours[s])
 		sumHours += h
-		row := s * y.n
-		var unDC float64
-		for _, k := range mods {
-			unDC += float64(y.unshadedW[row+k])
-		}
-		var dc, dcV float64
-		if opt.ModuleLevel {
-			for _, k := range mods {
-				dc += float64(y.curveMPP[y.modCurve[row+k]]) * eff
+		var dc, dcV, dcWithV, unDC float64
+		for _, pt := range parts {
+			dc += pt.p[s]
+			unDC += pt.un[s]
+			if pt.volts {
+				dcV += pt.pv[s]
+				dcWithV += pt.p[s]
 			}
-			res.GlobalDCWh += dc * h
+		}
+		// The inverter's efficiency follows the power-weighted voltage of the
+		// inputs that have one (module-level converters set their own).
+		if dcWithV > 0 && dcV > 0 {
+			dcV /= dcWithV
 		} else {
-			for k := range sc.gi {
-				sc.gi[k] = y.gridI0[s] + float64(k)*y.gridH[s]
-			}
-			for a, in := range l.Inputs {
-				is, vs := y.inputCurve(&sc, row, in)
-				pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
-				pW, pC, vC := pG, pG, vG
-				// Usually the global maximum is inside the window and the
-				// current limit: then the constrained searches are not needed.
-				if vG < vmin || vG > vmax {
-					pW, _, _ = polyMax(is, vs, vmin, vmax, math.Inf(1))
-					pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
-				} else if iG > imax {
-					pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
-				}
-				p, v := pC, vC
-				if opt.Tracker == LocalClimb {
-					p, v = climb(is, vs, prevV[a], vmin, vmax, imax)
-					prevV[a] = v
-					if p <= 0 {
-						prevV[a] = math.NaN()
-					}
-				}
-				res.GlobalDCWh += pG * h
-				res.WindowLossWh += (pG - pW) * h
-				res.CurrentLimitLossWh += (pW - pC) * h
-				res.TrackerLossWh += (pC - p) * h
-				dc += p
-				dcV += p * v
-			}
-		}
-		if dc > 0 && dcV > 0 {
-			dcV /= dc
+			dcV = 0
 		}
 		res.DCWh += dc * h
 		dc *= keep
