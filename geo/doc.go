@@ -31,7 +31,7 @@
 //	panel  Polygon   id (a hand-drawn module; its face then gets no automatic fill)
 //	module           ignored: written by ExportGeoJSON, so an export reads back
 //
-// Extensions to the map table of the design: ridge_m, ridge_azimuth_deg, crown_shape, a tree's
+// Beyond the basic properties of each kind: ridge_m, ridge_azimuth_deg, crown_shape, a tree's
 // base_m, and the "module" kind that Decode skips. A sphere's crown_base_m may be omitted (it is
 // height_m − 2·crown_radius_m). Roof ids may not contain dots or white space (module ids are
 // "<face>.<row>.<column>"). Ids are unique over the map. Properties no kind uses give a

@@ -14,7 +14,7 @@ import (
 	"sunstring/geo"
 )
 
-// benchGrid is 6×20 half-cells, the 120-cell module of the design's example site.
+// benchGrid is 6×20 half-cells, a 120-cell half-cut module, the size the benchmark targets assume.
 var benchGrid = geo.CellGrid{Cols: 6, Rows: 20}
 
 // benchScene is the benchmark site, generated from a fixed seed rather than stored, so it
@@ -104,7 +104,7 @@ func TestBenchScene(t *testing.T) {
 	brute := compute(t, site, mods, Options{Grid: benchGrid, BruteForce: true}, steps)
 	fb, bb := annualBeam(fast, mods, steps), annualBeam(brute, mods, steps)
 	for i := range mods {
-		if !scalar.EqualWithinRel(fb[i], bb[i], 0.005) { // the bound
+		if !scalar.EqualWithinRel(fb[i], bb[i], 0.005) { // the project's stated bound
 			t.Errorf("module %s: fast %.6g, brute %.6g", mods[i].ID, fb[i], bb[i])
 		}
 	}

@@ -61,4 +61,12 @@
 // ReadHorizon reads a CSV profile "azimuth_deg,elevation_deg"; elevation between points is
 // linear in azimuth and wraps across north. The profile applies to every point of the site
 // alike (terrain far away compared with the roof).
+//
+// # Methods
+//
+// The ray tests and view factors are exact geometry, no published model. The tests hold them
+// against closed forms: the isotropic sky view (1+cos β)/2 of a tilted plane (Liu & Jordan
+// 1963), the share sin²ε that a uniform far horizon hides, and analytic shadows; the tests'
+// sun paths use the declination of Cooper, P. I. (1969), "The absorption of radiation in
+// solar stills", Solar Energy 12(3):333–346.
 package shading

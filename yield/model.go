@@ -63,7 +63,7 @@ type Input struct {
 type ModuleStat struct {
 	POAUnshadedKWhM2 float64 // plane-of-array irradiation without shade (beam, sky, ground)
 	POAKWhM2         float64 // the same with shade
-	BeamShadeLossPct float64 // DESIGN.md definition: DNI·cos θ·(1−f) over DNI·cos θ
+	BeamShadeLossPct float64 // lost beam over unshaded beam: DNI·cos θ·(1−f) over DNI·cos θ
 	ShadeLossPct     float64 // share of POA irradiation lost to shade
 	SkyView          float64
 	DCOwnMPPkWh      float64 // the module alone at its own maximum power point

@@ -175,7 +175,7 @@ func TestMoreSunMoreEnergy(t *testing.T) {
 }
 
 func TestStepSunSunrise(t *testing.T) {
-	// The sunrise interval is evaluated at the middle of its sunlit part (DESIGN.md): the
+	// The sunrise interval is evaluated at the middle of its sunlit part (package weather): the
 	// sunlit fraction matches the sunrise time from RiseTransitSet (Reda & Andreas 2004,
 	// appendix A.2), and the sun is up at the returned position. RiseTransitSet's sunrise is
 	// the upper limb at the horizon (centre at −0.8333°), stepSun's the centre at the

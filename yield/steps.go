@@ -7,9 +7,9 @@ import (
 )
 
 // stepSun returns the sun for the interval (start, end]: at the interval's midpoint, or, for
-// the intervals in which the sun rises or sets, at the midpoint of the sunlit part (DESIGN.md:
-// "the sunrise and sunset intervals only over their sunlit part"). lit is the sunlit fraction
-// of the interval.
+// the intervals in which the sun rises or sets, at the midpoint of the sunlit part (the
+// convention package weather documents), so that the hour's light is not credited to a sun
+// below the horizon. lit is the sunlit fraction of the interval.
 func stepSun(start, end time.Time, o sun.Observer) (p sun.Position, lit float64) {
 	a, b := sun.At(start, o), sun.At(end, o)
 	mid := start.Add(end.Sub(start) / 2)

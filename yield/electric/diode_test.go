@@ -50,10 +50,11 @@ func TestLambertW(t *testing.T) {
 	}
 }
 
-// TestJainKapoor holds the explicit Lambert-W solution to the regression
-// case of REFERENCES.md: a 57 mm silicon cell at 33 °C with the parameters
-// of Easwarakhanthan et al. (1986) [from memory]; outputs [calc] from the
-// Jain & Kapoor (2004) formula.
+// TestJainKapoor holds the explicit Lambert-W solution to a regression
+// case: a 57 mm silicon cell at 33 °C with the parameters of
+// Easwarakhanthan et al. (1986) (from memory); the outputs are a hand
+// calculation from the Jain & Kapoor (2004) formula, regression values, not
+// published ones.
 func TestJainKapoor(t *testing.T) {
 	const tK = 306.15
 	p := Params{IL: 0.7608, I0: 0.3223e-6, Rs: 0.0364, Rsh: 53.7634, A: 1.4837 * boltzmannJPerK * tK / chargeC}
@@ -126,8 +127,8 @@ var fitCases = []struct {
 	{"half-cut 144", Datasheet{PowerW: 540, VocV: 49.6, IscA: 13.9, VmpV: 41.6, ImpA: 12.98, TempCoeffVocPct: -0.27, TempCoeffIscPct: 0.048, TempCoeffPmaxPct: -0.35, CellsSeries: 144, BypassDiodes: 3, HalfCut: true}},
 }
 
-// TestFitReproducesDatasheet: the issue asks for Isc, Voc, Imp and Vmp at
-// STC within 0.5 %; the fit solves them exactly, so hold it to 0.05 %.
+// TestFitReproducesDatasheet: the project's stated bound is Isc, Voc, Imp
+// and Vmp at STC within 0.5 %; the fit solves them exactly, so hold it to 0.05 %.
 // The Voc temperature coefficient is the fifth condition (De Soto 2006).
 func TestFitReproducesDatasheet(t *testing.T) {
 	for _, tc := range fitCases {
@@ -200,7 +201,8 @@ func TestDatasheetValidate(t *testing.T) {
 			}
 		})
 	}
-	// The message names the field and both values, as the issue shows.
+	// The message names the field and both values (README.md, exit status 2:
+	// one message per problem naming the field, what is wrong and what is allowed).
 	err := mod(func(d *Datasheet) { d.VmpV = 41; d.PowerW = 41 * 12.9 }).Validate()
 	if err == nil || err.Error() != "module.vmp_v: 41 must be below voc_v 37.1" {
 		t.Errorf("message %q", err)

@@ -32,6 +32,10 @@
 //     Sandia report SAND2007-5036, as an option; otherwise a curve of
 //     efficiency against load. The report states the model within about
 //     0.1 % of measured efficiency over the inverter's operating range.
+//   - String checks: the voltage window of IEC 62548-1 (N·Voc at the coldest
+//     temperature, N·Vmp at the hottest cell) and its 1.25·Isc factor
+//     (from memory); the residual-current limits of IEC 62109-2 for
+//     transformerless inverters (from memory).
 //
 // Reverse bias: a shaded cell is driven through the single-diode equation
 // with its shunt resistance (the ohmic part of Bishop's 1988 model, J. W.

@@ -144,7 +144,9 @@ func TestInverterValidate(t *testing.T) {
 	}
 }
 
-// TestStringSizing is the worked example of REFERENCES.md [calc]:
+// TestStringSizing is a hand calculation from the IEC 62548-1 string-voltage
+// rule (N·Voc at the coldest temperature, N·Vmp at the hottest cell), a
+// regression value, not a published one:
 // Voc 40.0 V, −0.30 %/K, −10 °C → 40·(1 + 0.003·35) = 44.20 V a module;
 // 1000 V / 44.20 V = 22.6 → at most 22 modules. Vmp 33.0 V, −0.37 %/K,
 // 70 °C cell → 33·(1 − 0.0037·45) = 27.5055 V; 200 V / 27.51 V = 7.27 → at

@@ -180,8 +180,8 @@ func TestYearLimits(t *testing.T) {
 	}
 }
 
-// TestTrackerStuck: the regression module with one cell at half light
-// (REFERENCES.md): the global maximum is the high-current point (172.1 W),
+// TestTrackerStuck: the regression module of bypassCase with one cell at half
+// light (hand calculation, a regression value): the global maximum is the high-current point (172.1 W),
 // a local one near half current sits at a higher voltage. A hill climber
 // starting from 80 % of Voc climbs onto the local one and stays there.
 func TestTrackerStuck(t *testing.T) {
@@ -213,7 +213,7 @@ func TestTrackerStuck(t *testing.T) {
 		got, want float64
 		tol       float64
 	}{
-		{"global", g.DCWh, 5 * 172.1, 0.5}, // [calc] REFERENCES.md
+		{"global", g.DCWh, 5 * 172.1, 0.5}, // hand calculation (bypassCase), a regression value
 		{"stuck", c.DCWh, 5 * local, 1e-3}, // the local maximum
 		{"cost", c.TrackerLossWh, g.DCWh - c.DCWh, 1e-6},
 		{"no tracker loss for global", g.TrackerLossWh, 0, 1e-12},
@@ -413,8 +413,8 @@ func exampleLayout() Layout {
 var exampleInverter = Inverter{ACPowerW: 6000, MaxDCVoltageV: 600, MPPTMinV: 90, MPPTMaxV: 560, Inputs: 2,
 	MaxInputCurrentA: 16, Efficiency: []EffPoint{{0.1, 0.948}, {0.5, 0.972}, {1, 0.968}}}
 
-// BenchmarkNewYearExample is the issue's "a year of one layout on the
-// example ≤ 100 ms on one core once the shade fractions exist": building the
+// BenchmarkNewYearExample measures the project's stated target "a year of one
+// layout on the example ≤ 100 ms on one core once the shade fractions exist": building the
 // year of module curves of exampleYear plus one Evaluate. Measure with
 // -cpu 1.
 func BenchmarkNewYearExample(b *testing.B) {

@@ -42,7 +42,10 @@
 //
 // Bibliographic details (titles, pages) are from memory, except the journal references of
 // Perez et al. (1990), Erbs et al. (1982), Kasten & Young (1989) and Kopp & Lean (2011),
-// which were checked against the project's reference sheet.
+// which were checked against a second source. The solar constant is 1367 W/m² (the value of
+// the handbooks, e.g. Duffie & Beckman); Kopp, G. & Lean, J. L. (2011), "A new, lower value
+// of total solar irradiance: evidence and climate significance", Geophysical Research
+// Letters 38, L01706, measure 1360.8 ± 0.5 W/m², about 0.5 % less.
 //
 // Conventions: irradiance in W/m², angles in degrees (zenith from vertical, incidence from
 // the plane's normal, tilt from horizontal), temperatures in °C, wind in m/s at the

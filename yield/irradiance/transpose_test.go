@@ -63,7 +63,7 @@ func TestPerezCoefficients(t *testing.T) {
 // TestTransposeRegression checks the three sky models and the Perez plane-of-array total
 // against regression values [calc] from the published formulas (Liu & Jordan 1963;
 // Hay & Davies 1980; Perez et al. 1990 with the table above), I0 = 1367 W/m², albedo 0.2,
-// Kasten–Young air mass, GHI = DHI + DNI cos Z, as listed in the project's reference sheet.
+// Kasten–Young air mass, GHI = DHI + DNI cos Z: hand calculations, not published values.
 // The values are printed to two decimals, hence ±0.01 W/m².
 func TestTransposeRegression(t *testing.T) {
 	tests := []struct {
@@ -158,9 +158,9 @@ func TestTransposeDuffieBeckman2151(t *testing.T) {
 		// [pub] IT = 1.18 MJ/m² with the book's own diffuse correlation; with the Erbs
 		// split the isotropic result is 1.171 [calc], so ±0.015 covers the published value.
 		{"isotropic vs book", Isotropic, 1.18, 0.015, "Duffie & Beckman Ex. 2.15.1 [pub]"},
-		{"isotropic", Isotropic, 1.171, 0.002, "[calc] Erbs split, reference sheet"},
-		{"hay-davies", HayDavies, 1.251, 0.002, "[calc] reference sheet"},
-		{"perez", Perez, 1.370, 0.002, "[calc] reference sheet"},
+		{"isotropic", Isotropic, 1.171, 0.002, "[calc] Erbs split, Liu & Jordan (1963)"},
+		{"hay-davies", HayDavies, 1.251, 0.002, "[calc] Hay & Davies (1980)"},
+		{"perez", Perez, 1.370, 0.002, "[calc] Perez et al. (1990)"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

@@ -10,8 +10,8 @@ import (
 )
 
 func TestStringBoundsWorkedExample(t *testing.T) {
-	// Worked hand calculation (IEC 62548-1 rule, numbers [calc] in the project's reference
-	// sheet): Voc 40.0 V, −0.30 %/K, −10 °C → 40.0·(1 − 0.003·(−35)) = 44.20 V a module;
+	// Worked hand calculation from the IEC 62548-1 rule (a regression value, not a published
+	// one): Voc 40.0 V, −0.30 %/K, −10 °C → 40.0·(1 − 0.003·(−35)) = 44.20 V a module;
 	// 1000 V / 44.20 V = 22.6 → at most 22 modules. Vmp 33.0 V, −0.37 %/K at a 70 °C cell →
 	// 33.0·(1 − 0.0037·45) = 27.51 V; 200 V / 27.51 V = 7.27 → at least 8. (The Vmp coefficient
 	// is the Pmax coefficient less the Isc one, here 0.)

@@ -10,7 +10,7 @@ import (
 
 // HourlyRow is one weather record of the hourly CSV and what the chosen layout made of it.
 type HourlyRow struct {
-	EndUTC        time.Time // end of the interval (DESIGN.md: records stamp the interval's end)
+	EndUTC        time.Time // end of the interval (records stamp the interval's end: package weather)
 	GHI, DNI, DHI float64   // W/m², means over the interval
 	AirTempC      float64
 	// POA is the plane-of-array irradiance, W/m², the mean over the modules with shade

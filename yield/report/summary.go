@@ -6,8 +6,8 @@ import (
 	"math"
 )
 
-// Summary is the summary.json document. Field names and meanings are DESIGN.md's output
-// contract; fields beyond it are documented in README.md.
+// Summary is the summary.json document. Field names and meanings are the contract stated in
+// README.md (Outputs, summary.json).
 type Summary struct {
 	Site             SiteInfo    `json:"site"`
 	Modules          int         `json:"modules"`

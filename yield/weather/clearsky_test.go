@@ -8,8 +8,8 @@ import (
 
 func TestIneichenPerez(t *testing.T) {
 	// Ineichen & Perez (2002), Solar Energy 73(3):151–157, evaluated with I0 = 1367 W/m² and
-	// the Kasten–Young air mass: [calc] values from the project's reference sheet, given to
-	// 0.1 W/m².
+	// the Kasten–Young air mass: hand calculation from the published formulas, regression values,
+	// not published ones, given to 0.1 W/m².
 	cases := []struct {
 		name             string
 		zen, tl, elevM   float64
