@@ -150,7 +150,8 @@ func seriesHash(s *Series) uint64 {
 func TestFromMonthlyDayMix(t *testing.T) {
 	// Share of clear (daily kt > 0.6) and overcast (kt < 0.3) days. Reference: the Bendt et
 	// al. (1981) distribution itself, its cumulative function evaluated for each month's mean
-	// clearness [calc]; the synthetic days take its quantiles, so they match it up to the
+	// clearness by refBendtCDF below (written from the paper's formulas, not the package's
+	// code) [calc]; the synthetic days take its quantiles, so they match it up to the
 	// month-wise rescaling and the envelope cap (tolerance 0.05 of all days). Plausibility (from
 	// memory): mid-European stations have roughly 15–30 % clear and 30–50 % overcast days a year.
 	s, err := FromMonthly(midEurope.site, midEurope.ghi, midEurope.temp)
@@ -189,9 +190,9 @@ func TestFromMonthlyDayMix(t *testing.T) {
 			dull++
 		}
 		m := dayMonth[d]
-		g := bendtGamma(midEurope.ghi[m] * 1000 / monthE[m])
-		wantClear += 1 - bendtCDF(g, 0.6)
-		wantDull += bendtCDF(g, 0.3)
+		kbar := midEurope.ghi[m] * 1000 / monthE[m]
+		wantClear += 1 - refBendtCDF(kbar, 0.6)
+		wantDull += refBendtCDF(kbar, 0.3)
 	}
 	for _, c := range []struct {
 		name           string
@@ -208,12 +209,54 @@ func TestFromMonthlyDayMix(t *testing.T) {
 	}
 }
 
+// refBendtCDF is the share of days with clearness below k in a month of mean clearness kbar,
+// after Bendt, Collares-Pereira & Rabl (1981), Solar Energy 27(1):1–5: the density is
+// ∝ exp(γk) on [kmin, kmax] = [0.05, 0.864] (from memory), so
+// F(k) = (e^(γ kmin) − e^(γ k)) / (e^(γ kmin) − e^(γ kmax)), and γ solves the mean
+// kbar = [(kmin − 1/γ) e^(γ kmin) − (kmax − 1/γ) e^(γ kmax)] / (e^(γ kmin) − e^(γ kmax)).
+// It is written here from those formulas, plainly, independent of the package's bendt
+// functions, for moderate kbar (|γ| below about 50); γ is found by bisection.
+func refBendtCDF(kbar, k float64) float64 {
+	const kmin, kmax = 0.05, 0.864
+	mean := func(g float64) float64 {
+		ea, eb := math.Exp(g*kmin), math.Exp(g*kmax)
+		return ((kmin-1/g)*ea - (kmax-1/g)*eb) / (ea - eb)
+	}
+	lo, hi := -50.3, 50.1 // offset from 0, where the formula is 0/0
+	for range 100 {
+		mid := (lo + hi) / 2
+		if mean(mid) < kbar {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	g := (lo + hi) / 2
+	return (math.Exp(g*kmin) - math.Exp(g*k)) / (math.Exp(g*kmin) - math.Exp(g*kmax))
+}
+
 func TestBendt(t *testing.T) {
 	cases := []struct {
 		name      string
 		got, want float64
 		tol       float64
 	}{
+		// Hand calculation from the Bendt et al. (1981) formulas (see refBendtCDF), a
+		// regression value, not a published one: K̄t 0.3 → γ = −3.1394, F(0.3) = 0.58959,
+		// F(0.6) = 0.89134; K̄t 0.5 → γ = 0.78403, F(0.3) = 0.24246, F(0.6) = 0.60368;
+		// K̄t 0.65 → γ = 4.0976, F(0.3) = 0.065906, F(0.6) = 0.31460.
+		{"gamma at Kt 0.3", bendtGamma(0.3), -3.1394, 1e-4},
+		{"gamma at Kt 0.5", bendtGamma(0.5), 0.78403, 1e-5},
+		{"gamma at Kt 0.65", bendtGamma(0.65), 4.0976, 1e-4},
+		{"F(0.3) at Kt 0.3", bendtCDF(bendtGamma(0.3), 0.3), 0.58959, 1e-5},
+		{"F(0.6) at Kt 0.3", bendtCDF(bendtGamma(0.3), 0.6), 0.89134, 1e-5},
+		{"F(0.3) at Kt 0.5", bendtCDF(bendtGamma(0.5), 0.3), 0.24246, 1e-5},
+		{"F(0.6) at Kt 0.5", bendtCDF(bendtGamma(0.5), 0.6), 0.60368, 1e-5},
+		{"F(0.3) at Kt 0.65", bendtCDF(bendtGamma(0.65), 0.3), 0.065906, 1e-6},
+		{"F(0.6) at Kt 0.65", bendtCDF(bendtGamma(0.65), 0.6), 0.31460, 1e-5},
+		// The test's own reference agrees with the same hand values.
+		{"reference F(0.6) at Kt 0.5", refBendtCDF(0.5, 0.6), 0.60368, 1e-5},
+		{"reference F(0.3) at Kt 0.65", refBendtCDF(0.65, 0.3), 0.065906, 1e-6},
 		// γ = 0 is the uniform distribution on [0.05, 0.864]: mean 0.457 [calc].
 		{"uniform mean", bendtMean(0), 0.457, 1e-12},
 		// The solved γ reproduces the requested mean (the definition of the fit).
