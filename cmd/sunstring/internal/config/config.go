@@ -253,4 +253,3 @@ func plainDecodeMsg(msg string) string {
 	}
 	return msg
 }
-

@@ -3,7 +3,9 @@ package config
 import (
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
+	"sunstring/yield/survey"
 	"testing"
 
 	"github.com/spf13/pflag"
@@ -199,5 +201,34 @@ func TestPathsFromTheEnvironmentAreTheUsers(t *testing.T) {
 	wd, _ := os.Getwd()
 	if got, want := s.Path(s.Climate.File), filepath.Join(wd, "data/year.epw"); got != want {
 		t.Errorf("environment's path %q, want %q", got, want)
+	}
+}
+
+// TestDefaultsAgreeWithLibrary keeps the command line's defaults and the library's
+// survey.Defaults in step: a site file with only the required keys decodes to the library's
+// defaults in every optional key.
+func TestDefaultsAgreeWithLibrary(t *testing.T) {
+	s, err := Load(write(t, minimal), nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := survey.Defaults()
+	for _, c := range []struct {
+		name      string
+		got, want any
+	}{
+		{"climate", []float64{s.Climate.LowTempC, s.Climate.HighTempC, s.Climate.Albedo}, []float64{d.Climate.LowTempC, d.Climate.HighTempC, d.Climate.Albedo}},
+		{"module.max_system_voltage_v", s.Module.MaxSystemVoltage, d.Module.MaxSystemVoltage},
+		{"inverter.efficiency_pct", s.Inverter.EfficiencyPct, d.Inverter.EfficiencyPct},
+		{"inverter.transformerless", s.Inverter.Transformerless, d.Inverter.Transformerless},
+		{"inverter.night_w", s.Inverter.NightW, d.Inverter.NightW},
+		{"fill", s.Fill, d.Fill},
+		{"layouts", s.Layouts, d.Layouts},
+		{"losses", s.Losses, d.Losses},
+		{"model", s.Model, d.Model},
+	} {
+		if !reflect.DeepEqual(c.got, c.want) {
+			t.Errorf("%s: the site file's default %+v, the library's %+v", c.name, c.got, c.want)
+		}
 	}
 }
