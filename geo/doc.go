@@ -59,5 +59,13 @@
 // U down the slope; U×V is the face's outward normal and Corners are counter-clockwise from
 // outside.
 //
+// # Kinds and obstacles
+//
+// Each map kind lives in its own file (kind_roof.go, kind_block.go, kind_tree.go,
+// kind_marks.go) and is listed in one table (kind.go): its geometry, its properties, its
+// validation, its export and the obstacles it casts shade with. Site.Obstacles lists every
+// shade-casting body as a prism or a crown, whatever kind drew it; the shading package and the
+// plan work from that list alone.
+//
 // geo knows nothing of the sun or of electricity.
 package geo

@@ -27,55 +27,10 @@ func ExportGeoJSON(site *Site, mods []Module, props func(i int) map[string]any) 
 	if site == nil || site.Proj == nil {
 		return nil, errors.New("geo: export: the site has no projection (build it with Decode)")
 	}
-	type item struct {
-		index int
-		write func(*bytes.Buffer) error
-	}
-	var items []item
+	var items []exportItem
 	e := &exporter{p: site.Proj}
-	for i := range site.Faces {
-		f := &site.Faces[i]
-		items = append(items, item{f.Index, func(b *bytes.Buffer) error {
-			return e.feature(b, e.ring(f.Plan), kv{"kind", "roof"}, kv{"id", f.ID},
-				kv{"pitch_deg", round(f.PitchDeg)}, kv{"aspect_deg", round(f.AspectDeg)}, kv{"eave_height_m", round(f.EaveHeightM)})
-		}})
-	}
-	for i := range site.Blocks {
-		bl := &site.Blocks[i]
-		items = append(items, item{bl.Index, func(b *bytes.Buffer) error {
-			ps := []kv{{"kind", "block"}, {"id", bl.ID}, {"height_m", round(bl.HeightM)}, {"base_m", round(bl.BaseM)}}
-			if bl.RidgeM != 0 {
-				ps = append(ps, kv{"ridge_m", round(bl.RidgeM)}, kv{"ridge_azimuth_deg", round(bl.RidgeAzimuthDeg)})
-			}
-			return e.feature(b, e.ring(bl.Footprint), ps...)
-		}})
-	}
-	for i := range site.Trees {
-		t := &site.Trees[i]
-		items = append(items, item{t.Index, func(b *bytes.Buffer) error {
-			ps := []kv{{"kind", "tree"}, {"id", t.ID}, {"height_m", round(t.HeightM)}, {"crown_radius_m", round(t.CrownRadiusM)},
-				{"crown_base_m", round(t.CrownBaseM)}, {"crown_shape", t.Shape.String()}, {"base_m", round(t.BaseM)}}
-			if t.Deciduous {
-				ms := make([]int, len(t.LeafOffMonths))
-				for k, m := range t.LeafOffMonths {
-					ms[k] = int(m)
-				}
-				ps = append(ps, kv{"leaf_off_transmittance", round(t.LeafOffTransmittance)}, kv{"leaf_off_months", ms})
-			}
-			return e.feature(b, e.point(t.Trunk), ps...)
-		}})
-	}
-	for i := range site.Avoids {
-		a := &site.Avoids[i]
-		items = append(items, item{a.Index, func(b *bytes.Buffer) error {
-			return e.feature(b, e.ring(a.Area), kv{"kind", "avoid"}, kv{"id", a.ID})
-		}})
-	}
-	for i := range site.Panels {
-		p := &site.Panels[i]
-		items = append(items, item{p.Index, func(b *bytes.Buffer) error {
-			return e.feature(b, e.ring(p.Outline), kv{"kind", "panel"}, kv{"id", p.ID})
-		}})
+	for _, k := range kinds {
+		items = append(items, k.export(e, site)...)
 	}
 	// Features keep the map's order; Index is unique per feature within one map.
 	for i := 1; i < len(items); i++ {
@@ -118,6 +73,13 @@ func ExportGeoJSON(site *Site, mods []Module, props func(i int) map[string]any) 
 	}
 	b.WriteString("\n]}\n")
 	return b.Bytes(), nil
+}
+
+// exportItem is one feature of the site for ExportGeoJSON: its index in the map (the output
+// keeps the map's order) and how to write it.
+type exportItem struct {
+	index int
+	write func(*bytes.Buffer) error
 }
 
 // kv is one property in output order; an empty key splices a JSON object's members.

@@ -324,7 +324,7 @@ func count(rows [][]orb.Point) int {
 	return n
 }
 
-// faceObstacles returns, in the face frame, the avoid areas and the footprints of blocks that
+// faceObstacles returns, in the face frame, the avoid areas and the footprints of prisms that
 // rise above the face, with a name for each. A block wholly under the roof plane (a wall inside
 // the house) is no obstacle.
 func faceObstacles(site *Site, f *Face, fr *frame) ([]orb.Ring, []string) {
@@ -336,8 +336,11 @@ func faceObstacles(site *Site, f *Face, fr *frame) ([]orb.Ring, []string) {
 			names = append(names, fmt.Sprintf("avoid area %q", a.ID))
 		}
 	}
-	for i := range site.Blocks {
-		b := &site.Blocks[i]
+	for _, ob := range site.Obstacles() {
+		b := ob.Prism
+		if b == nil {
+			continue
+		}
 		above := false
 		for _, p := range b.Footprint {
 			if b.TopAt(p) > f.HeightAt(p) {
@@ -347,7 +350,7 @@ func faceObstacles(site *Site, f *Face, fr *frame) ([]orb.Ring, []string) {
 		}
 		if above && ringsOverlap(b.Footprint, f.Plan, 0) {
 			out = append(out, fr.ring(b.Footprint))
-			names = append(names, fmt.Sprintf("block %q", b.ID))
+			names = append(names, fmt.Sprintf("%s %q", ob.Kind, ob.ID))
 		}
 	}
 	return out, names

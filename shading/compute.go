@@ -123,12 +123,13 @@ func (sc *Scene) Compute(ctx context.Context, steps []Step, progress func(done, 
 				} else {
 					res.mods[i] = sc.fastModule(i, info, w)
 				}
+				// Count under the lock, so that the calls see 1, 2, … in order.
+				mu.Lock()
 				n := int(done.Add(1))
 				if progress != nil {
-					mu.Lock()
 					progress(n, len(sc.mods))
-					mu.Unlock()
 				}
+				mu.Unlock()
 			}
 		})
 	}

@@ -154,6 +154,18 @@ func faceObject(f *geo.Face) (object, error) {
 	return o, nil
 }
 
+// obstacleObject turns any kind's obstacle into the solid the ray test knows: a prism or a
+// crown. A map kind that is built from these needs nothing here.
+func obstacleObject(ob geo.Obstacle) (object, error) {
+	switch {
+	case ob.Prism != nil:
+		return blockObject(ob.Prism)
+	case ob.Crown != nil:
+		return treeObject(ob.Crown)
+	}
+	return object{}, fmt.Errorf("%w: %s %q: neither a prism nor a crown", ErrBadScene, ob.Kind, ob.ID)
+}
+
 func blockObject(b *geo.Block) (object, error) {
 	o := object{kind: kindBlock, id: b.ID, poly: openRing(b.Footprint), base: b.BaseM, top: b.HeightM}
 	if len(o.poly) < 3 || !ringFinite(o.poly) || !finite(b.BaseM, b.HeightM, b.RidgeM, b.RidgeAzimuthDeg) {

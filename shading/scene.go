@@ -92,7 +92,7 @@ type modPrep struct {
 	cellCon [][]cone // per objs entry, per cell
 }
 
-// NewScene prepares the site's faces, blocks and trees and the modules for Compute. A nil site
+// NewScene prepares the site's faces and obstacles (geo.Site.Obstacles) and the modules for Compute. A nil site
 // has no obstructions. Modules are addressed by their index in mods.
 func NewScene(site *geo.Site, mods []geo.Module, opt Options) (*Scene, error) {
 	sc := &Scene{mods: append([]geo.Module(nil), mods...), grid: opt.Grid, horizon: opt.Horizon,
@@ -114,15 +114,8 @@ func NewScene(site *geo.Site, mods []geo.Module, opt Options) (*Scene, error) {
 			}
 			sc.objs = append(sc.objs, o)
 		}
-		for i := range site.Blocks {
-			o, err := blockObject(&site.Blocks[i])
-			if err != nil {
-				return nil, &SceneError{err}
-			}
-			sc.objs = append(sc.objs, o)
-		}
-		for i := range site.Trees {
-			o, err := treeObject(&site.Trees[i])
+		for _, ob := range site.Obstacles() {
+			o, err := obstacleObject(ob)
 			if err != nil {
 				return nil, &SceneError{err}
 			}
