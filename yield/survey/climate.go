@@ -54,8 +54,8 @@ func (p *Project) Weather() (*weather.Series, error) {
 		if temps != nil {
 			t = *temps
 		} else {
-			t = defaultTemps(p.LatDeg)
-			note = "climate.monthly_temp_c is not given: a plain seasonal cycle of 12 °C ± 9 K is assumed; give the site's monthly mean temperatures, since cell temperature moves the yield by several percent"
+			t = weather.DefaultTemps(p.LatDeg)
+			note = "climate.monthly_temp_c is not given: the temperatures of a temperate mid-latitude climate are assumed (0 to 19.5 °C from the coldest to the warmest month); give the site's monthly mean temperatures, since cell temperature moves the yield by several percent"
 		}
 		s, err := weather.FromMonthly(ws, g, t)
 		if err == nil && note != "" {
@@ -65,21 +65,6 @@ func (p *Project) Weather() (*weather.Series, error) {
 	default:
 		return weather.ClearSky(ws, temps), nil
 	}
-}
-
-// defaultTemps is a plain seasonal cycle for when monthly GHI is given without temperatures:
-// 12 °C mean with a ±9 K swing peaking in the local summer (common practice for a
-// temperate site; it moves the yield by about 1 %).
-func defaultTemps(latDeg float64) [12]float64 {
-	var t [12]float64
-	peak := 6.5 // mid-July in the north
-	if latDeg < 0 {
-		peak = 0.5
-	}
-	for i := range t {
-		t[i] = 12 + 9*math.Cos(2*math.Pi*(float64(i)+0.5-peak)/12)
-	}
-	return t
 }
 
 // NoModules says why no module was placed: no roof face at all, or the faces' own notes

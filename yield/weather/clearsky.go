@@ -18,6 +18,18 @@ var DefaultLinkeTurbidity = [12]float64{3.0, 3.2, 3.5, 3.8, 4.0, 4.1, 4.2, 4.1, 
 // equator. They are placeholders for an indicative year, not a climate.
 var DefaultTempC = [12]float64{0, 1.5, 5, 9.5, 14, 17.5, 19.5, 19, 15, 10, 5, 1}
 
+// DefaultTemps returns DefaultTempC for a site at latDeg: as they are in the northern
+// hemisphere, six months on in the southern one.
+func DefaultTemps(latDeg float64) [12]float64 {
+	t := DefaultTempC
+	if latDeg < 0 {
+		for m := range t {
+			t[m] = DefaultTempC[(m+6)%12]
+		}
+	}
+	return t
+}
+
 // envelopeTL is the Linke turbidity of the clearest air expected anywhere (common practice: 2
 // is a very clean, dry atmosphere): hours synthesized from monthly values stay below
 // the clear sky it gives.
@@ -52,12 +64,7 @@ func clearSky(zenithDeg, i0, tl, elevM float64) (ghi, dni float64) {
 // placeholder when no climate data is given, and its Source says so.
 func ClearSky(s Site, tempC *[12]float64) *Series {
 	ser, ends, suns := emptyYear(s, SourceIndicative)
-	temps := DefaultTempC
-	if s.LatDeg < 0 {
-		for m := range temps {
-			temps[m] = DefaultTempC[(m+6)%12]
-		}
-	}
+	temps := DefaultTemps(s.LatDeg)
 	if tempC != nil {
 		temps = *tempC
 	}
