@@ -218,8 +218,8 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 	// Per step, per module: components on the plane. Computed once here and consumed by the
 	// year engine's callback; the beam-shade statistic needs DNI·cos θ too.
 	type comp struct {
-		beam, circ, iso, hor, gnd float64 // W/m² on the plane, unshaded, before IAM
-		iamB                      float64
+		tc   irradiance.Components // W/m² on the plane, unshaded, before IAM
+		iamB float64
 	}
 	var beamSum, beamLit = make([]float64, n), make([]float64, n)
 	m.StepPOA = make([]float64, len(ups))
@@ -246,14 +246,20 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 			if !ok {
 				theta := sun.Incidence(st.pos, tilt[i], aspect[i]).Degrees()
 				tc := irradiance.Transpose(in.System.Sky, sky, theta, tilt[i])
-				c = comp{beam: tc.Beam, circ: tc.Circumsolar, iso: tc.Isotropic, hor: tc.Horizon, gnd: tc.Ground, iamB: beamIAM(theta)}
+				c = comp{tc: tc, iamB: beamIAM(theta)}
 				cache[key] = c
 			}
 			d := diff[i]
 			lit := shade.Lit(i, s)
 			litFrac := shade.LitFraction(i, s)
-			diffuse := c.iso*d.SkyView*skyIAM[i] + c.hor*d.HorizonView*skyIAM[i] + c.gnd*d.GroundView*gndIAM[i]
-			direct := (c.beam + c.circ) * c.iamB
+			// OnPlane keeps both parts non-negative, so no cell is ever given negative
+			// light, whatever the sky model's horizon term and the cell's views.
+			direct, diffuse := c.tc.OnPlane(irradiance.View{Sky: d.SkyView, Horizon: d.HorizonView, Ground: d.GroundView,
+				IAMBeam: c.iamB, IAMSky: skyIAM[i], IAMGround: gndIAM[i]})
+			dirRaw, difRaw := c.tc.OnPlane(irradiance.View{Sky: d.SkyView, Horizon: d.HorizonView, Ground: d.GroundView,
+				IAMBeam: 1, IAMSky: 1, IAMGround: 1})
+			dirUn, difUn := c.tc.OnPlane(irradiance.View{Sky: 1, Horizon: 1, Ground: 1,
+				IAMBeam: c.iamB, IAMSky: skyIAM[i], IAMGround: gndIAM[i]})
 			ci := dst.CellIrr[i]
 			for k := range ci {
 				f := 1.0
@@ -262,10 +268,10 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 				}
 				ci[k] = soil * (direct*f + diffuse)
 			}
-			unsh := c.beam + c.circ + c.iso + c.hor + c.gnd
-			shaded := (c.beam+c.circ)*litFrac + c.iso*d.SkyView + c.hor*d.HorizonView + c.gnd*d.GroundView
+			unsh := c.tc.Total()
+			shaded := dirRaw*litFrac + difRaw
 			withIAM := direct*litFrac + diffuse
-			dst.UnshadedIrr[i] = soil * ((c.beam+c.circ)*c.iamB + c.iso*skyIAM[i] + c.hor*skyIAM[i] + c.gnd*gndIAM[i])
+			dst.UnshadedIrr[i] = soil * (dirUn + difUn)
 			dst.TempC[i] = irradiance.CellTempFaiman(shaded, r.AirTempC, r.WindMS, irradiance.FaimanU0, irradiance.FaimanU1)
 			unIrr[s*n+i] = float32(dst.UnshadedIrr[i])
 			unTemp[s*n+i] = float32(irradiance.CellTempFaiman(unsh, r.AirTempC, r.WindMS, irradiance.FaimanU0, irradiance.FaimanU1))
@@ -280,8 +286,8 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 			m.modPOASh[i] += shaded * area * hours
 			m.modPOAIAM[i] += withIAM * area * hours
 			m.modPOASoil[i] += soil * withIAM * area * hours
-			beamSum[i] += c.beam * hours
-			beamLit[i] += c.beam * litFrac * hours
+			beamSum[i] += c.tc.Beam * hours
+			beamLit[i] += c.tc.Beam * litFrac * hours
 			m.POAUnshadedWh += unsh * area * hours
 			m.POAShadedWh += shaded * area * hours
 			m.POAIAMWh += withIAM * area * hours

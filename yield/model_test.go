@@ -282,3 +282,32 @@ func TestUnshadedReference(t *testing.T) {
 		}
 	}
 }
+
+// TestLowSunYear runs a year in which every hour carries the record that once stopped a
+// survey: GHI 67, DNI 45, DHI 65 W/m² (legal values), so that every sunrise and sunset
+// interval meets it with the sun within a fraction of a degree of the horizon, where the
+// Perez fit leaves its data (F1 > 1). The year must build, and every module's DC energy be
+// positive: no cell is ever given negative light, and no internal limit stops the run.
+func TestLowSunYear(t *testing.T) {
+	// A wall higher than the eave hides more of the horizon band than of the dome from the
+	// lower modules, so the band's part cannot make up for a negative dome part.
+	site, mods := testSite(t, 6)
+	recs := make([]weather.Record, 8760)
+	start := time.Date(weather.TypicalYear, 1, 1, 1, 0, 0, 0, time.UTC)
+	for i := range recs {
+		recs[i] = weather.Record{End: start.Add(time.Duration(i) * time.Hour), GHI: 67, DNI: 45, DHI: 65, AirTempC: 10, WindMS: 1}
+	}
+	ws := &weather.Series{Interval: time.Hour, Records: recs, Source: weather.SourceFile}
+	m, err := Prepare(context.Background(), Input{
+		Site: site, Modules: mods, Weather: ws, Observer: sun.Observer{LatDeg: 47, LonDeg: 15},
+		System: System{Module: testModule, Inverter: testInverter, Albedo: 0.2},
+	})
+	if err != nil {
+		t.Fatalf("Prepare: %v", err)
+	}
+	for i, wh := range m.Year.ModuleDCWh() {
+		if !(wh > 0) {
+			t.Errorf("module %d: DC %g Wh, want positive", i, wh)
+		}
+	}
+}

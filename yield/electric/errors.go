@@ -25,3 +25,13 @@ func (e *InputError) BadInput() bool { return true }
 func badf(field, format string, args ...any) error {
 	return &InputError{Field: field, Msg: fmt.Sprintf(format, args...)}
 }
+
+// ErrOutOfModel is wrapped by errors about values that the caller computed, not read from
+// a user's file, and that lie outside the model's range: a cell irradiance or temperature
+// the curves cannot take, a step of no length. Such an error is a fault of the program
+// that fed the model (exit status 1), so it deliberately does not implement BadInput.
+var ErrOutOfModel = errors.New("electric: value outside the model's range")
+
+func outOfModelf(field, format string, args ...any) error {
+	return fmt.Errorf("%w: %s: %s", ErrOutOfModel, field, fmt.Sprintf(format, args...))
+}

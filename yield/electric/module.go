@@ -144,18 +144,19 @@ func (m *Module) Curve(cellIrr []float64, tempC float64) Curve {
 // allocate it afresh.
 var scratchPool = sync.Pool{New: func() any { return new(curveScratch) }}
 
-// CheckCells reports whether cellIrr and tempC are usable by Curve.
+// CheckCells reports whether cellIrr and tempC are usable by Curve. Its errors wrap
+// ErrOutOfModel: the values are the caller's computation, not the user's input.
 func (m *Module) CheckCells(cellIrr []float64, tempC float64) error {
 	if len(cellIrr) != m.Cells() {
-		return badf("cell_irradiance", "%d values, want %d (cols×rows)", len(cellIrr), m.Cells())
+		return outOfModelf("cell_irradiance", "%d values, want %d (cols×rows)", len(cellIrr), m.Cells())
 	}
 	for k, s := range cellIrr {
 		if !(s >= 0 && s <= 2000) { // false for NaN too
-			return badf(fmt.Sprintf("cell_irradiance[%d]", k), "%g W/m² must lie in 0..2000", s)
+			return outOfModelf(fmt.Sprintf("cell_irradiance[%d]", k), "%g W/m² must lie in 0..2000", s)
 		}
 	}
 	if math.IsNaN(tempC) || tempC < -60 || tempC > 120 {
-		return badf("cell_temp_c", "%g must lie in -60..120 °C", tempC)
+		return outOfModelf("cell_temp_c", "%g must lie in -60..120 °C", tempC)
 	}
 	return nil
 }

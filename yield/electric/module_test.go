@@ -1,6 +1,7 @@
 package electric
 
 import (
+	"errors"
 	"math"
 	"math/rand/v2"
 	"testing"
@@ -210,8 +211,15 @@ func TestCurveBadInput(t *testing.T) {
 			if c := m.Curve(tc.irr, tc.tc); c.Len() != 0 || maxP(c) != 0 {
 				t.Errorf("bad input gave a curve of %d points", c.Len())
 			}
-			if m.CheckCells(tc.irr, tc.tc) == nil {
-				t.Errorf("CheckCells accepted it")
+			err := m.CheckCells(tc.irr, tc.tc)
+			if err == nil {
+				t.Fatalf("CheckCells accepted it")
+			}
+			// The values are computed by the caller, never read from a user's file: an
+			// internal fault (exit 1), not bad input (exit 2).
+			var bi interface{ BadInput() bool }
+			if !errors.Is(err, ErrOutOfModel) || errors.As(err, &bi) {
+				t.Errorf("%v: want an ErrOutOfModel without BadInput", err)
 			}
 		})
 	}

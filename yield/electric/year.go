@@ -105,7 +105,8 @@ type Year struct {
 
 // NewYear calls step for s = 0..steps−1 and computes each module's curve at
 // every step. Irradiance must lie in 0..2000 W/m² and temperatures in
-// −60..120 °C; a bad value is reported with its step and module.
+// −60..120 °C; a bad value is reported with its step and module, wrapping
+// ErrOutOfModel (the caller's fault, not the user's).
 //
 // step is called in step order from the calling goroutine. NewYear copies
 // each step's input and builds the curves of a batch of steps on
@@ -183,21 +184,21 @@ const yearBatchSteps = 16
 // checkStep validates one step's input and returns its length in hours.
 func checkStep(m *Module, in *StepInput, s, nModules int) (float64, error) {
 	if len(in.CellIrr) != nModules || len(in.TempC) != nModules || len(in.UnshadedIrr) != nModules {
-		return 0, badf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", nModules)
+		return 0, outOfModelf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", nModules)
 	}
 	h := in.Hours
 	if h == 0 {
 		h = 1
 	}
 	if !(h > 0) || h > 24*31 {
-		return 0, badf(fmt.Sprintf("step %d: hours", s), "%g must lie in (0, 744]", in.Hours)
+		return 0, outOfModelf(fmt.Sprintf("step %d: hours", s), "%g must lie in (0, 744]", in.Hours)
 	}
 	for k := range nModules {
 		if err := m.CheckCells(in.CellIrr[k], in.TempC[k]); err != nil {
 			return 0, fmt.Errorf("step %d, module %d: %w", s, k, err)
 		}
 		if u := in.UnshadedIrr[k]; math.IsNaN(u) || u < 0 || u > 2000 {
-			return 0, badf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..2000", u)
+			return 0, outOfModelf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..2000", u)
 		}
 	}
 	return h, nil

@@ -1,6 +1,7 @@
 package electric
 
 import (
+	"errors"
 	"math"
 	"math/rand/v2"
 	"testing"
@@ -239,8 +240,14 @@ func maxLocal(m *Module, vmin float64) float64 {
 
 func TestYearBadInput(t *testing.T) {
 	m := bypassCase()
+	var bi interface{ BadInput() bool }
 	if _, err := NewYear(m, 1, 1, func(s int, d *StepInput) { d.CellIrr[0][3] = math.NaN() }); err == nil {
 		t.Error("NaN irradiance accepted")
+	} else if !errors.Is(err, ErrOutOfModel) || errors.As(err, &bi) {
+		t.Errorf("%v: want an ErrOutOfModel without BadInput (an internal fault)", err)
+	}
+	if _, err := NewYear(m, 1, 1, func(s int, d *StepInput) { d.CellIrr[0][0] = -3.36 }); err == nil || errors.As(err, &bi) {
+		t.Errorf("negative irradiance: %v, want an internal error", err)
 	}
 	if _, err := NewYear(m, 1, 1, func(s int, d *StepInput) { d.CellIrr[0] = nil }); err == nil {
 		t.Error("short cell slice accepted")

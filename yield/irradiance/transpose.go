@@ -66,12 +66,13 @@ type Sky struct {
 // Isotropic is reduced by the plane's sky-view factor; Ground by obstacles below the
 // horizon.
 //
-// Horizon keeps its sign: the Perez horizon coefficient F2 is negative for overcast
-// bins, where the band near the horizon is darker than the dome. Transpose never lets
-// the sky diffuse Isotropic + Circumsolar + Horizon fall below zero: if it would, Horizon
-// is raised until the sum is exactly zero. Isotropic can also be slightly negative on
-// its own, where the Perez fit gives F1 > 1 (clear bins near the zenith); it is kept as
-// the model gives it, and the sky diffuse as a whole stays non-negative. Total adds all five.
+// Every component is finite and Beam, Isotropic, Circumsolar and Ground are never negative.
+// Horizon keeps its sign: the Perez horizon coefficient F2 is negative for overcast bins,
+// where the band near the horizon is darker than the dome; it never darkens more than the
+// isotropic background, so Isotropic + Horizon ≥ 0 and the sky diffuse as a whole is never
+// below Circumsolar. A shading engine that scales each part by its own view factor can
+// still combine them into a negative value where a cell sees more of the horizon band than
+// of the dome: OnPlane clamps that. Total adds all five.
 type Components struct {
 	Beam        float64
 	Isotropic   float64
@@ -129,7 +130,12 @@ func perezF(s Sky, zenithRad, i0 float64) (f1, f2 float64) {
 	eps := ((s.DHI+math.Max(0, s.DNI))/s.DHI + z3) / (1 + z3)
 	delta := s.DHI * AirMass(zenithRad/deg) / i0
 	c := &perezCoeffs[perezBin(eps)]
-	f1 = math.Max(0, c[0]+c[1]*delta+c[2]*zenithRad)
+	// F1 ≥ 0 as Perez et al. (1990) state it. F1 ≤ 1 is our bound: the circumsolar disc
+	// cannot hold more than the whole diffuse, and above 1 the isotropic background
+	// DHI·(1 − F1) turns negative. The fit exceeds 1 only far outside its data, at the
+	// sun's last degrees above the horizon, where the air mass makes Δ large (GHI 67,
+	// DNI 45, DHI 65 W/m² at 89.5° zenith gives Δ ≈ 1.8 and F1 ≈ 1.1 in bin 2).
+	f1 = math.Min(1, math.Max(0, c[0]+c[1]*delta+c[2]*zenithRad))
 	f2 = c[3] + c[4]*delta + c[5]*zenithRad
 	return f1, f2
 }
@@ -143,13 +149,15 @@ func perezF(s Sky, zenithRad, i0 float64) (f1, f2 float64) {
 //   - HayDavies: Ai = DNI/I0; Isotropic DHI·(1 − Ai)(1 + cos β)/2, Circumsolar DHI·Ai·Rb
 //     with Rb = max(0, cos θ)/max(cos 85°, cos Z).
 //   - Perez: Isotropic DHI·(1 − F1)(1 + cos β)/2, Circumsolar DHI·F1·a/b with
-//     a = max(0, cos θ), b = max(cos 85°, cos Z), Horizon DHI·F2·sin β.
+//     a = max(0, cos θ), b = max(cos 85°, cos Z) (the bound on a/b of Perez et al. 1990),
+//     Horizon DHI·F2·sin β. F1 lies in [0, 1] (see perezF) and Horizon is raised to
+//     −Isotropic where F2 is so negative that the band would be darker than black.
 //
 // With the sun at or below the horizon (zenith ≥ 90°) Beam and Circumsolar are 0 and the
 // whole diffuse is treated as isotropic background (Perez with F1 = 0 and F2 from the
 // horizon-clamped zenith). Negative DNI, DHI or GHI are read as 0; an unknown model is
 // treated as Perez; albedo is clamped to [0, 1]. The result never contains NaN for
-// finite inputs.
+// finite inputs, and no component but Horizon is ever negative.
 func Transpose(m SkyModel, s Sky, incidenceDeg, tiltDeg float64) Components {
 	s.DNI = math.Max(0, s.DNI)
 	s.DHI = math.Max(0, s.DHI)
@@ -193,10 +201,31 @@ func Transpose(m SkyModel, s Sky, incidenceDeg, tiltDeg float64) Components {
 		}
 		c.Isotropic = s.DHI * (1 - f1) * viewSky
 		c.Circumsolar = s.DHI * f1 * a / b
-		c.Horizon = s.DHI * f2 * sinTilt
-		if sky := c.Isotropic + c.Circumsolar + c.Horizon; sky < 0 {
-			c.Horizon -= sky
-		}
+		c.Horizon = math.Max(s.DHI*f2*sinTilt, -c.Isotropic)
 	}
 	return c
+}
+
+// View is how much of each light source a point on a plane sees, as fractions of what an
+// unobstructed plane of the same tilt sees (1 = nothing in the way), together with the
+// incidence-angle modifiers for each source. The zero value sees nothing.
+type View struct {
+	Sky, Horizon, Ground float64 // view factors of the dome, the horizon band and the ground
+	// IAMBeam applies to Beam and Circumsolar, IAMSky to Isotropic and Horizon, IAMGround to
+	// Ground.
+	IAMBeam, IAMSky, IAMGround float64
+}
+
+// OnPlane returns the irradiance (W/m²) that reaches a point seeing v, split into the part
+// that comes from the sun's direction (Beam and Circumsolar, to be scaled by the point's
+// sunlit fraction) and the diffuse rest. Both are never negative and finite for finite
+// input: a negative Horizon darkens the dome light the point sees but never below zero,
+// even where the point sees more of the horizon band than of the dome. Negative view
+// factors and modifiers are read as 0.
+func (c Components) OnPlane(v View) (direct, diffuse float64) {
+	pos := func(x float64) float64 { return math.Max(0, x) }
+	direct = pos(c.Beam+c.Circumsolar) * pos(v.IAMBeam)
+	sky := pos(c.Isotropic*pos(v.Sky)+c.Horizon*pos(v.Horizon)) * pos(v.IAMSky)
+	diffuse = sky + pos(c.Ground)*pos(v.Ground)*pos(v.IAMGround)
+	return direct, diffuse
 }

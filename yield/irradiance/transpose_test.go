@@ -355,3 +355,70 @@ func TestPerezNegativeSkyClamp(t *testing.T) {
 		t.Errorf("isotropic %g, want %g (F1 = 0 in bin 5 at Δ ≈ 2)", c.Isotropic, 1371*0.5)
 	}
 }
+
+// TestPerezLowSun holds the low-sun record that once gave a cell negative light: GHI 67,
+// DNI 45, DHI 65 W/m² in the last minutes before sunset. At Z = 89.8° the air mass is 35.1
+// (Kasten & Young 1989), Δ = 65·35.1/1367 = 1.67 and ε = 1.14 (bin 2), so the fit gives
+// F1 = 0.1299 + 0.6826·1.67 − 0.1514·1.567 = 1.031 and F2 = 0.046 [hand calculation from
+// Perez et al. 1990, a regression value]. F1 is bounded at 1, so the isotropic background is
+// exactly zero and the circumsolar part is the whole DHI scaled by a/b.
+func TestPerezLowSun(t *testing.T) {
+	s := Sky{GHI: 67, DNI: 45, DHI: 65, ZenithDeg: 89.8, DNIExtra: 1367, Albedo: 0.2}
+	tests := []struct {
+		name        string
+		incid, tilt float64
+		field       func(Components) float64
+		want, tol   float64
+		reason      string
+	}{
+		{"isotropic bounded at zero", 60, 35, func(c Components) float64 { return c.Isotropic }, 0, 1e-12,
+			"F1 bounded at 1"},
+		{"circumsolar is the whole diffuse times a/b", 60, 35, func(c Components) float64 { return c.Circumsolar },
+			65 * 0.5 / math.Cos(85*deg), 1e-9, "DHI·1·cos 60°/cos 85°"},
+		{"horizon band from F2", 60, 35, func(c Components) float64 { return c.Horizon },
+			65 * 0.0459 * math.Sin(35*deg), 0.01, "DHI·F2·sin β with F2 = 0.0459 [calc]"},
+		{"facing away: sky light is the horizon band alone", 100, 35, func(c Components) float64 { return c.SkyDiffuse() },
+			65 * 0.0459 * math.Sin(35*deg), 0.01, "a = 0, isotropic 0"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			got := tc.field(Transpose(Perez, s, tc.incid, tc.tilt))
+			if !scalar.EqualWithinAbsOrRel(got, tc.want, tc.tol, 1e-9) {
+				t.Errorf("got %.6f, want %.6f ± %g (%s)", got, tc.want, tc.tol, tc.reason)
+			}
+		})
+	}
+	// A shaded cell on a plane facing away, seeing part of the dome and all of the horizon
+	// band: never negative light.
+	for _, z := range []float64{88, 89, 89.5, 89.8, 89.95} {
+		s.ZenithDeg = z
+		c := Transpose(Perez, s, 100, 35)
+		direct, diffuse := c.OnPlane(View{Sky: 0.3, Horizon: 1, Ground: 0.5, IAMBeam: 1, IAMSky: 0.95, IAMGround: 0.7})
+		if direct < 0 || diffuse < 0 || c.Isotropic < 0 {
+			t.Errorf("Z %g: direct %g diffuse %g, components %+v", z, direct, diffuse, c)
+		}
+	}
+}
+
+// TestOnPlane checks the split against hand sums of its definition and the clamp of a
+// horizon band darker than the dome light the point sees.
+func TestOnPlane(t *testing.T) {
+	c := Components{Beam: 500, Isotropic: 80, Circumsolar: 40, Horizon: -30, Ground: 20}
+	tests := []struct {
+		name                 string
+		v                    View
+		wantDirect, wantDiff float64
+	}{
+		{"open plane", View{1, 1, 1, 0.9, 0.95, 0.7}, 540 * 0.9, (80-30)*0.95 + 20*0.7},
+		{"horizon darker than the dome seen: sky clamps at 0", View{0.2, 1, 1, 1, 1, 1}, 540, 20},
+		{"nothing seen", View{}, 0, 0},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			d, f := c.OnPlane(tc.v)
+			if !scalar.EqualWithinAbs(d, tc.wantDirect, 1e-9) || !scalar.EqualWithinAbs(f, tc.wantDiff, 1e-9) {
+				t.Errorf("got %g, %g, want %g, %g (sums of the definition)", d, f, tc.wantDirect, tc.wantDiff)
+			}
+		})
+	}
+}
