@@ -5,10 +5,12 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"strings"
 	"sunstring/geo"
 	"sunstring/shading"
 	"sunstring/yield"
 	"sunstring/yield/report"
+	"sunstring/yield/weather"
 
 	"github.com/paulmach/orb"
 )
@@ -235,4 +237,30 @@ func ringOf(r orb.Ring) [][2]float64 {
 		out[i] = [2]float64(p)
 	}
 	return out
+}
+
+// SkyView is the sun-path chart's input for one module by id: the sun's paths over a typical
+// year and the silhouettes of everything that stands above the module's horizon.
+func (p *Project) SkyView(moduleID string) (*report.SunPath, error) {
+	idx := -1
+	ids := make([]string, 0, len(p.Modules))
+	for i, m := range p.Modules {
+		if m.ID == moduleID {
+			idx = i
+		}
+		ids = append(ids, m.ID)
+	}
+	if idx < 0 {
+		return nil, badInput{fmt.Errorf("module %q: no such module on %s; modules: %s", moduleID, p.Cfg.File, strings.Join(ids, ", "))}
+	}
+	sc, err := shading.NewScene(p.Site, p.Modules, shading.Options{Horizon: p.Horizon, Workers: 1})
+	if err != nil {
+		return nil, fmt.Errorf("sky view: %w", err)
+	}
+	const step = 1.0 // degrees of azimuth: finer than a chimney seen from a few metres
+	return &report.SunPath{
+		Observer: p.Observer, Zone: p.Cfg.Zone, Year: weather.TypicalYear,
+		Outlines: sc.Silhouette(idx, step), AzStepDeg: step, Module: moduleID,
+		ShadeLossPct: -1,
+	}, nil
 }
