@@ -121,14 +121,18 @@ func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 	for _, f := range p.Site.Faces {
 		pl.Faces = append(pl.Faces, report.Shape{ID: f.ID, Ring: ringOf(f.Plan)})
 	}
-	for _, b := range p.Site.Blocks {
-		pl.Blocks = append(pl.Blocks, report.Shape{ID: b.ID, Ring: ringOf(b.Footprint)})
+	// Every obstacle is drawn by its shape, whatever kind (or file) it came from.
+	for _, ob := range p.Site.Obstacles() {
+		switch {
+		case ob.Prism != nil:
+			pl.Blocks = append(pl.Blocks, report.Shape{ID: ob.ID, Ring: ringOf(ob.Prism.Footprint)})
+		case ob.Crown != nil:
+			t := ob.Crown
+			pl.Trees = append(pl.Trees, report.TreeMark{ID: ob.ID, X: t.Trunk[0], Y: t.Trunk[1], CrownRadiusM: t.CrownRadiusM})
+		}
 	}
 	for _, a := range p.Site.Avoids {
 		pl.Avoids = append(pl.Avoids, report.Shape{ID: a.ID, Ring: ringOf(a.Area)})
-	}
-	for _, t := range p.Site.Trees {
-		pl.Trees = append(pl.Trees, report.TreeMark{ID: t.ID, X: t.Trunk[0], Y: t.Trunk[1], CrownRadiusM: t.CrownRadiusM})
 	}
 	index := map[string]int{}
 	for i, m := range p.Modules {
