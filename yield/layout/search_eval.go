@@ -107,7 +107,6 @@ func newSearcher(ctx context.Context, p Problem, n int, eval Evaluator, opt Opti
 	return s
 }
 
-
 func dot(a, b []float64) float64 {
 	d := 0.0
 	for i := range a {

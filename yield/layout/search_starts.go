@@ -8,7 +8,6 @@ import (
 	"sunstring/yield/electric"
 )
 
-
 // starts builds the shape's starting states.
 func (s *searcher) starts(sh Shape) []state {
 	inputs, lengths := slotsOf(sh)

@@ -97,4 +97,3 @@ func remove(s []int, m int) []int {
 	i := slices.Index(s, m)
 	return slices.Delete(s, i, i+1)
 }
-

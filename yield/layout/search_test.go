@@ -315,7 +315,7 @@ func TestSearchMonotone(t *testing.T) {
 		two, twoOut, three := run(2, false), run(2, true), run(3, false)
 		g, _ := r.eval(given)
 		for _, c := range []struct {
-			name        string
+			name         string
 			wide, narrow float64
 		}{
 			{"leave-out against not", twoOut, two},
