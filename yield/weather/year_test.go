@@ -68,7 +68,7 @@ func TestReadCSVWarnsAboutPartialYear(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !strings.Contains(strings.Join(s.Warnings, "\n"), "not exactly one year") {
+	if !strings.Contains(strings.Join(s.Warnings, "\n"), "not one whole year") {
 		t.Errorf("warnings %q lack the partial-year note", s.Warnings)
 	}
 }
