@@ -22,7 +22,7 @@ type kind struct {
 }
 
 // kinds lists every kind in the order messages name them and obstacles are listed.
-var kinds = []*kind{&roofKind, &blockKind, &treeKind, &avoidKind, &panelKind}
+var kinds = []*kind{&roofKind, &buildingKind, &blockKind, &treeKind, &avoidKind, &panelKind}
 
 // kindNamed returns the kind called name, or nil.
 func kindNamed(name string) *kind {
@@ -34,7 +34,7 @@ func kindNamed(name string) *kind {
 	return nil
 }
 
-// kindList names the kinds for messages: "roof, block, tree, avoid or panel".
+// kindList names the kinds for messages: "roof, building, block, tree, avoid or panel".
 func kindList() string {
 	names := make([]string, len(kinds))
 	for i, k := range kinds {
