@@ -196,8 +196,17 @@ func (b *Building) roofPieces(latDeg float64, razGiven bool) ([]roofPiece, strin
 	} else {
 		pieces = b.lPieces(pts, ax)
 	}
-	// By aspect, so that the faces' order does not hang on which way the ridge was given.
-	slices.SortStableFunc(pieces, func(p, q roofPiece) int { return cmp.Compare(p.aspectDeg, q.aspectDeg) })
+	// The face that looks most toward the equator first (the roof order wires it first, as a
+	// surveyor drawing the faces would list them), then by aspect: the order does not hang on
+	// which way the ridge was given.
+	sunny := 180.0
+	if latDeg < 0 {
+		sunny = 0
+	}
+	slices.SortStableFunc(pieces, func(p, q roofPiece) int {
+		return cmp.Or(cmp.Compare(math.Round(angleDiffDeg(p.aspectDeg, sunny)*1e6), math.Round(angleDiffDeg(q.aspectDeg, sunny)*1e6)),
+			cmp.Compare(p.aspectDeg, q.aspectDeg))
+	})
 	return pieces, "", ""
 }
 

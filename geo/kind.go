@@ -3,7 +3,8 @@ package geo
 import "strings"
 
 // kind is one value of a map feature's "kind" property. Everything the package knows of a kind
-// lives in its own file (kind_roof.go, kind_block.go, kind_tree.go, kind_marks.go) and is
+// lives in its own file (kind_roof.go, kind_building.go, kind_block.go, kind_tree.go,
+// kind_marks.go) and is
 // gathered in kinds: the geometry and properties the decoder expects, how a structurally sound
 // feature is validated and added to the site, how it is written back by ExportGeoJSON and, for
 // an obstruction, the bodies it casts shade with (Site.Obstacles), which the shading package
