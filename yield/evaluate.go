@@ -8,9 +8,72 @@ import (
 
 // Loss is one step of the breakdown from plane-of-array irradiation to AC energy.
 type Loss struct {
-	Step string
-	KWh  float64 // energy lost at this step
-	Pct  float64 // of the energy entering the step
+	Group string // where the energy goes: one of LossGroups
+	Step  string
+	KWh   float64 // energy lost at this step
+	Pct   float64 // of the energy entering the step
+}
+
+// LossGroups name where the energy goes, in the order the breakdown follows it: the light
+// on its way to the cells, the conversion in the modules, the strings and their cables, the
+// inverter, and the running of the system.
+var LossGroups = []string{GroupLight, GroupModules, GroupStrings, GroupInverter, GroupOperation}
+
+// The loss groups.
+const (
+	GroupLight     = "light reaching the modules"
+	GroupModules   = "the modules themselves"
+	GroupStrings   = "strings and cables"
+	GroupInverter  = "the inverter"
+	GroupOperation = "operation"
+)
+
+// The three ways shade costs energy. The same words name the shade split (ShadeSplit),
+// the breakdown's shade steps (with the ShadePrefix) and what the report prints.
+const (
+	ShadeLight   = "less light on the modules"
+	ShadeStrings = "shaded modules holding back their strings"
+	ShadeBypass  = "bypass diodes in partly shaded modules"
+	ShadePrefix  = "shade: "
+)
+
+// The breakdown's steps, by group. Steps marked as shade carry ShadePrefix.
+const (
+	StepShadeLight   = ShadePrefix + ShadeLight
+	StepIncidence    = "light reflected off the glass (angle of incidence)"
+	StepSoiling      = "dirt on the glass (soiling)"
+	StepHeat         = "heat and weak light"
+	StepShadeBypass  = ShadePrefix + ShadeBypass
+	StepShadeStrings = ShadePrefix + ShadeStrings
+	StepUnlike       = "unlike modules in one string (orientation, temperature)"
+	StepTolerance    = "module-to-module tolerance"
+	StepCables       = "DC cables"
+	StepWindow       = "outside the inverter's voltage window"
+	StepCurrentLimit = "above an input's current limit"
+	StepTracker      = "tracker held on a local peak"
+	StepConversion   = "conversion to AC"
+	StepACLimit      = "held at the inverter's AC power"
+	StepNight        = "the inverter's own use at night"
+	StepAvailability = "availability"
+)
+
+// ShadeSplit is the share of the year's energy lost to shade and how it divides. The AC
+// energy lost (the same modules and strings without shade, less with it) is apportioned
+// to the three causes by the breakdown's shade steps, so that the parts add up to the
+// whole even though the steps sit at different points of the chain.
+type ShadeSplit struct {
+	LostKWh float64 // UnshadedACkWh − ACkWh
+	LostPct float64 // of UnshadedACkWh: the layout's ShadeLossPct
+	// Parts in the order ShadeLight, ShadeStrings, ShadeBypass: kWh of AC a year, and
+	// percentage points of UnshadedACkWh (they add up to LostPct).
+	Parts [3]ShadePart
+}
+
+// ShadePart is one cause of the shade loss.
+type ShadePart struct {
+	Cause string // ShadeLight, ShadeStrings or ShadeBypass
+	KWh   float64
+	Pct   float64
 }
 
 // LayoutResult is a layout's year.
@@ -30,6 +93,7 @@ type LayoutResult struct {
 	// reference yield of the performance ratio (IEC 61724-1), kWh/m² = kWh/kWp at 1 kW/m².
 	RefPOAKWhM2 float64
 	Losses      []Loss
+	Shade       ShadeSplit
 }
 
 // options fills in the inverter's night time, from the year's records, and the flat DC
@@ -57,14 +121,7 @@ func (m *Model) flat() (dcKeep, avail float64) {
 // EvaluateACWh is the layout's annual AC energy (Wh) net of every loss, as Evaluate's ACkWh,
 // without the unshaded reference and the breakdown: the layout search's objective.
 func (m *Model) EvaluateACWh(l electric.Layout, opt electric.EvalOptions) (float64, error) {
-	return m.EvaluateACWhCached(l, opt, nil)
-}
-
-// EvaluateACWhCached is EvaluateACWh through a cache of the inputs' shares of the year, so
-// that a search that changes one or two inputs at a time recomputes only those; the value is
-// the same to the bit. A nil cache computes everything.
-func (m *Model) EvaluateACWhCached(l electric.Layout, opt electric.EvalOptions, c *electric.EvalCache) (float64, error) {
-	yr, err := m.Year.EvaluateCached(l, m.In.System.Inverter, m.options(opt), c)
+	yr, err := m.Year.Evaluate(l, m.In.System.Inverter, m.options(opt))
 	if err != nil {
 		return 0, fmt.Errorf("yield: layout: %w", err)
 	}
@@ -114,7 +171,7 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	}
 
 	// The breakdown, over the layout's modules only.
-	var poaUn, poaSh, poaIAM, poaSoil, own, ownUn float64
+	var poaUn, poaSh, poaIAM, poaSoil, poaSoilUn, own, ownUn float64
 	ownAll := m.Year.ModuleDCWh()
 	var ownUnAll []float64
 	if m.YearUnshaded != nil {
@@ -127,6 +184,7 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 				poaSh += m.modPOASh[k]
 				poaIAM += m.modPOAIAM[k]
 				poaSoil += m.modPOASoil[k]
+				poaSoilUn += m.modPOASoilUn[k]
 				own += ownAll[k]
 				if ownUnAll != nil {
 					ownUn += ownUnAll[k]
@@ -141,13 +199,21 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	}
 	var steps []Loss
 	level := poaUn * eta
-	add := func(name string, lossWh float64) {
+	add := func(group, name string, lossWh float64) {
 		pct := 0.0
 		if level > 0 {
 			pct = 100 * lossWh / level
 		}
-		steps = append(steps, Loss{Step: name, KWh: lossWh / 1000, Pct: pct})
+		steps = append(steps, Loss{Group: group, Step: name, KWh: lossWh / 1000, Pct: pct})
 		level -= lossWh
+	}
+	// The modules convert the light they get less well than at STC (heat, weak light);
+	// measured on the unshaded reference, that share is the same modules' own. What a
+	// partly shaded module loses beyond it (cells held back, bypass diodes conducting) is
+	// shade's.
+	keepUn := 1.0
+	if ownUn > 0 && poaSoilUn > 0 {
+		keepUn = ownUn / (poaSoilUn * eta)
 	}
 	// Strings lose to mismatch even without shade (faces of different orientation or
 	// temperature in one string or on one input); that share, measured on the unshaded
@@ -157,26 +223,52 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	if ownUn > 0 {
 		plain = own * (1 - yu.GlobalDCWh/ownUn)
 	}
-	add("shade on the modules (irradiance)", (poaUn-poaSh)*eta)
-	add("incidence angle (reflection)", (poaSh-poaIAM)*eta)
-	add("soiling", (poaIAM-poaSoil)*eta)
-	add("temperature, low light and bypass diodes", poaSoil*eta-own)
-	add("string mismatch without shade (orientation, temperature)", plain)
-	add("string mismatch under shade", mismatch-plain)
-	add("MPPT voltage window", yr.WindowLossWh)
-	add("input current limit", yr.CurrentLimitLossWh)
+	shadeLight := (poaUn - poaSh) * eta
+	shadeBypass := poaSoil*eta*keepUn - own
+	shadeStrings := mismatch - plain
+	add(GroupLight, StepShadeLight, shadeLight)
+	add(GroupLight, StepIncidence, (poaSh-poaIAM)*eta)
+	add(GroupLight, StepSoiling, (poaIAM-poaSoil)*eta)
+	add(GroupModules, StepHeat, poaSoil*eta*(1-keepUn))
+	add(GroupModules, StepShadeBypass, shadeBypass)
+	add(GroupStrings, StepShadeStrings, shadeStrings)
+	add(GroupStrings, StepUnlike, plain)
+	add(GroupStrings, StepTolerance, yr.DCWh*sys.Losses.MismatchPct/100)
+	add(GroupStrings, StepCables, yr.DCWh*(1-sys.Losses.MismatchPct/100)*sys.Losses.WiringPct/100)
+	add(GroupInverter, StepWindow, yr.WindowLossWh)
+	add(GroupInverter, StepCurrentLimit, yr.CurrentLimitLossWh)
 	if yr.TrackerLossWh != 0 {
-		add("tracker on a local maximum", yr.TrackerLossWh)
+		add(GroupInverter, StepTracker, yr.TrackerLossWh)
 	}
-	add("module tolerance mismatch", yr.DCWh*sys.Losses.MismatchPct/100)
-	add("DC wiring", yr.DCWh*(1-sys.Losses.MismatchPct/100)*sys.Losses.WiringPct/100)
 	dcIn := yr.DCWh * opt.DCKeep
-	add("inverter conversion", dcIn-yr.ACWh-yr.ClippedWh)
-	add("inverter clipping (AC limit)", yr.ClippedWh)
-	add("inverter night consumption", yr.NightWh)
-	add("availability", (yr.ACWh-yr.NightWh)*(1-avail))
+	add(GroupInverter, StepConversion, dcIn-yr.ACWh-yr.ClippedWh)
+	add(GroupInverter, StepACLimit, yr.ClippedWh)
+	add(GroupOperation, StepNight, yr.NightWh)
+	add(GroupOperation, StepAvailability, (yr.ACWh-yr.NightWh)*(1-avail))
+	r.Shade = splitShade(r.UnshadedACkWh, r.ACkWh, [3]float64{shadeLight, shadeStrings, shadeBypass})
 	r.Losses = steps
 	return r, nil
+}
+
+// splitShade apportions the AC energy shade costs (unshaded less shaded) to the three
+// causes by their steps in the breakdown, w (Wh, in the order ShadeLight, ShadeStrings,
+// ShadeBypass).
+func splitShade(unshadedKWh, acKWh float64, w [3]float64) ShadeSplit {
+	sp := ShadeSplit{Parts: [3]ShadePart{{Cause: ShadeLight}, {Cause: ShadeStrings}, {Cause: ShadeBypass}}}
+	if unshadedKWh <= 0 {
+		return sp
+	}
+	sp.LostKWh = unshadedKWh - acKWh
+	sp.LostPct = 100 * sp.LostKWh / unshadedKWh
+	sum := w[0] + w[1] + w[2]
+	if sum == 0 {
+		return sp
+	}
+	for i := range sp.Parts {
+		sp.Parts[i].KWh = sp.LostKWh * w[i] / sum
+		sp.Parts[i].Pct = 100 * sp.Parts[i].KWh / unshadedKWh
+	}
+	return sp
 }
 
 // modulesOf lists the layout's modules.

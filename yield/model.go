@@ -102,6 +102,9 @@ type Model struct {
 	// Per module, Wh over the year on the module's area: unshaded, shaded, after incidence
 	// losses, after soiling.
 	modPOAUn, modPOASh, modPOAIAM, modPOASoil []float64
+	// modPOASoilUn is the unshaded reference's irradiation after incidence losses and
+	// soiling, Wh per module: what the reference year's modules convert.
+	modPOASoilUn []float64
 	// MonthlyUnshadedPOAWh is the unshaded plane-of-array irradiation of all modules by month.
 	MonthlyUnshadedPOAWh [12]float64
 	// RefPOAKWhM2 is the module-power-weighted mean unshaded POA irradiation (kWh/m²), the
@@ -131,7 +134,8 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 	grid := geo.CellGrid{Cols: cols, Rows: rows}
 	nm := len(in.Modules)
 	m := &Model{In: in, Module: mod, Records: in.Weather.Records, Stats: make([]ModuleStat, nm),
-		modPOAUn: make([]float64, nm), modPOASh: make([]float64, nm), modPOAIAM: make([]float64, nm), modPOASoil: make([]float64, nm)}
+		modPOAUn: make([]float64, nm), modPOASh: make([]float64, nm), modPOAIAM: make([]float64, nm), modPOASoil: make([]float64, nm),
+		modPOASoilUn: make([]float64, nm)}
 
 	// Sun for every record; sun-up records become shading steps.
 	type sunStep struct {
@@ -286,6 +290,7 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 			m.modPOASh[i] += shaded * area * hours
 			m.modPOAIAM[i] += withIAM * area * hours
 			m.modPOASoil[i] += soil * withIAM * area * hours
+			m.modPOASoilUn[i] += float64(unIrr[s*n+i]) * area * hours
 			beamSum[i] += c.tc.Beam * hours
 			beamLit[i] += c.tc.Beam * litFrac * hours
 			m.POAUnshadedWh += unsh * area * hours

@@ -104,7 +104,7 @@ func TestOpenRoof(t *testing.T) {
 	sum := 0.0
 	for _, s := range r.Losses {
 		sum += s.KWh
-		if s.Step == "shade on the modules (irradiance)" && s.KWh > 1e-6 {
+		if s.Step == StepShadeLight && s.KWh > 1e-6 {
 			t.Errorf("shade loss %.3f kWh on an open roof", s.KWh)
 		}
 	}
@@ -150,6 +150,44 @@ func TestWallShadesAndCosts(t *testing.T) {
 	lostIrr := 100 * (1 - walled.POAShadedWh/walled.POAUnshadedWh)
 	if !(rw.ShadeLossPct > lostIrr) {
 		t.Errorf("layout shade loss %.2f %% not above the irradiance shade loss %.2f %%", rw.ShadeLossPct, lostIrr)
+	}
+	// The shade split is the layout's shade loss, and its parts add up to it (by
+	// construction; a change that splits differently must keep the sum).
+	sp := rw.Shade
+	if !scalar.EqualWithinAbs(sp.LostPct, rw.ShadeLossPct, 1e-9) {
+		t.Errorf("shade split %.3f %%, layout shade loss %.3f %%", sp.LostPct, rw.ShadeLossPct)
+	}
+	var parts float64
+	for _, p := range sp.Parts {
+		parts += p.Pct
+	}
+	if !scalar.EqualWithinAbs(parts, sp.LostPct, 1e-9) {
+		t.Errorf("shade parts add up to %.3f %%, want %.3f %%", parts, sp.LostPct)
+	}
+	// A wall's edge crosses the lowest row's cells: the partly shaded modules lose more
+	// than their lost light (bypass diodes), and the string follows its weakest module;
+	// both parts are positive (common practice).
+	if !(sp.Parts[1].KWh > 0 && sp.Parts[2].KWh > 0 && sp.Parts[0].KWh > 0) {
+		t.Errorf("shade parts %+v: want each positive under a wall's edge", sp.Parts)
+	}
+	// The open roof has no shade to split, and the heat step there is the modules' own.
+	for _, p := range ro.Shade.Parts {
+		if math.Abs(p.Pct) > 0.01 {
+			t.Errorf("open roof: shade part %q %.3f %%, want 0", p.Cause, p.Pct)
+		}
+	}
+	// Groups follow the energy's way, each step in one of them and in their order.
+	gi := map[string]int{}
+	for i, g := range LossGroups {
+		gi[g] = i
+	}
+	last := 0
+	for _, st := range rw.Losses {
+		i, ok := gi[st.Group]
+		if !ok || i < last {
+			t.Errorf("step %q in group %q: unknown or out of order", st.Step, st.Group)
+		}
+		last = i
 	}
 }
 
@@ -252,9 +290,9 @@ func TestUnshadedReference(t *testing.T) {
 	var plain, underShade float64
 	for _, l := range r.Losses {
 		switch l.Step {
-		case "string mismatch without shade (orientation, temperature)":
+		case StepUnlike:
 			plain = l.Pct
-		case "string mismatch under shade":
+		case StepShadeStrings:
 			underShade = l.Pct
 		}
 	}
