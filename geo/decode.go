@@ -77,8 +77,7 @@ type decoder struct {
 	probs Problems
 	warns []string
 	proj  *ENU
-	lat0  float64        // the site origin's latitude, for hemisphere defaults
-	ids   map[string]int // feature index by id, for ids that kinds derive
+	lat0  float64 // the site origin's latitude, for hemisphere defaults
 	site  *Site
 }
 

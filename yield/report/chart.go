@@ -75,10 +75,18 @@ func MonthlyChart(ac, unshaded *[12]float64, note string) *plot.Plot {
 	if note != "" {
 		title += "\n" + note
 	}
-	styleTitle(p, title)
+	// A blank line under the title holds the legend, above the bars and the grid.
+	styleTitle(p, title+"\n\n ")
 	p.Y.Label.Text = "AC energy (kWh)"
 	p.Y.Tick.Marker = thousandsTicks{}
 	p.Y.Min = 0
+	// Horizontal lines only, drawn first so the bars cover them; the months need no
+	// vertical ones.
+	grid := plotter.NewGrid()
+	grid.Vertical.Width = 0
+	grid.Horizontal.Color = Muted
+	grid.Horizontal.Width = vg.Points(0.3)
+	p.Add(grid)
 	w := vg.Points(11)
 	vals := func(a *[12]float64) plotter.Values {
 		v := make(plotter.Values, 12)
@@ -98,9 +106,10 @@ func MonthlyChart(ac, unshaded *[12]float64, note string) *plot.Plot {
 		p.Legend.Add("without shade", ub)
 	}
 	p.Add(bars)
-	p.Legend.Add("estimate", bars)
+	p.Legend.Add("estimate, with shade", bars)
 	p.Legend.Top = true
+	p.Legend.YOffs = vg.Points(26)
 	p.NominalX(MonthNames...)
-	p.Add(plotter.NewGrid())
+	p.X.Min, p.X.Max = -0.7, 11.7 // the outer bars whole
 	return p
 }

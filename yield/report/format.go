@@ -34,3 +34,11 @@ func Thousands(x float64, d int) string {
 
 // Pct formats a percentage with one decimal and its unit ("12.3 %").
 func Pct(x float64) string { return Thousands(x, 1) + " %" }
+
+// Count says n things with the noun's singular or plural ("1 module", "2 modules").
+func Count(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
+}

@@ -29,26 +29,46 @@ func TestThousands(t *testing.T) {
 	}
 }
 
-func TestShadeClassAndStart(t *testing.T) {
+func TestSunClassAndStart(t *testing.T) {
 	classes := []struct {
-		name string
-		pct  float64
-		want int
+		name  string
+		share float64 // % of the roof's best module without shade
+		want  int
 	}{
-		{"unshaded", 0, 0},
-		{"just under the first bound", 1.99, 0},
-		{"on a bound goes up", 5, 2},
-		{"heavy", 35, 4},
+		{"the best spot", 100, 0},
+		{"on a bound stays in the upper class", 95, 0},
+		{"just under the first bound", 94.99, 1},
+		{"a north face", 60, 4},
 	}
 	for _, tc := range classes {
 		t.Run(tc.name, func(t *testing.T) {
-			if got := ShadeClass(tc.pct); got != tc.want {
-				t.Errorf("ShadeClass(%v) = %d, want %d", tc.pct, got, tc.want)
+			if got := SunClass(tc.share); got != tc.want {
+				t.Errorf("SunClass(%v) = %d, want %d", tc.share, got, tc.want)
 			}
 		})
 	}
-	// The waterfall starts from AC + all losses: 2,345.6 + 150 + 60 + 90 = 2,645.6 kWh.
-	if got := StartKWh(2345.6, fixture("file").Summary.Losses); !scalar.EqualWithinAbs(got, 2645.6, 1e-9) {
-		t.Errorf("StartKWh = %v, want 2645.6 (sum of the fixture's rows)", got)
+	// The breakdown starts from AC + all losses: 2,345.6 + 150 + 60 + 20 + 30 + 90 + 0.4 =
+	// 2,696 kWh.
+	if got := StartKWh(2345.6, fixture("file").Summary.Losses); !scalar.EqualWithinAbs(got, 2696, 1e-9) {
+		t.Errorf("StartKWh = %v, want 2696 (sum of the fixture's rows)", got)
+	}
+}
+
+func TestCount(t *testing.T) {
+	tests := []struct {
+		name string
+		n    int
+		want string
+	}{
+		{"none", 0, "0 modules"},
+		{"one", 1, "1 module"},
+		{"two", 2, "2 modules"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if got := Count(tc.n, "module", "modules"); got != tc.want {
+				t.Errorf("Count(%d) = %q, want %q", tc.n, got, tc.want)
+			}
+		})
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"image/color"
 	"math"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -41,46 +42,64 @@ type TreeMark struct {
 	CrownRadiusM float64
 }
 
-// PlanModule is one module's outline seen from above and its annual shade loss.
+// PlanModule is one module's outline seen from above. Face, SunKWhM2, UnshadedKWhM2 and
+// ShadeLossPct are filled in from the summary's module results (by ID) when the charts are
+// made, so that the drawings show summary.json's figures.
 type PlanModule struct {
-	ID           string
-	Corners      [4][2]float64
-	ShadeLossPct float64
+	ID            string
+	Corners       [4][2]float64
+	Face          string
+	SunKWhM2      float64 // annual plane-of-array irradiation with shade
+	UnshadedKWhM2 float64 // the same without shade
+	ShadeLossPct  float64 // share of the module's light lost to shade
 }
 
-// ShadeBins are the upper bounds (%, exclusive) of the shade-loss classes of the plan chart;
-// the last class is open. Classes, not a continuous scale, so that a reader can match a
-// module to the legend at a glance.
-var ShadeBins = []float64{2, 5, 10, 20}
+// Label is the module's name on the drawings: row.column when the id is the face id,
+// row and column (ids from the fill), else the id itself.
+func (m PlanModule) Label() string {
+	if m.Face != "" && strings.HasPrefix(m.ID, m.Face+".") {
+		return m.ID[len(m.Face)+1:]
+	}
+	return m.ID
+}
 
-// shadeColours runs from a pale tint of the accent (little loss) to a dark shade of it (much
-// loss): darker reads as "more shade" in print and in grey.
-var shadeColours = []color.RGBA{
-	{R: 0xe4, G: 0xf1, B: 0xf2, A: 0xff},
-	{R: 0xa9, G: 0xd3, B: 0xd8, A: 0xff},
-	{R: 0x5f, G: 0xa3, B: 0xac, A: 0xff},
+// SunBins are the lower bounds of the plan chart's sunlight classes, in % of the
+// sunniest module's irradiation without shade on this roof; below the last one is the last
+// class. Classes, not a continuous scale, so that a reader can match a module to the
+// legend at a glance; relative to the roof's best so that a poorly facing face reads as
+// poor whether shade or its orientation is the cause.
+var SunBins = []float64{95, 90, 80, 70}
+
+// sunColours run from the accent (most sunlight) to a pale grey (least): the strong colour
+// is where the energy is, in print and in grey.
+var sunColours = []color.RGBA{
 	{R: 0x1b, G: 0x6f, B: 0x7a, A: 0xff},
-	{R: 0x0b, G: 0x33, B: 0x39, A: 0xff},
+	{R: 0x4f, G: 0x92, B: 0x9b, A: 0xff},
+	{R: 0x8a, G: 0xb9, B: 0xbf, A: 0xff},
+	{R: 0xc3, G: 0xdc, B: 0xdf, A: 0xff},
+	{R: 0xec, G: 0xef, B: 0xf0, A: 0xff},
 }
 
-// ShadeClass returns the index of the shade-loss class of pct in ShadeBins.
-func ShadeClass(pct float64) int {
-	for i, b := range ShadeBins {
-		if pct < b {
+// SunClass returns the sunlight class of a module that gets share % of the roof's best.
+func SunClass(share float64) int {
+	for i, b := range SunBins {
+		if share >= b {
 			return i
 		}
 	}
-	return len(ShadeBins)
+	return len(SunBins)
 }
 
-func shadeClassLabel(i int) string {
+// sunClassLabel names class i with the roof's best irradiation ref (kWh/m² a year).
+func sunClassLabel(i int, ref float64) string {
+	kwh := func(pct float64) string { return Thousands(ref*pct/100, 0) }
 	switch {
 	case i == 0:
-		return fmt.Sprintf("below %g %%", ShadeBins[0])
-	case i == len(ShadeBins):
-		return fmt.Sprintf("%g %% or more", ShadeBins[i-1])
+		return fmt.Sprintf("%s kWh/m² or more", kwh(SunBins[0]))
+	case i == len(SunBins):
+		return fmt.Sprintf("below %s kWh/m²", kwh(SunBins[i-1]))
 	default:
-		return fmt.Sprintf("%g to %g %%", ShadeBins[i-1], ShadeBins[i])
+		return fmt.Sprintf("%s to %s kWh/m²", kwh(SunBins[i]), kwh(SunBins[i-1]))
 	}
 }
 
@@ -152,32 +171,71 @@ func addPolygon(p *plot.Plot, xy plotter.XYs, fill color.Color, line color.Color
 	return pg
 }
 
-// planBase draws the faces, blocks, avoid areas and trees, and returns the extents of the
-// faces and modules: the drawing is framed on the roof, and a tree or a neighbour's house
-// farther away is cut at the frame (the sun-path chart shows those).
-func planBase(pl *Plan, p *plot.Plot) (minX, maxX, minY, maxY float64) {
-	minX, minY = math.Inf(1), math.Inf(1)
-	maxX, maxY = math.Inf(-1), math.Inf(-1)
+// reachM is how far from the roof the plan draws an obstacle: farther ones shade only at
+// low sun and would shrink the roof to a few pixels (the sun-path chart shows them).
+const reachM = 40.0
+
+// framed is what the plan's frame holds: the roof's extents grown by every obstacle
+// within reach, and the obstacles left out.
+type framed struct {
+	minX, maxX, minY, maxY float64
+	left                   []string // ids of obstacles beyond reach, not drawn
+	mPerPt                 float64  // metres per point of the picture, once fitted
+}
+
+// fit grows the frame to the proportions of a w×h picture with legendFrac of its width
+// kept for the legend on the right and a margin under the drawing for the scale bar.
+func (f *framed) fit(w, h vg.Length, legendFrac float64) {
+	dx, dy := math.Max(f.maxX-f.minX, 1), math.Max(f.maxY-f.minY, 1)
+	pad := 0.04 * math.Max(dx, dy)
+	f.minX, f.maxX, f.minY, f.maxY = f.minX-pad, f.maxX+pad, f.minY-pad-0.1*dy, f.maxY+pad
+	dx, dy = f.maxX-f.minX, f.maxY-f.minY
+	// The plot area is the picture less the title (about three lines of 12 pt); the
+	// drawing takes its left part, centred there, the legend the rest.
+	ratio := float64(w) / float64(h-vg.Points(46))
+	total := dx / (1 - legendFrac)
+	if total/dy > ratio {
+		extra := total/ratio - dy
+		f.minY -= extra / 2
+		f.maxY += extra / 2
+	} else {
+		total = dy * ratio
+		f.minX -= (total*(1-legendFrac) - dx) / 2
+	}
+	f.maxX = f.minX + total
+	f.mPerPt = (f.maxX - f.minX) / float64(w)
+}
+
+// textM is the width in metres of s at size points on the fitted drawing (Liberation Sans
+// averages a little over half an em per character).
+func (f framed) textM(s string, size float64) float64 {
+	return float64(len([]rune(s))) * 0.56 * size * f.mPerPt
+}
+
+// extent is the width and height of a ring's bounding box.
+func extent(r [][2]float64) (w, h float64) {
+	if len(r) == 0 {
+		return 0, 0
+	}
+	x0, x1, y0, y1 := r[0][0], r[0][0], r[0][1], r[0][1]
+	for _, q := range r {
+		x0, x1 = math.Min(x0, q[0]), math.Max(x1, q[0])
+		y0, y1 = math.Min(y0, q[1]), math.Max(y1, q[1])
+	}
+	return x1 - x0, y1 - y0
+}
+
+// frameOf takes the faces and modules, then every block and tree crown within reachM of
+// them, so that what casts shade on the roof is drawn whole.
+func frameOf(pl *Plan) framed {
+	f := framed{minX: math.Inf(1), minY: math.Inf(1), maxX: math.Inf(-1), maxY: math.Inf(-1)}
 	grow := func(x, y float64) {
-		minX, maxX = math.Min(minX, x), math.Max(maxX, x)
-		minY, maxY = math.Min(minY, y), math.Max(maxY, y)
+		f.minX, f.maxX = math.Min(f.minX, x), math.Max(f.maxX, x)
+		f.minY, f.maxY = math.Min(f.minY, y), math.Max(f.maxY, y)
 	}
-	for _, t := range pl.Trees {
-		addPolygon(p, circleXYs(t.X, t.Y, t.CrownRadiusM), treeFill, blockFill, vg.Points(0.6))
-		addPolygon(p, circleXYs(t.X, t.Y, math.Min(0.25, t.CrownRadiusM/4)), blockFill, nil, 0)
-	}
-	for _, f := range pl.Faces {
-		addPolygon(p, ringXYs(f.Ring), faceFill, Ink, vg.Points(0.8))
-		for _, q := range f.Ring {
+	for _, fc := range pl.Faces {
+		for _, q := range fc.Ring {
 			grow(q[0], q[1])
-		}
-	}
-	for _, b := range pl.Blocks {
-		addPolygon(p, ringXYs(b.Ring), blockFill, Ink, vg.Points(0.5))
-	}
-	for _, a := range pl.Avoids {
-		if pg := addPolygon(p, ringXYs(a.Ring), white, Ink, vg.Points(0.6)); pg != nil {
-			pg.LineStyle.Dashes = []vg.Length{vg.Points(2), vg.Points(2)}
 		}
 	}
 	for _, m := range pl.Modules {
@@ -185,36 +243,197 @@ func planBase(pl *Plan, p *plot.Plot) (minX, maxX, minY, maxY float64) {
 			grow(q[0], q[1])
 		}
 	}
-	if math.IsInf(minX, 0) {
-		return 0, 1, 0, 1
+	if math.IsInf(f.minX, 0) {
+		return framed{minX: 0, maxX: 1, minY: 0, maxY: 1}
 	}
-	return minX, maxX, minY, maxY
+	roof := f
+	dist := func(x, y float64) float64 {
+		dx := math.Max(0, math.Max(roof.minX-x, x-roof.maxX))
+		dy := math.Max(0, math.Max(roof.minY-y, y-roof.maxY))
+		return math.Hypot(dx, dy)
+	}
+	for _, b := range pl.Blocks {
+		near := false
+		for _, q := range b.Ring {
+			near = near || dist(q[0], q[1]) <= reachM
+		}
+		if !near {
+			f.left = append(f.left, b.ID)
+			continue
+		}
+		for _, q := range b.Ring {
+			grow(q[0], q[1])
+		}
+	}
+	for _, t := range pl.Trees {
+		if dist(t.X, t.Y)-t.CrownRadiusM > reachM {
+			f.left = append(f.left, t.ID)
+			continue
+		}
+		grow(t.X-t.CrownRadiusM, t.Y-t.CrownRadiusM)
+		grow(t.X+t.CrownRadiusM, t.Y+t.CrownRadiusM)
+	}
+	return f
 }
 
-// planFrame sets equal scales on both axes for a w×h picture, leaves room on the right for
-// the legend (legendFrac of the width) and under the drawing for the scale bar, and draws
-// the north arrow and the scale bar.
-func planFrame(p *plot.Plot, minX, maxX, minY, maxY float64, w, h vg.Length, legendFrac float64) {
+// ringCentre is the mean of a closed ring's vertices (the closing one counted once).
+func ringCentre(r [][2]float64) (x, y float64) {
+	n := len(r)
+	if n > 1 && r[0] == r[n-1] {
+		n--
+	}
+	if n == 0 {
+		return 0, 0
+	}
+	for _, q := range r[:n] {
+		x += q[0] / float64(n)
+		y += q[1] / float64(n)
+	}
+	return x, y
+}
+
+// planBase draws the faces, blocks, avoid areas and trees with their ids, and returns the
+// frame, fitted to a w×h picture: the roof and every obstacle within reach.
+func planBase(pl *Plan, p *plot.Plot, w, h vg.Length) framed {
+	f := frameOf(pl)
+	f.fit(w, h, legendFrac)
+	skip := map[string]bool{}
+	for _, id := range f.left {
+		skip[id] = true
+	}
+	var tx plotter.XYs
+	var tl []string
+	for _, t := range pl.Trees {
+		if skip[t.ID] {
+			continue
+		}
+		addPolygon(p, circleXYs(t.X, t.Y, t.CrownRadiusM), treeFill, blockFill, vg.Points(0.6))
+		addPolygon(p, circleXYs(t.X, t.Y, math.Min(0.25, t.CrownRadiusM/4)), blockFill, nil, 0)
+		tx = append(tx, plotter.XY{X: t.X, Y: t.Y - math.Min(0.25, t.CrownRadiusM/4)})
+		tl = append(tl, Printable(t.ID))
+	}
+	for _, fc := range pl.Faces {
+		addPolygon(p, ringXYs(fc.Ring), faceFill, Ink, vg.Points(0.8))
+	}
+	var bx, ax plotter.XYs
+	var bl, al []string
+	for _, b := range pl.Blocks {
+		if skip[b.ID] {
+			continue
+		}
+		addPolygon(p, ringXYs(b.Ring), blockFill, Ink, vg.Points(0.5))
+		// The id inside a block wide enough for it, else just above it.
+		x, y := ringCentre(b.Ring)
+		bw, bh := extent(b.Ring)
+		if f.textM(b.ID, 6) > 0.9*bw {
+			y += bh / 2
+			ax = append(ax, plotter.XY{X: x, Y: y})
+			al = append(al, Printable(b.ID))
+			continue
+		}
+		bx = append(bx, plotter.XY{X: x, Y: y})
+		bl = append(bl, Printable(b.ID))
+	}
+	for _, a := range pl.Avoids {
+		if pg := addPolygon(p, ringXYs(a.Ring), white, Ink, vg.Points(0.6)); pg != nil {
+			pg.LineStyle.Dashes = avoidDashes
+		}
+		x, y := ringCentre(a.Ring)
+		_, ah := extent(a.Ring)
+		ax = append(ax, plotter.XY{X: x, Y: y + ah/2})
+		al = append(al, Printable(a.ID))
+	}
+	addLabels(p, tx, tl, 6.5, Ink, text.XCenter, text.YTop)
+	addLabels(p, bx, bl, 6, Ink, text.XCenter, text.YCenter)
+	addLabels(p, ax, al, 6, Ink, text.XCenter, text.YBottom)
+	return f
+}
+
+// faceLabels names each face at its highest point on the drawing, above the outline.
+func faceLabels(pl *Plan, p *plot.Plot) {
+	var xy plotter.XYs
+	var ls []string
+	for _, fc := range pl.Faces {
+		if len(fc.Ring) == 0 {
+			continue
+		}
+		top := fc.Ring[0]
+		for _, q := range fc.Ring {
+			if q[1] > top[1]+1e-9 || (math.Abs(q[1]-top[1]) <= 1e-9 && q[0] < top[0]) {
+				top = q
+			}
+		}
+		xy = append(xy, plotter.XY{X: top[0], Y: top[1]})
+		ls = append(ls, "face "+Printable(fc.ID))
+	}
+	addLabels(p, xy, ls, 8, Ink, text.XCenter, text.YBottom)
+}
+
+// Outlines: an avoid area dotted, a module left unconnected dashed.
+var (
+	avoidDashes       = []vg.Length{vg.Points(0.8), vg.Points(1.6)}
+	unconnectedDashes = []vg.Length{vg.Points(2.5), vg.Points(1.5)}
+)
+
+// swatch is a legend entry's filled square, outlined with dashes when they are given.
+func swatch(fill, line color.Color, dashes []vg.Length) *plotter.Polygon {
+	sw, _ := plotter.NewPolygon(plotter.XYs{{}, {X: 1}, {X: 1, Y: 1}})
+	sw.Color = fill
+	sw.LineStyle.Width = 0
+	if line != nil {
+		sw.LineStyle.Color, sw.LineStyle.Width = line, vg.Points(0.8)
+		sw.LineStyle.Dashes = dashes
+	}
+	return sw
+}
+
+// obstacleLegend adds the legend entries of what planBase drew.
+func obstacleLegend(pl *Plan, p *plot.Plot, f framed, unconnected bool) {
+	if unconnected {
+		p.Legend.Add("placed, not connected", swatch(white, Ink, unconnectedDashes))
+	}
+	if len(pl.Blocks) > len(f.left) {
+		p.Legend.Add("chimney, dormer, building", swatch(blockFill, nil, nil))
+	}
+	if len(pl.Trees) > 0 {
+		p.Legend.Add("tree crown", swatch(treeFill, nil, nil))
+	}
+	if len(pl.Avoids) > 0 {
+		p.Legend.Add("kept free of modules", swatch(white, Ink, avoidDashes))
+	}
+}
+
+// connected reports, per module, whether a string of the plan holds it; all modules when
+// the plan has no strings.
+func connected(pl *Plan) []bool {
+	in := make([]bool, len(pl.Modules))
+	if len(pl.Strings) == 0 {
+		for i := range in {
+			in[i] = true
+		}
+		return in
+	}
+	for _, s := range pl.Strings {
+		for _, i := range s {
+			if i >= 0 && i < len(in) {
+				in[i] = true
+			}
+		}
+	}
+	return in
+}
+
+// legendFrac is the share of the plan pictures' width kept for the legend.
+const legendFrac = 0.3
+
+// planFrame sets the fitted frame on the plot (equal scales on both axes) and draws the
+// north arrow and the scale bar.
+func planFrame(p *plot.Plot, f framed) {
 	p.HideAxes()
 	p.BackgroundColor = white
-	dx, dy := math.Max(maxX-minX, 1), math.Max(maxY-minY, 1)
-	pad := 0.06 * math.Max(dx, dy)
-	minX, maxX, minY, maxY = minX-pad, maxX+pad, minY-pad-0.12*dy, maxY+pad
-	dx = (maxX - minX) / (1 - legendFrac)
-	maxX = minX + dx
-	dy = maxY - minY
-	// The plot area is the picture less the title (about two lines of 12 pt).
-	ratio := float64(w) / float64(h-vg.Points(34))
-	if dx/dy > ratio {
-		extra := dx/ratio - dy
-		minY -= extra / 2
-		maxY += extra / 2
-	} else {
-		extra := dy*ratio - dx
-		maxX += extra
-	}
+	minX, maxX, minY, maxY := f.minX, f.maxX, f.minY, f.maxY
 	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = minX, maxX, minY, maxY
-	dx, dy = maxX-minX, maxY-minY
+	dx, dy := maxX-minX, maxY-minY
 
 	// Scale bar: a round length near a fifth of the drawing's width.
 	L := niceLength(0.2 * (1 - legendFrac) * dx)
@@ -287,85 +506,163 @@ func styleTitle(p *plot.Plot, title string) {
 	p.Legend.TextStyle.Color = Ink
 }
 
-// PlanChart draws the roof from above with each module coloured by its annual shade loss
-// (ShadeBins classes), the blocks, trees and avoid areas, a north arrow and a scale bar, for
-// a w×h picture (the scales of both axes are equal only at that size). Modules are labelled
-// with their loss when there are few enough to read.
+// leftOut is the chart's note on obstacles too far away to draw.
+func leftOut(f framed) string {
+	if len(f.left) == 0 {
+		return ""
+	}
+	ids := make([]string, len(f.left))
+	for i, id := range f.left {
+		ids[i] = Printable(id)
+	}
+	return fmt.Sprintf("\nNot drawn, farther than %g m from the roof: %s", reachM, strings.Join(ids, ", "))
+}
+
+// PlanChart draws the roof from above with each module coloured by the sunlight it gets in
+// a year (SunBins classes of the roof's best), labelled with its row.column and the share
+// of its light lost to shade; each face's id, the blocks, trees and avoid areas with their
+// ids; a north arrow and a scale bar, for a w×h picture (the scales of both axes are equal
+// only at that size). Unconnected modules are outlined, not filled.
 func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	p := plot.New()
-	styleTitle(p, "Roof plan: annual shade loss of each module")
-	minX, maxX, minY, maxY := planBase(pl, p)
-	used := make([]bool, len(shadeColours))
+	f := planBase(pl, p, w, h)
+	styleTitle(p, "Roof plan: sunlight on each module in a year\nlabels: row.column of the face, and the share of its light lost to shade"+leftOut(f))
+	ref := 0.0
+	for _, m := range pl.Modules {
+		ref = math.Max(ref, m.UnshadedKWhM2)
+	}
+	on := connected(pl)
+	used := make([]bool, len(sunColours))
 	var xy plotter.XYs
 	var ls []string
 	var lc []color.Color
-	for _, m := range pl.Modules {
-		k := ShadeClass(m.ShadeLossPct)
-		used[k] = true
-		addPolygon(p, ringXYs(m.Corners[:]), shadeColours[k], white, vg.Points(0.6))
+	unconnected := false
+	for i, m := range pl.Modules {
+		k := 0
+		if ref > 0 {
+			k = SunClass(100 * m.SunKWhM2 / ref)
+		}
+		lab := Printable(m.Label()) + "\n" + Thousands(m.ShadeLossPct, 0) + "%"
+		if !on[i] {
+			unconnected = true
+			if pg := addPolygon(p, ringXYs(m.Corners[:]), white, Ink, vg.Points(0.7)); pg != nil {
+				pg.LineStyle.Dashes = unconnectedDashes
+			}
+			lc = append(lc, Ink)
+		} else {
+			used[k] = true
+			addPolygon(p, ringXYs(m.Corners[:]), sunColours[k], white, vg.Points(0.6))
+			if k <= 1 {
+				lc = append(lc, white)
+			} else {
+				lc = append(lc, Ink)
+			}
+		}
 		x, y := centre(m.Corners)
 		xy = append(xy, plotter.XY{X: x, Y: y})
-		ls = append(ls, Thousands(m.ShadeLossPct, 0)+"%")
-		if k >= 3 {
-			lc = append(lc, white)
-		} else {
-			lc = append(lc, Ink)
-		}
+		ls = append(ls, lab)
 	}
-	if len(pl.Modules) <= 80 && len(xy) > 0 {
-		l, err := plotter.NewLabels(plotter.XYLabels{XYs: xy, Labels: ls})
-		if err == nil {
-			for i := range l.TextStyle {
-				l.TextStyle[i].Font.Size = vg.Points(6)
-				l.TextStyle[i].Font.Variant = sans
-				l.TextStyle[i].Color = lc[i]
-				l.TextStyle[i].XAlign, l.TextStyle[i].YAlign = text.XCenter, text.YCenter
+	if len(xy) > 0 {
+		size, lines := moduleLabelSize(pl, f)
+		if lines == 1 {
+			for i, m := range pl.Modules {
+				ls[i] = Printable(m.Label())
 			}
-			p.Add(l)
+		}
+		if lines > 0 {
+			l, err := plotter.NewLabels(plotter.XYLabels{XYs: xy, Labels: ls})
+			if err == nil {
+				for i := range l.TextStyle {
+					l.TextStyle[i].Font.Size = vg.Points(size)
+					l.TextStyle[i].Font.Variant = sans
+					l.TextStyle[i].Color = lc[i]
+					l.TextStyle[i].XAlign, l.TextStyle[i].YAlign = text.XCenter, text.YCenter
+				}
+				p.Add(l)
+			}
 		}
 	}
+	faceLabels(pl, p)
 	p.Legend.Top = true
-	for k, c := range shadeColours {
-		if !used[k] {
-			continue
+	for k, c := range sunColours {
+		if used[k] {
+			p.Legend.Add("sunlight "+sunClassLabel(k, ref), swatch(c, nil, nil))
 		}
-		sw, _ := plotter.NewPolygon(plotter.XYs{{}, {X: 1}, {X: 1, Y: 1}})
-		sw.Color, sw.LineStyle.Width = c, 0
-		p.Legend.Add("shade loss "+shadeClassLabel(k), sw)
 	}
-	if len(pl.Blocks) > 0 {
-		sw, _ := plotter.NewPolygon(plotter.XYs{{}, {X: 1}, {X: 1, Y: 1}})
-		sw.Color, sw.LineStyle.Width = blockFill, 0
-		p.Legend.Add("chimney, wall, building", sw)
-	}
-	if len(pl.Trees) > 0 {
-		sw, _ := plotter.NewPolygon(plotter.XYs{{}, {X: 1}, {X: 1, Y: 1}})
-		sw.Color, sw.LineStyle.Width = treeFill, 0
-		p.Legend.Add("tree crown", sw)
-	}
-	planFrame(p, minX, maxX, minY, maxY, w, h, 0.3)
+	obstacleLegend(pl, p, f, unconnected)
+	planFrame(p, f)
 	return p
+}
+
+// moduleLabelSize picks the largest type, 6 pt down to 4 pt, at which the plan's module
+// labels fit their modules: two lines (id and shade) when they fit, else the id alone
+// (lines 1), else none (lines 0).
+func moduleLabelSize(pl *Plan, f framed) (size float64, lines int) {
+	if len(pl.Modules) == 0 || f.mPerPt <= 0 {
+		return 0, 0
+	}
+	a, b := moduleSides(pl)
+	w, h := 0.9*a, 0.9*b
+	longest := func(two bool) string {
+		s := ""
+		for _, m := range pl.Modules {
+			for _, t := range []string{m.Label(), Thousands(m.ShadeLossPct, 0) + "%"} {
+				if len([]rune(t)) > len([]rune(s)) {
+					s = t
+				}
+				if !two {
+					break
+				}
+			}
+		}
+		return s
+	}
+	for _, n := range []int{2, 1} {
+		t := longest(n == 2)
+		for sz := 6.0; sz >= 4; sz -= 0.5 {
+			if f.textM(t, sz) <= w && float64(n)*1.15*sz*f.mPerPt <= h {
+				return sz, n
+			}
+		}
+	}
+	return 0, 0
 }
 
 // StringsChart draws the chosen layout: each string's modules in the string's colour
 // (StringColours), a line through them in wiring order and each module's position along the
-// string, for a w×h picture.
+// string, the faces' ids and module ids, for a w×h picture.
 func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	p := plot.New()
-	styleTitle(p, "Strings of the chosen layout, in wiring order\n"+WiringCaution)
-	minX, maxX, minY, maxY := planBase(pl, p)
-	inString := make([]bool, len(pl.Modules))
-	for _, s := range pl.Strings {
-		for _, i := range s {
-			if i >= 0 && i < len(pl.Modules) {
-				inString[i] = true
+	f := planBase(pl, p, w, h)
+	styleTitle(p, "Strings of the chosen layout, in wiring order\n"+WiringCaution+leftOut(f))
+	// The wiring mark sits in each module's lower half and its id in the upper half, both
+	// sized to the module as drawn.
+	short, long := moduleSides(pl)
+	off := func(m PlanModule) float64 {
+		lo, hi := m.Corners[0][1], m.Corners[0][1]
+		for _, q := range m.Corners {
+			lo, hi = math.Min(lo, q[1]), math.Max(hi, q[1])
+		}
+		return 0.22 * math.Min(long, hi-lo)
+	}
+	radius := vg.Points(5)
+	if f.mPerPt > 0 {
+		radius = vg.Points(math.Max(2.5, math.Min(5, 0.3*short/f.mPerPt)))
+	}
+	on := connected(pl)
+	unconnected := false
+	var ix plotter.XYs
+	var il []string
+	for i, m := range pl.Modules {
+		if !on[i] {
+			unconnected = true
+			if pg := addPolygon(p, ringXYs(m.Corners[:]), white, Ink, vg.Points(0.7)); pg != nil {
+				pg.LineStyle.Dashes = unconnectedDashes
 			}
 		}
-	}
-	for i, m := range pl.Modules {
-		if !inString[i] {
-			addPolygon(p, ringXYs(m.Corners[:]), white, Muted, vg.Points(0.6))
-		}
+		x, y := centre(m.Corners)
+		ix = append(ix, plotter.XY{X: x, Y: y + off(m)})
+		il = append(il, Printable(m.Label()))
 	}
 	p.Legend.Top = true
 	for k, s := range pl.Strings {
@@ -379,27 +676,43 @@ func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 			m := pl.Modules[i]
 			addPolygon(p, ringXYs(m.Corners[:]), tint(c, 0.6), white, vg.Points(0.6))
 			x, y := centre(m.Corners)
-			path = append(path, plotter.XY{X: x, Y: y})
+			path = append(path, plotter.XY{X: x, Y: y - off(m)})
 			nums = append(nums, fmt.Sprint(n+1))
 		}
 		if len(path) == 0 {
 			continue
 		}
 		ln, _ := plotter.NewLine(path)
-		ln.LineStyle.Color, ln.LineStyle.Width = c, vg.Points(1.6)
+		ln.LineStyle.Color, ln.LineStyle.Width = c, vg.Points(1.4)
 		p.Add(ln)
 		dots, _ := plotter.NewScatter(path)
 		dots.GlyphStyle.Shape = draw.CircleGlyph{}
 		dots.GlyphStyle.Color = c
-		dots.GlyphStyle.Radius = vg.Points(5)
+		dots.GlyphStyle.Radius = radius
 		p.Add(dots)
-		addLabels(p, path, nums, 6, white, text.XCenter, text.YCenter)
-		name := fmt.Sprintf("string %d: %d modules", k+1, len(path))
+		addLabels(p, path, nums, math.Min(6, 1.15*float64(radius)), white, text.XCenter, text.YCenter)
+		name := fmt.Sprintf("string %d: %s", k+1, Count(len(path), "module", "modules"))
 		if k < len(pl.Inputs) {
-			name = fmt.Sprintf("string %d, input %d: %d modules", k+1, pl.Inputs[k], len(path))
+			name = fmt.Sprintf("string %d, input %d: %s", k+1, pl.Inputs[k], Count(len(path), "module", "modules"))
 		}
 		p.Legend.Add(name, ln)
 	}
-	planFrame(p, minX, maxX, minY, maxY, w, h, 0.3)
+	if size, lines := moduleLabelSize(pl, f); lines > 0 {
+		addLabels(p, ix, il, math.Min(size, 5), Ink, text.XCenter, text.YCenter)
+	}
+	faceLabels(pl, p)
+	obstacleLegend(pl, p, f, unconnected)
+	planFrame(p, f)
 	return p
+}
+
+// moduleSides returns the first module's short and long side, metres.
+func moduleSides(pl *Plan) (short, long float64) {
+	if len(pl.Modules) == 0 {
+		return 1, 1.7
+	}
+	m := pl.Modules[0]
+	a := math.Hypot(m.Corners[1][0]-m.Corners[0][0], m.Corners[1][1]-m.Corners[0][1])
+	b := math.Hypot(m.Corners[2][0]-m.Corners[1][0], m.Corners[2][1]-m.Corners[1][1])
+	return math.Min(a, b), math.Max(a, b)
 }

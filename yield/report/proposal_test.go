@@ -18,6 +18,7 @@ import (
 	"time"
 
 	"gonum.org/v1/gonum/floats/scalar"
+	"gonum.org/v1/plot/vg"
 
 	"sunstring/shading"
 	"sunstring/shading/sun"
@@ -36,13 +37,22 @@ func fixture(source string) *Proposal {
 		SpecificYield: 977.3, PerformanceRatio: 0.78,
 		MonthlyACkWh:    [12]float64{60, 100, 180, 250, 300, 310, 320, 280, 210, 150, 80, 105.6},
 		MonthlyUnshaded: [12]float64{70, 110, 190, 260, 310, 320, 330, 290, 220, 160, 90, 110},
-		Losses: []Loss{{"shade on the modules (irradiance)", 150, 5}, {"soiling", 60, 2}, {"inverter conversion", 90, 3.5},
-			{"inverter clipping (AC limit)", 0, 0}},
+		Losses: []Loss{
+			{"light reaching the modules", "shade: less light on the modules", 150, 5},
+			{"light reaching the modules", "dirt on the glass (soiling)", 60, 2},
+			{"the modules themselves", "shade: bypass diodes in partly shaded modules", 20, 0.8},
+			{"strings and cables", "shade: shaded modules holding back their strings", 30, 1.2},
+			{"the inverter", "conversion to AC", 90, 3.5},
+			{"the inverter", "held at the inverter's AC power", 0.4, 0},
+		},
+		Shade: &ShadeSplit{LostKWh: 160, LostPct: 6.4, Parts: []ShadePart{
+			{"less light on the modules", 120, 4.8}, {"shaded modules holding back their strings", 24, 0.96},
+			{"bypass diodes in partly shaded modules", 16, 0.64}}},
 		Layouts: []Layout{
 			{Name: "searched 1", AnnualACkWh: 2345.6, ShadeLossPct: 4.1, Strings: [][]string{{"S.1.1", "S.1.2", "S.1.3"}, {"S.2.1", "S.2.2", "S.2.3"}}, Inputs: []int{1, 2}},
 			{Name: "roof order", AnnualACkWh: 2301, ShadeLossPct: 5.9, BehindBestKWh: 44.6, Strings: [][]string{{"S.1.1", "S.1.2", "S.1.3", "S.2.1", "S.2.2", "S.2.3"}}, Inputs: []int{1}},
 		},
-		Faces:    []Face{{ID: "S", PitchDeg: 35, AspectDeg: 180, PlanAreaM2: 40, SlopedAreaM2: 48.8, Modules: 6, KWp: 2.4}},
+		Faces:    []Face{{ID: "S", PitchDeg: 35, AspectDeg: 180, PlanAreaM2: 40, SlopedAreaM2: 48.8, Modules: 7, KWp: 2.8}},
 		Warnings: []string{"test warning"},
 		Checks: []Check{{Severity: "info", Subject: "searched 1, input 1", Unit: "V", Value: 124.6, Limit: 600,
 			Message: "3 modules in series: 124.6 V open circuit at -16 °C (inverter maximum 600 V)"}},
@@ -51,12 +61,16 @@ func fixture(source string) *Proposal {
 		Models:       []string{"sun: Reda & Andreas (2004)"},
 	}
 	pl := &Plan{
-		Faces:  []Shape{{ID: "S", Ring: [][2]float64{{0, 0}, {8, 0}, {8, 5}, {0, 5}, {0, 0}}}},
-		Blocks: []Shape{{ID: "chimney", Ring: [][2]float64{{6.5, 3.5}, {7.2, 3.5}, {7.2, 4.2}, {6.5, 4.2}, {6.5, 3.5}}}},
+		Faces: []Shape{{ID: "S", Ring: [][2]float64{{0, 0}, {8, 0}, {8, 5}, {0, 5}, {0, 0}}}},
+		Blocks: []Shape{{ID: "chimney", Ring: [][2]float64{{6.5, 3.5}, {7.2, 3.5}, {7.2, 4.2}, {6.5, 4.2}, {6.5, 3.5}}},
+			// a neighbour's house south-west, drawn whole; a tower 70 m away, left out
+			{ID: "neighbour", Ring: [][2]float64{{-12, -12}, {-6, -12}, {-6, -7}, {-12, -7}, {-12, -12}}},
+			{ID: "tower", Ring: [][2]float64{{70, 0}, {72, 0}, {72, 2}, {70, 2}, {70, 0}}}},
+		Avoids: []Shape{{ID: "vent", Ring: [][2]float64{{5.3, 0.6}, {6, 0.6}, {6, 1.3}, {5.3, 1.3}, {5.3, 0.6}}}},
 		Trees:  []TreeMark{{ID: "oak", X: -3, Y: -4, CrownRadiusM: 2.5}},
 	}
 	for r := 0; r < 2; r++ {
-		for c := 0; c < 3; c++ {
+		for c := 0; c < 3+r; c++ {
 			x, y := 0.5+float64(c)*1.15, 0.5+float64(r)*1.75
 			pl.Modules = append(pl.Modules, PlanModule{ID: fmt.Sprintf("S.%d.%d", r+1, c+1),
 				Corners:      [4][2]float64{{x, y}, {x + 1.13, y}, {x + 1.13, y + 1.72}, {x, y + 1.72}},
@@ -64,8 +78,11 @@ func fixture(source string) *Proposal {
 		}
 	}
 	pl.Strings, pl.Inputs = [][]int{{0, 1, 2}, {5, 4, 3}}, []int{1, 2}
+	// S.2.4 is placed but not connected.
+	strOf := map[string]string{"S.1.1": "1.1", "S.1.2": "1.1", "S.1.3": "1.1", "S.2.1": "2.1", "S.2.2": "2.1", "S.2.3": "2.1"}
 	for _, m := range pl.Modules {
-		s.ModuleResults = append(s.ModuleResults, ModuleResult{ID: m.ID, Face: "S", AnnualPOAkWhM2: 1300, ShadeLossPct: m.ShadeLossPct})
+		s.ModuleResults = append(s.ModuleResults, ModuleResult{ID: m.ID, Face: "S", AnnualPOAkWhM2: 1300 * (1 - m.ShadeLossPct/100),
+			ShadeLossPct: m.ShadeLossPct, String: strOf[m.ID]})
 	}
 	el := make([]float64, 360)
 	for i := 200; i < 240; i++ {
@@ -74,17 +91,21 @@ func fixture(source string) *Proposal {
 	sp := &SunPath{Observer: sun.Observer{LatDeg: 47.05, LonDeg: 15.43}, Zone: time.FixedZone("CET", 3600), Year: 2025,
 		Outlines: []shading.Outline{{ID: "oak", Kind: "tree", ElevationDeg: el}}, AzStepDeg: 1, Module: "S.2.3", ShadeLossPct: 12}
 	return &Proposal{Summary: s, Plan: pl, SunPath: sp,
+		Cover: Cover{Customer: "Ms Example", Address: "1 Sample Lane", PreparedBy: "A. Surveyor", Date: "2026-05-05", ValidUntil: "2026-06-30"},
 		Equipment: Equipment{ModulePowerW: 400, ModuleLengthM: 1.72, ModuleWidthM: 1.13, CellsSeries: 120, BypassDiodes: 3,
 			InverterACW: 3000, InverterInputs: 2, InverterMaxDCV: 600, MPPTMinV: 90, MPPTMaxV: 560}}
 }
 
-// pageTitles are the headings every full proposal carries, one page each (after the first).
-var pageTitles = []string{"Roof plan and strings", "Sun path and obstructions", "Monthly energy",
-	"Losses from irradiation to AC energy", "String layouts compared", "Wiring checks and cautions", "Assumptions, uncertainty and safety"}
+// The headings of the two documents, one page each after the first (the tests look for
+// them in the text).
+var (
+	proposalTitles  = []string{"Your energy month by month", "Where the shade comes from", "How the modules are wired", "What this estimate rests on"}
+	technicalTitles = []string{"String checks", "Roof plan and strings", "String layouts compared", "Loss breakdown", "Shade", "Models, data and uncertainty"}
+)
 
 var mediaBox = regexp.MustCompile(`/MediaBox \[0 0 ([0-9.]+) ([0-9.]+)\]`)
 
-func TestProposalPDF(t *testing.T) {
+func TestDocumentsPDF(t *testing.T) {
 	tests := []struct {
 		name         string
 		paper        string
@@ -97,45 +118,98 @@ func TestProposalPDF(t *testing.T) {
 		{"indicative climate", "a4", "indicative", 595.28, 841.89, true},
 	}
 	for _, tc := range tests {
+		for _, doc := range []struct {
+			name   string
+			render func(*Proposal) ([]byte, error)
+			titles []string
+			// figures the document must show, formatted for people
+			want, not []string
+		}{
+			{"proposal", (*Proposal).PDF, proposalTitles,
+				[]string{"2,346", "977", "2.40 kWp", "6.4 %", "licensed installer", "less light on the modules", "For Ms Example", "valid until 2026-06-30"},
+				// the installer's part stays out of the homeowner's document
+				[]string{"124.6 V", "open circuit", "hill-climbing", "Reda & Andreas"}},
+			{"technical sheet", (*Proposal).TechnicalPDF, technicalTitles,
+				[]string{"2,346", "124.6 V", "licensed installer", "module-level converters", "Reda & Andreas", "shaded modules holding back their strings", "conversion to AC", "The inverter"},
+				nil},
+		} {
+			t.Run(tc.name+"/"+doc.name, func(t *testing.T) {
+				pr := fixture(tc.source)
+				pr.Paper = tc.paper
+				b, err := doc.render(pr)
+				if err != nil {
+					t.Fatal(err)
+				}
+				m := mediaBox.FindSubmatch(b)
+				if m == nil {
+					t.Fatal("no MediaBox in the PDF")
+				}
+				w, _ := strconv.ParseFloat(string(m[1]), 64)
+				h, _ := strconv.ParseFloat(string(m[2]), 64)
+				if !scalar.EqualWithinAbs(w, tc.wantW, 0.5) || !scalar.EqualWithinAbs(h, tc.wantH, 0.5) {
+					t.Errorf("page %.2f × %.2f pt, want %.2f × %.2f ± 0.5 (paper %q)", w, h, tc.wantW, tc.wantH, tc.paper)
+				}
+				// The survey date stamps the metadata (PDF date format, ISO 32000-1 §7.9.4).
+				if !bytes.Contains(b, []byte("D:20260505")) {
+					t.Errorf("no creation date of 5 May 2026 in the metadata")
+				}
+				txt := pdfText(t, b)
+				for _, title := range doc.titles {
+					if !strings.Contains(txt, title) {
+						t.Errorf("no page titled %q", title)
+					}
+				}
+				for _, want := range doc.want {
+					if !strings.Contains(txt, want) {
+						t.Errorf("%q missing from the text", want)
+					}
+				}
+				for _, not := range doc.not {
+					if strings.Contains(txt, not) {
+						t.Errorf("%q in the text: it belongs in the other document", not)
+					}
+				}
+				// The cautions once: their first sentence appears exactly once.
+				if n := strings.Count(strings.Join(strings.Fields(txt), " "), "This is an estimate, not a design"); n != 1 {
+					t.Errorf("the cautions appear %d times, want once", n)
+				}
+				if got := strings.Contains(txt, "INDICATIVE ONLY"); got != tc.loud {
+					t.Errorf("indicative warning shown = %v, want %v (climate source %q)", got, tc.loud, tc.source)
+				}
+				for _, bad := range []string{"(s)", "1 modules", "..", "−0 kWh"} {
+					if strings.Contains(txt, bad) {
+						t.Errorf("the text holds %q", bad)
+					}
+				}
+			})
+		}
+	}
+}
+
+// TestNamesInAnyScript: a name in a script the typeface lacks, or with an emoji, prints
+// with a visible mark instead of failing the document.
+func TestNamesInAnyScript(t *testing.T) {
+	tests := []struct {
+		name, in, want string
+	}{
+		{"latin with accents", "Müller-Łódź", "Müller-Łódź"},
+		{"cjk", "太陽の家", "□□□□"},
+		{"emoji with a variation selector", "Haus ☀️", "Haus □"},
+		{"emoji outside the basic plane with a skin tone", "ok 👍🏽!", "ok □!"},
+	}
+	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			pr := fixture(tc.source)
-			pr.Paper = tc.paper
-			b, err := pr.PDF()
-			if err != nil {
-				t.Fatal(err)
+			if got := Printable(tc.in); got != tc.want {
+				t.Errorf("Printable(%q) = %q, want %q", tc.in, got, tc.want)
 			}
-			// Structure without any tool: one page object per page; the proposal has an
-			// overview and one page per section, none of them overflowing in this fixture.
-			pages := regexp.MustCompile(`/Type /Page\b[^s]`).FindAll(b, -1)
-			if len(pages) != 1+len(pageTitles) {
-				t.Errorf("%d page objects, want %d (overview + sections)", len(pages), 1+len(pageTitles))
-			}
-			m := mediaBox.FindSubmatch(b)
-			if m == nil {
-				t.Fatal("no MediaBox in the PDF")
-			}
-			w, _ := strconv.ParseFloat(string(m[1]), 64)
-			h, _ := strconv.ParseFloat(string(m[2]), 64)
-			if !scalar.EqualWithinAbs(w, tc.wantW, 0.5) || !scalar.EqualWithinAbs(h, tc.wantH, 0.5) {
-				t.Errorf("page %.2f × %.2f pt, want %.2f × %.2f ± 0.5 (paper %q)", w, h, tc.wantW, tc.wantH, tc.paper)
-			}
-			txt := pdfText(t, b)
-			if txt == "" {
-				return
-			}
-			for _, title := range pageTitles {
-				if !strings.Contains(txt, title) {
-					t.Errorf("no page titled %q", title)
+			pr := fixture("file")
+			pr.Summary.Site.Name = tc.in
+			pr.Cover.Customer = tc.in
+			pr.Plan.Faces[0].ID = tc.in
+			for _, doc := range []func(*Proposal) ([]byte, error){(*Proposal).PDF, (*Proposal).TechnicalPDF} {
+				if _, err := doc(pr); err != nil {
+					t.Errorf("%v", err)
 				}
-			}
-			// The key figures are the summary's, formatted for people.
-			for _, want := range []string{"2,346", "977", "2.40", "124.6 V", "licensed installer"} {
-				if !strings.Contains(txt, want) {
-					t.Errorf("key figure %q missing from the text", want)
-				}
-			}
-			if got := strings.Contains(txt, "INDICATIVE ONLY"); got != tc.loud {
-				t.Errorf("indicative warning shown = %v, want %v (climate source %q)", got, tc.loud, tc.source)
 			}
 		})
 	}
@@ -159,17 +233,19 @@ func pdfText(t *testing.T, b []byte) string {
 	return string(out)
 }
 
-func TestProposalDeterministic(t *testing.T) {
-	a, err := fixture("file").PDF()
-	if err != nil {
-		t.Fatal(err)
-	}
-	b, err := fixture("file").PDF()
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !bytes.Equal(a, b) {
-		t.Errorf("two renders of the same proposal differ (%d and %d bytes): dates or map order leak in", len(a), len(b))
+func TestDocumentsDeterministic(t *testing.T) {
+	for _, doc := range []func(*Proposal) ([]byte, error){(*Proposal).PDF, (*Proposal).TechnicalPDF} {
+		a, err := doc(fixture("file"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := doc(fixture("file"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(a, b) {
+			t.Errorf("two renders of the same document differ (%d and %d bytes): dates or map order leak in", len(a), len(b))
+		}
 	}
 }
 
@@ -179,11 +255,21 @@ func TestProposalPaperRejected(t *testing.T) {
 	if _, err := pr.PDF(); !errors.Is(err, ErrPaper) {
 		t.Errorf("paper a3: error %v, want ErrPaper", err)
 	}
+	if _, err := pr.TechnicalPDF(); !errors.Is(err, ErrPaper) {
+		t.Errorf("paper a3, technical sheet: error %v, want ErrPaper", err)
+	}
 }
 
-// TestChartsGolden renders every chart of the fixture and compares it with its golden PNG:
-// same size, and a mean absolute difference per channel under 2 % of full scale (anti-aliasing
-// and font hinting move edges by a pixel; a missing bar or outline moves far more).
+// Golden images are compared pixel by pixel: a pixel differs when a channel moves by more
+// than goldenLevel of full scale, and a chart fails when more than goldenShare of its pixels
+// differ. Anti-aliasing and hinting move a few edge pixels at most; a bar of the monthly
+// chart halved moves about 0.7 % of them (TestGoldenCatchesAHalvedBar).
+const (
+	goldenLevel = 24.0 / 255
+	goldenShare = 0.0005
+)
+
+// TestChartsGolden renders every chart of the fixture and compares it with its golden PNG.
 func TestChartsGolden(t *testing.T) {
 	for _, c := range fixture("file").Charts() {
 		t.Run(c.Name, func(t *testing.T) {
@@ -209,8 +295,8 @@ func TestChartsGolden(t *testing.T) {
 			if gi.Bounds() != wi.Bounds() {
 				t.Fatalf("size %v, golden %v", gi.Bounds(), wi.Bounds())
 			}
-			if d := meanDiff(gi, wi); d > 0.02 {
-				t.Errorf("mean difference %.4f of full scale, want ≤ 0.02", d)
+			if d := differing(gi, wi); d > goldenShare {
+				t.Errorf("%.4f %% of the pixels differ from the golden image, want ≤ %.4f %%", 100*d, 100*goldenShare)
 			}
 			// Not empty: at least 2 % of the picture is neither white nor near-white.
 			if ink := inkShare(gi); ink < 0.02 {
@@ -220,6 +306,47 @@ func TestChartsGolden(t *testing.T) {
 	}
 }
 
+// TestGoldenCatchesAHalvedBar: the comparison tells a monthly chart with one month's bar
+// halved from the chart as it was.
+func TestGoldenCatchesAHalvedBar(t *testing.T) {
+	s := fixture("file").Summary
+	render := func(ac [12]float64) image.Image {
+		b, err := Render(MonthlyChart(&ac, &s.MonthlyUnshaded, ""), 16*vg.Centimeter, 8*vg.Centimeter, PNG)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return decodePNG(t, b)
+	}
+	a := render(s.MonthlyACkWh)
+	if d := differing(a, render(s.MonthlyACkWh)); d != 0 {
+		t.Errorf("the same chart twice: %.4f %% of the pixels differ, want none", 100*d)
+	}
+	halved := s.MonthlyACkWh
+	halved[4] /= 2
+	d := differing(a, render(halved))
+	t.Logf("May halved: %.3f %% of the pixels differ", 100*d)
+	if d <= goldenShare {
+		t.Errorf("May's bar halved: %.4f %% of the pixels differ, not above the tolerance %.4f %%", 100*d, 100*goldenShare)
+	}
+}
+
+// differing is the share of pixels of which some channel differs by more than goldenLevel.
+func differing(a, b image.Image) float64 {
+	n := 0
+	r := a.Bounds()
+	lim := goldenLevel * 65535
+	for y := r.Min.Y; y < r.Max.Y; y++ {
+		for x := r.Min.X; x < r.Max.X; x++ {
+			r1, g1, b1, _ := a.At(x, y).RGBA()
+			r2, g2, b2, _ := b.At(x, y).RGBA()
+			if math.Abs(float64(r1)-float64(r2)) > lim || math.Abs(float64(g1)-float64(g2)) > lim || math.Abs(float64(b1)-float64(b2)) > lim {
+				n++
+			}
+		}
+	}
+	return float64(n) / float64(r.Dx()*r.Dy())
+}
+
 func decodePNG(t *testing.T, b []byte) image.Image {
 	t.Helper()
 	img, err := png.Decode(bytes.NewReader(b))
@@ -227,19 +354,6 @@ func decodePNG(t *testing.T, b []byte) image.Image {
 		t.Fatal(err)
 	}
 	return img
-}
-
-func meanDiff(a, b image.Image) float64 {
-	var sum float64
-	r := a.Bounds()
-	for y := r.Min.Y; y < r.Max.Y; y++ {
-		for x := r.Min.X; x < r.Max.X; x++ {
-			r1, g1, b1, _ := a.At(x, y).RGBA()
-			r2, g2, b2, _ := b.At(x, y).RGBA()
-			sum += math.Abs(float64(r1)-float64(r2)) + math.Abs(float64(g1)-float64(g2)) + math.Abs(float64(b1)-float64(b2))
-		}
-	}
-	return sum / (3 * 65535 * float64(r.Dx()*r.Dy()))
 }
 
 func inkShare(img image.Image) float64 {

@@ -21,15 +21,23 @@ type Summary struct {
 	Losses           []Loss      `json:"losses"`
 	// LossesStartKWh is where the loss breakdown starts: the layout's modules' unshaded
 	// plane-of-array irradiation at their STC efficiency. It less every loss is AnnualACkWh.
-	LossesStartKWh float64        `json:"losses_start_kwh"`
-	Layouts        []Layout       `json:"layouts"`
-	Alternatives   []Alternative  `json:"alternatives"`
-	ModuleResults  []ModuleResult `json:"module_results"`
-	Faces          []Face         `json:"faces"`
-	Checks         []Check        `json:"checks"`
-	Warnings       []string       `json:"warnings"`
-	Cautions       []string       `json:"cautions"`
-	Models         []string       `json:"models"`
+	LossesStartKWh float64 `json:"losses_start_kwh"`
+	// Shade is the share of the year's energy lost to shade and how it divides; absent
+	// when no layout was evaluated.
+	Shade   *ShadeSplit `json:"shade,omitempty"`
+	Layouts []Layout    `json:"layouts"`
+	// EquivalenceMarginPct is the margin within which a layout's annual energy counts as
+	// equal to the best's; LayoutAdvice says which layout to wire and why. Both are absent
+	// when the survey gives no advice.
+	EquivalenceMarginPct float64        `json:"equivalence_margin_pct,omitempty"`
+	LayoutAdvice         *LayoutAdvice  `json:"layout_advice,omitempty"`
+	Alternatives         []Alternative  `json:"alternatives"`
+	ModuleResults        []ModuleResult `json:"module_results"`
+	Faces                []Face         `json:"faces"`
+	Checks               []Check        `json:"checks"`
+	Warnings             []string       `json:"warnings"`
+	Cautions             []string       `json:"cautions"`
+	Models               []string       `json:"models"`
 }
 
 // SiteInfo names the site.
@@ -49,9 +57,35 @@ type ClimateInfo struct {
 
 // Loss is one step of the loss breakdown from plane-of-array irradiation to AC energy.
 type Loss struct {
-	Step string  `json:"step"`
-	KWh  float64 `json:"kwh"` // energy lost at this step (the first row: the starting amount)
-	Pct  float64 `json:"pct"` // of the energy entering this step
+	Group string  `json:"group"` // where the energy goes: light reaching the modules, …
+	Step  string  `json:"step"`
+	KWh   float64 `json:"kwh"` // energy lost at this step (the first row: the starting amount)
+	Pct   float64 `json:"pct"` // of the energy entering this step
+}
+
+// ShadeSplit is the share of the year's energy lost to shade (the chosen layout's AC
+// energy against the same strings without shade) and, in Parts, how it divides: less light
+// on the modules, shaded modules holding back their strings, bypass diodes in partly shaded
+// modules. The parts add up to the whole.
+type ShadeSplit struct {
+	LostKWh float64     `json:"lost_kwh"`
+	LostPct float64     `json:"lost_pct"` // of the year's energy without shade
+	Parts   []ShadePart `json:"parts"`
+}
+
+// ShadePart is one cause of the shade loss: AC energy a year and percentage points of the
+// year's energy without shade.
+type ShadePart struct {
+	Cause string  `json:"cause"`
+	KWh   float64 `json:"kwh"`
+	Pct   float64 `json:"pct"`
+}
+
+// LayoutAdvice is the layout to wire, in plain words.
+type LayoutAdvice struct {
+	Chosen     string   `json:"chosen"`
+	Reason     string   `json:"reason"`
+	Equivalent []string `json:"equivalent"`
 }
 
 // Layout is one ranked string layout.
@@ -64,6 +98,9 @@ type Layout struct {
 	Strings       [][]string `json:"strings"`
 	Inputs        []int      `json:"inputs"` // inverter input (1-based) of each string
 	Note          string     `json:"note,omitempty"`
+	// EquivalentToBest reports whether the layout's energy lies within the equivalence
+	// margin of the best's.
+	EquivalentToBest bool `json:"equivalent_to_best"`
 }
 
 // Alternative is the best layout run another way, for comparison: a plain hill-climbing
@@ -73,6 +110,9 @@ type Alternative struct {
 	AnnualACkWh   float64 `json:"annual_ac_kwh"`
 	DifferenceKWh float64 `json:"difference_kwh"` // against the reported estimate
 	Note          string  `json:"note"`
+	// ConvertersOn lists the modules that get a module-level converter, when the
+	// alternative uses them.
+	ConvertersOn []string `json:"converters_on,omitempty"`
 }
 
 // ModuleResult is one module's annual irradiation and shade.
@@ -161,6 +201,16 @@ func roundAll(s Summary) Summary {
 		s.MonthlyUnshaded[i] = Round(s.MonthlyUnshaded[i], 1)
 	}
 	s.LossesStartKWh = Round(s.LossesStartKWh, 1)
+	if s.Shade != nil {
+		sh := *s.Shade
+		sh.LostKWh, sh.LostPct = Round(sh.LostKWh, 1), Round(sh.LostPct, 2)
+		sh.Parts = append([]ShadePart(nil), sh.Parts...)
+		for i := range sh.Parts {
+			sh.Parts[i].KWh, sh.Parts[i].Pct = Round(sh.Parts[i].KWh, 1), Round(sh.Parts[i].Pct, 2)
+		}
+		s.Shade = &sh
+	}
+	s.EquivalenceMarginPct = Round(s.EquivalenceMarginPct, 2)
 	s.Losses = append([]Loss(nil), s.Losses...)
 	for i := range s.Losses {
 		s.Losses[i].KWh = Round(s.Losses[i].KWh, 1)

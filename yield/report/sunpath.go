@@ -38,7 +38,7 @@ var (
 		"tree":    {R: 0xd5, G: 0xd9, B: 0xdb, A: 0xff},
 		"horizon": {R: 0x5e, G: 0x66, B: 0x6b, A: 0xff},
 	}
-	obstacleName = map[string]string{"face": "roof", "block": "chimney, wall, building", "tree": "tree", "horizon": "far horizon"}
+	obstacleName = map[string]string{"face": "roof", "block": "chimney, dormer, building", "tree": "tree", "horizon": "far horizon"}
 )
 
 // standardOffset returns the zone's offset from UTC in its winter (standard) time: hour
@@ -70,9 +70,9 @@ func SunPathChart(in *SunPath) *plot.Plot {
 	title := "Sun path and obstructions"
 	switch {
 	case in.Module != "" && in.ShadeLossPct >= 0:
-		title += fmt.Sprintf(" seen from module %s (annual shade loss %s)", in.Module, Pct(in.ShadeLossPct))
+		title = fmt.Sprintf("Sun path and obstructions seen from module %s\n%s of its light lost to shade", Printable(in.Module), Pct(in.ShadeLossPct))
 	case in.Module != "":
-		title += " seen from module " + in.Module
+		title += " seen from module " + Printable(in.Module)
 	}
 	styleTitle(p, title)
 	// The grid goes first so that everything else is drawn over it.
@@ -94,6 +94,8 @@ func SunPathChart(in *SunPath) *plot.Plot {
 	// Obstructions first, so the paths are drawn over them.
 	maxEl := 0.0
 	seen := map[string]bool{}
+	var idXY plotter.XYs
+	var idLab []string
 	order := []string{"horizon", "face", "block", "tree"}
 	for _, kind := range order {
 		for _, o := range in.Outlines {
@@ -119,6 +121,17 @@ func SunPathChart(in *SunPath) *plot.Plot {
 			}
 			if !any {
 				continue
+			}
+			// The obstacle's id at its highest point, so the page can name what shades.
+			top := xy[0]
+			for _, q := range xy {
+				if q.Y > top.Y {
+					top = q
+				}
+			}
+			if top.Y >= 1 && o.ID != "" {
+				idXY = append(idXY, plotter.XY{X: top.X, Y: top.Y + 0.8})
+				idLab = append(idLab, Printable(o.ID))
 			}
 			xy = append(xy, plotter.XY{X: xy[len(xy)-1].X, Y: 0}, plotter.XY{X: xy[0].X, Y: 0})
 			pg := addPolygon(p, xy, obstacleFill[kind], nil, 0)
@@ -216,6 +229,7 @@ func SunPathChart(in *SunPath) *plot.Plot {
 		hl = append(hl, fmt.Sprintf("%d h", h))
 	}
 	addLabels(p, hx, hl, 7, Accent, text.XCenter, text.YBottom)
+	addLabels(p, idXY, idLab, 7, Ink, text.XCenter, text.YBottom)
 	addLabels(p, noonXY, noonLab, 6.5, Ink, text.XCenter, text.YTop)
 
 	p.X.Label.Text = fmt.Sprintf("azimuth (degrees from north)   ·   hour lines in local standard time (UTC%s)", utcOffset(off))

@@ -30,17 +30,17 @@ func (p *Project) electricalChecks(name string, lens [][]int) []report.Check {
 		subj := fmt.Sprintf("%s, input %d", name, a+1)
 		voc := float64(longest) * electric.VocAt(ds, low)
 		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "V", Value: voc, Limit: inv.MaxDCVoltageV,
-			Message: fmt.Sprintf("%d modules in series: %.1f V open circuit at %g °C (inverter maximum %.0f V)", longest, voc, low, inv.MaxDCVoltageV)})
+			Message: fmt.Sprintf("%s in series: %.1f V open circuit at %g °C (inverter maximum %.0f V)", report.Count(longest, "module", "modules"), voc, low, inv.MaxDCVoltageV)})
 		if ms := p.Cfg.Module.MaxSystemVoltage; ms > 0 && voc > ms {
 			out = append(out, report.Check{Severity: "error", Subject: subj, Unit: "V", Value: voc, Limit: ms,
-				Message: fmt.Sprintf("%d modules reach %.1f V open circuit at %g °C, above the module's maximum system voltage %.0f V", longest, voc, low, ms)})
+				Message: fmt.Sprintf("%s reach %.1f V open circuit at %g °C, above the module's maximum system voltage %.0f V", report.Count(longest, "module", "modules"), voc, low, ms)})
 		}
 		vmp := float64(shortest) * electric.VmpAt(ds, hot)
 		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "V", Value: vmp, Limit: inv.MPPTMinV,
-			Message: fmt.Sprintf("%d modules in series: %.1f V at the maximum power point at %g °C cell (MPPT minimum %.0f V)", shortest, vmp, hot, inv.MPPTMinV)})
+			Message: fmt.Sprintf("%s in series: %.1f V at the maximum power point at %g °C cell (MPPT minimum %.0f V)", report.Count(shortest, "module", "modules"), vmp, hot, inv.MPPTMinV)})
 		cur := float64(len(ls)) * ds.ImpA
 		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "A", Value: cur, Limit: inv.MaxInputCurrentA,
-			Message: fmt.Sprintf("%d string(s) in parallel: %.1f A at the maximum power point (input limit %.1f A)", len(ls), cur, inv.MaxInputCurrentA)})
+			Message: fmt.Sprintf("%s in parallel: %.1f A at the maximum power point (input limit %.1f A)", report.Count(len(ls), "string", "strings"), cur, inv.MaxInputCurrentA)})
 	}
 	for _, f := range electric.CheckStrings(ds, lens, low, hot, inv) {
 		out = append(out, fromFinding(name, f))

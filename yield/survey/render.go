@@ -5,12 +5,10 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
-	"strings"
 	"sunstring/geo"
 	"sunstring/shading"
 	"sunstring/yield"
 	"sunstring/yield/report"
-	"sunstring/yield/weather"
 
 	"github.com/paulmach/orb"
 )
@@ -23,7 +21,7 @@ type RenderOptions struct {
 }
 
 // Render makes every file of the report, by name (summary.json, modules.geojson,
-// proposal.pdf, the charts and, on request, hourly.csv). It writes nothing: the front end
+// proposal.pdf, technical-sheet.pdf, the charts and, on request, hourly.csv). It writes nothing: the front end
 // decides where the files go.
 func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	p, m, s, ls := r.Project, r.Model, r.Summary, r.Layouts
@@ -88,9 +86,13 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	}
 	pdf, err := pr.PDF()
 	if err != nil {
-		return nil, fmt.Errorf("proposal.pdf: %w", err)
+		return nil, fmt.Errorf("%s: %w", report.ProposalFile, err)
 	}
-	files["proposal.pdf"] = pdf
+	files[report.ProposalFile] = pdf
+	if pdf, err = pr.TechnicalPDF(); err != nil {
+		return nil, fmt.Errorf("%s: %w", report.TechnicalFile, err)
+	}
+	files[report.TechnicalFile] = pdf
 	if opt.Hourly && len(ls) > 0 {
 		b, err := report.HourlyCSV(hourlyRows(m, ls[0]))
 		if err != nil {
@@ -121,18 +123,14 @@ func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 	for _, f := range p.Site.Faces {
 		pl.Faces = append(pl.Faces, report.Shape{ID: f.ID, Ring: ringOf(f.Plan)})
 	}
-	// Every obstacle is drawn by its shape, whatever kind (or file) it came from.
-	for _, ob := range p.Site.Obstacles() {
-		switch {
-		case ob.Prism != nil:
-			pl.Blocks = append(pl.Blocks, report.Shape{ID: ob.ID, Ring: ringOf(ob.Prism.Footprint)})
-		case ob.Crown != nil:
-			t := ob.Crown
-			pl.Trees = append(pl.Trees, report.TreeMark{ID: ob.ID, X: t.Trunk[0], Y: t.Trunk[1], CrownRadiusM: t.CrownRadiusM})
-		}
+	for _, b := range p.Site.Blocks {
+		pl.Blocks = append(pl.Blocks, report.Shape{ID: b.ID, Ring: ringOf(b.Footprint)})
 	}
 	for _, a := range p.Site.Avoids {
 		pl.Avoids = append(pl.Avoids, report.Shape{ID: a.ID, Ring: ringOf(a.Area)})
+	}
+	for _, t := range p.Site.Trees {
+		pl.Trees = append(pl.Trees, report.TreeMark{ID: t.ID, X: t.Trunk[0], Y: t.Trunk[1], CrownRadiusM: t.CrownRadiusM})
 	}
 	index := map[string]int{}
 	for i, m := range p.Modules {
@@ -141,9 +139,6 @@ func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 			c[k] = [2]float64{v.E, v.N}
 		}
 		pm := report.PlanModule{ID: m.ID, Corners: c}
-		if i < len(s.ModuleResults) {
-			pm.ShadeLossPct = s.ModuleResults[i].ShadeLossPct
-		}
 		pl.Modules = append(pl.Modules, pm)
 		index[m.ID] = i
 	}
@@ -162,10 +157,14 @@ func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 	return pl
 }
 
-// sunPath is the sun-path chart's input, seen from the module that loses most to shade.
+// sunPath is the sun-path chart's input, seen from the connected module that loses most
+// to shade (any module, when no layout connects them).
 func (p *Project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, error) {
 	worst := -1
 	for i, r := range s.ModuleResults {
+		if r.String == "" && len(s.Layouts) > 0 {
+			continue
+		}
 		if worst < 0 || r.ShadeLossPct > s.ModuleResults[worst].ShadeLossPct {
 			worst = i
 		}
@@ -241,30 +240,4 @@ func ringOf(r orb.Ring) [][2]float64 {
 		out[i] = [2]float64(p)
 	}
 	return out
-}
-
-// SkyView is the sun-path chart's input for one module by id: the sun's paths over a typical
-// year and the silhouettes of everything that stands above the module's horizon.
-func (p *Project) SkyView(moduleID string) (*report.SunPath, error) {
-	idx := -1
-	ids := make([]string, 0, len(p.Modules))
-	for i, m := range p.Modules {
-		if m.ID == moduleID {
-			idx = i
-		}
-		ids = append(ids, m.ID)
-	}
-	if idx < 0 {
-		return nil, badInput{fmt.Errorf("module %q: no such module on %s; modules: %s", moduleID, p.Cfg.File, strings.Join(ids, ", "))}
-	}
-	sc, err := shading.NewScene(p.Site, p.Modules, shading.Options{Horizon: p.Horizon, Workers: 1})
-	if err != nil {
-		return nil, fmt.Errorf("sky view: %w", err)
-	}
-	const step = 1.0 // degrees of azimuth: finer than a chimney seen from a few metres
-	return &report.SunPath{
-		Observer: p.Observer, Zone: p.Cfg.Zone, Year: weather.TypicalYear,
-		Outlines: sc.Silhouette(idx, step), AzStepDeg: step, Module: moduleID,
-		ShadeLossPct: -1,
-	}, nil
 }

@@ -2,6 +2,7 @@ package survey
 
 import (
 	"fmt"
+	"strings"
 	"sunstring/geo"
 	"sunstring/yield"
 	"sunstring/yield/electric"
@@ -61,21 +62,40 @@ type RankedLayout struct {
 	Note    string
 }
 
+// ModelSources names the survey's models as published, with their sources, for the
+// sky model (perez, hay-davies, isotropic) and the incidence-angle modifier (martin-ruiz,
+// ashrae) the site file chose.
+func ModelSources(sky, iam string) []string {
+	skyText := "Perez et al. (1990), Solar Energy 44(5):271–289: anisotropic sky with circumsolar and horizon brightening"
+	switch strings.ToLower(sky) {
+	case "hay-davies":
+		skyText = "Hay & Davies (1980), Proc. First Canadian workshop on solar radiation data: circumsolar and isotropic sky"
+	case "isotropic":
+		skyText = "Liu & Jordan (1963), Solar Energy 7(2):53–74: isotropic sky"
+	}
+	iamText := "Martin & Ruiz (2001), Solar Energy Materials and Solar Cells 70(1):25–38"
+	if strings.EqualFold(iam, "ashrae") {
+		iamText = "ASHRAE form after Souka & Safwat (1966), Solar Energy 10(4):170–174"
+	}
+	return []string{
+		"Sun position: Solar Position Algorithm, Reda & Andreas (2004), NREL/TP-560-34302",
+		"Light on the tilted module (transposition): " + skyText + "; ground reflection with the site's albedo",
+		"Reflection at the glass (incidence-angle modifier): " + iamText,
+		"Cell temperature: Faiman (2008), Progress in Photovoltaics 16(4):307–315",
+		"Module: single-diode model fitted to the datasheet, De Soto, Klein & Beckman (2006), Solar Energy 80(1):78–88, solved with the Lambert W function (Jain & Kapoor 2004), cell by cell with bypass diodes",
+		"Shade: ray tests from every cell centre toward the sun; sky-view factors for the diffuse light",
+	}
+}
+
 // summary builds summary.json from the model and the ranked layouts (best first).
 func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout) *report.Summary {
 	kwp := float64(len(p.Modules)) * p.Datasheet.PowerW / 1000
 	s := &report.Summary{
-		Site:    report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
-		Modules: len(p.Modules),
-		DCkWp:   kwp,
-		Climate: report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
-		Models: []string{
-			"sun: Reda & Andreas (2004) SPA, NREL/TP-560-34302",
-			"sky: " + p.Cfg.Model.Sky + " transposition (Perez et al. 1990 by default)",
-			"incidence-angle modifier: " + p.Cfg.Model.IAM,
-			"cell temperature: Faiman (2008)",
-			"module: single-diode model, De Soto et al. (2006), per cell with bypass diodes",
-		},
+		Site:     report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
+		Modules:  len(p.Modules),
+		DCkWp:    kwp,
+		Climate:  report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
+		Models:   ModelSources(p.Cfg.Model.Sky, p.Cfg.Model.IAM),
 		Cautions: report.Cautions,
 	}
 	for _, mo := range ws.Monthly() {
@@ -115,8 +135,13 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 		s.MonthlyUnshaded = r.MonthlyUnshadedACkWh
 		s.LossesStartKWh = r.NominalDCkWh
 		for _, l := range r.Losses {
-			s.Losses = append(s.Losses, report.Loss{Step: l.Step, KWh: l.KWh, Pct: l.Pct})
+			s.Losses = append(s.Losses, report.Loss{Group: l.Group, Step: l.Step, KWh: l.KWh, Pct: l.Pct})
 		}
+		sh := &report.ShadeSplit{LostKWh: r.Shade.LostKWh, LostPct: r.Shade.LostPct}
+		for _, part := range r.Shade.Parts {
+			sh.Parts = append(sh.Parts, report.ShadePart{Cause: part.Cause, KWh: part.KWh, Pct: part.Pct})
+		}
+		s.Shade = sh
 		s.Checks = append(p.electricalChecks(best.Name, lengths(best.Result.Layout)), p.leakageChecks(connected)...)
 		// "<input>.<string on that input>", both counted from 1.
 		nth := map[int]int{}

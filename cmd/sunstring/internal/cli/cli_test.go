@@ -99,7 +99,7 @@ func TestSurveyExampleContract(t *testing.T) {
 	if err := json.Unmarshal(b, &s); err != nil {
 		t.Fatal(err)
 	}
-	// Every key of the summary.json contract in README.md (Outputs).
+	// Every key of DESIGN.md's output contract.
 	for _, k := range []string{"site", "modules", "dc_kwp", "climate", "annual_ac_kwh", "specific_yield_kwh_per_kwp",
 		"performance_ratio", "monthly_ac_kwh", "losses", "layouts", "module_results", "warnings"} {
 		if _, ok := s[k]; !ok {
@@ -215,7 +215,7 @@ func TestSurveyDeterministicAndAtomic(t *testing.T) {
 	if _, errs, code := run(t, "survey", exampleSite, "-o", dir, "--hourly"); code != 0 {
 		t.Fatalf("second run exit %d: %s", code, errs)
 	}
-	for _, f := range []string{"summary.json", "modules.geojson", "hourly.csv", "proposal.pdf"} {
+	for _, f := range []string{"summary.json", "modules.geojson", "hourly.csv", "proposal.pdf", "technical-sheet.pdf"} {
 		a, _ := os.ReadFile(filepath.Join(first, f))
 		b, _ := os.ReadFile(filepath.Join(dir, f))
 		if !bytes.Equal(a, b) || len(a) == 0 {
@@ -399,7 +399,7 @@ func TestSkyCommand(t *testing.T) {
 }
 
 // Without climate data the survey runs on an indicative clear-sky year and says so in every
-// output (README.md, Inputs: without climate data).
+// output (DESIGN.md).
 func TestIndicativeClimateIsLoud(t *testing.T) {
 	dir := t.TempDir()
 	site, _ := os.ReadFile(exampleSite)

@@ -41,29 +41,39 @@ func TestSurveyReportFiles(t *testing.T) {
 			}
 		}
 	}
-	pdf, err := os.ReadFile(filepath.Join(dir, "proposal.pdf"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !strings.Contains(string(pdf), "/MediaBox [0 0 612.00 792.00]") {
-		t.Errorf("proposal.pdf is not Letter (612 × 792 pt, ANSI 8.5 × 11 in)")
-	}
-	if _, err := exec.LookPath("pdftotext"); err == nil {
-		out, err := exec.Command("pdftotext", filepath.Join(dir, "proposal.pdf"), "-").Output()
+	for _, doc := range []string{"proposal.pdf", "technical-sheet.pdf"} {
+		pdf, err := os.ReadFile(filepath.Join(dir, doc))
 		if err != nil {
 			t.Fatal(err)
 		}
-		txt := string(out)
-		for name, want := range map[string]string{
+		if !strings.Contains(string(pdf), "/MediaBox [0 0 612.00 792.00]") {
+			t.Errorf("%s is not Letter (612 × 792 pt, ANSI 8.5 × 11 in)", doc)
+		}
+		if _, err := exec.LookPath("pdftotext"); err != nil {
+			t.Log("pdftotext not installed: the PDF's text is not checked")
+			continue
+		}
+		out, err := exec.Command("pdftotext", filepath.Join(dir, doc), "-").Output()
+		if err != nil {
+			t.Fatal(err)
+		}
+		txt := strings.Join(strings.Fields(string(out)), " ")
+		want := map[string]string{
 			"annual AC energy": report.Thousands(s.AnnualACkWh, 0),
 			"specific yield":   report.Thousands(s.SpecificYield, 0),
-		} {
-			if !strings.Contains(txt, want) {
-				t.Errorf("%s %q (summary.json) not in the proposal's text", name, want)
+		}
+		if s.Shade != nil {
+			// The one shade figure, with the same words as summary.json's split.
+			want["shade lost"] = report.Pct(s.Shade.LostPct)
+			for _, p := range s.Shade.Parts {
+				want["shade part: "+p.Cause] = p.Cause
 			}
 		}
-	} else {
-		t.Log("pdftotext not installed: the PDF's text is not checked")
+		for name, w := range want {
+			if !strings.Contains(txt, w) {
+				t.Errorf("%s: %s %q (summary.json) not in the text", doc, name, w)
+			}
+		}
 	}
 
 	tests := []struct {

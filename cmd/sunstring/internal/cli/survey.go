@@ -28,11 +28,12 @@ func newSurveyCmd() *cobra.Command {
 hour of the year and the shade on every cell of every module, simulate the strings and
 the inverter, rank string layouts, and write into DIR:
 
-  summary.json      key figures, losses, layouts and per-module results
-  modules.geojson   the placed modules (id, face, string, shade loss) and the drawing
-  proposal.pdf      the customer proposal (A4, or --paper letter)
-  *.png             the charts: plan, strings, sunpath, monthly, losses, layouts
-  hourly.csv        with --hourly: weather, sunlit share and AC power per record
+  summary.json         key figures, losses, layouts and per-module results
+  modules.geojson      the placed modules (id, face, string, shade loss) and the drawing
+  proposal.pdf         the proposal for the homeowner (A4, or --paper letter)
+  technical-sheet.pdf  checks, layouts, alternatives and losses for the installer
+  *.png                the charts: plan, strings, sunpath, monthly, losses, layouts
+  hourly.csv           with --hourly: weather, sunlit share and AC power per record
 
 DIR is replaced only when the run succeeds; an earlier report stays as it was otherwise.
 Estimates only: local codes and a licensed installer have the final word.`,
