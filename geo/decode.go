@@ -77,7 +77,8 @@ type decoder struct {
 	probs Problems
 	warns []string
 	proj  *ENU
-	lat0  float64 // the site origin's latitude, for hemisphere defaults
+	lat0  float64        // the site origin's latitude, for hemisphere defaults
+	ids   map[string]int // feature index by id, for ids that kinds derive
 	site  *Site
 }
 

@@ -41,6 +41,7 @@ func (d *decoder) structure(root *jnode) []*rawFeature {
 	}
 	var out []*rawFeature
 	ids := map[string]int{}
+	d.ids = ids
 	for i, fn := range fs.vals {
 		f := &rawFeature{index: i, n: fn}
 		d.feature(f)

@@ -21,6 +21,8 @@
 //	roof   Polygon   id, pitch_deg [0, 70], aspect_deg [0, 360) (downhill), eave_height_m;
 //	                 or 3-D coordinates instead (pitch_deg, aspect_deg, eave_height_m may
 //	                 then be given too and must agree with the corners)
+//	building Polygon id, roof_shape (gabled, hipped, skillion, flat), pitch_deg, eave_height_m,
+//	                 ridge_azimuth_deg: the roof faces and the walls (Building)
 //	block  Polygon   id, height_m (top, or the eaves of a gable roof), base_m (default 0),
 //	                 ridge_m and ridge_azimuth_deg (both or neither: a gable roof)
 //	tree   Point     id, height_m (top of crown), crown_radius_m, crown_base_m,
@@ -61,8 +63,8 @@
 //
 // # Kinds and obstacles
 //
-// Each map kind lives in its own file (kind_roof.go, kind_block.go, kind_tree.go,
-// kind_marks.go) and is listed in one table (kind.go): its geometry, its properties, its
+// Each map kind lives in its own file (kind_roof.go, kind_building.go, kind_block.go,
+// kind_tree.go, kind_marks.go) and is listed in one table (kind.go): its geometry, its properties, its
 // validation, its export and the obstacles it casts shade with. Site.Obstacles lists every
 // shade-casting body as a prism or a crown, whatever kind drew it; the shading package and the
 // plan work from that list alone.

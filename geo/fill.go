@@ -338,8 +338,8 @@ func faceObstacles(site *Site, f *Face, fr *frame) ([]orb.Ring, []string) {
 	}
 	for _, ob := range site.Obstacles() {
 		b := ob.Prism
-		if b == nil {
-			continue
+		if b == nil || ob.Kind == "building" && ob.ID == f.Building {
+			continue // a building's own walls stand under its roof
 		}
 		above := false
 		for _, p := range b.Footprint {

@@ -3,7 +3,8 @@ package geo
 import "strings"
 
 // kind is one value of a map feature's "kind" property. Everything the package knows of a kind
-// lives in its own file (kind_roof.go, kind_block.go, kind_tree.go, kind_marks.go) and is
+// lives in its own file (kind_roof.go, kind_building.go, kind_block.go, kind_tree.go,
+// kind_marks.go) and is
 // gathered in kinds: the geometry and properties the decoder expects, how a structurally sound
 // feature is validated and added to the site, how it is written back by ExportGeoJSON and, for
 // an obstruction, the bodies it casts shade with (Site.Obstacles), which the shading package
@@ -22,7 +23,7 @@ type kind struct {
 }
 
 // kinds lists every kind in the order messages name them and obstacles are listed.
-var kinds = []*kind{&roofKind, &blockKind, &treeKind, &avoidKind, &panelKind}
+var kinds = []*kind{&roofKind, &buildingKind, &blockKind, &treeKind, &avoidKind, &panelKind}
 
 // kindNamed returns the kind called name, or nil.
 func kindNamed(name string) *kind {
@@ -34,7 +35,7 @@ func kindNamed(name string) *kind {
 	return nil
 }
 
-// kindList names the kinds for messages: "roof, block, tree, avoid or panel".
+// kindList names the kinds for messages: "roof, building, block, tree, avoid or panel".
 func kindList() string {
 	names := make([]string, len(kinds))
 	for i, k := range kinds {

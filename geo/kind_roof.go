@@ -17,6 +17,9 @@ var roofKind = kind{
 		var out []exportItem
 		for i := range s.Faces {
 			f := &s.Faces[i]
+			if f.Building != "" {
+				continue // written as its building
+			}
 			out = append(out, exportItem{f.Index, func(b *bytes.Buffer) error {
 				return e.feature(b, e.ring(f.Plan), kv{"kind", "roof"}, kv{"id", f.ID},
 					kv{"pitch_deg", round(f.PitchDeg)}, kv{"aspect_deg", round(f.AspectDeg)}, kv{"eave_height_m", round(f.EaveHeightM)})

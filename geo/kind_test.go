@@ -23,7 +23,7 @@ func TestKindTable(t *testing.T) {
 			t.Errorf("kind %q lacks build or export", k.name)
 		}
 	}
-	if got, want := kindList(), "roof, block, tree, avoid or panel"; got != want {
+	if got, want := kindList(), "roof, building, block, tree, avoid or panel"; got != want {
 		t.Errorf("kindList() = %q, want %q (the messages' wording)", got, want)
 	}
 }

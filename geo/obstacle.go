@@ -13,7 +13,7 @@ type Obstacle struct {
 }
 
 // Obstacles returns every shade-casting body of the site, kind by kind in the order of the
-// package's kind table (blocks, then trees), each kind in map order. Roof faces are not
+// package's kind table (buildings' walls, blocks, then trees), each kind in map order. Roof faces are not
 // listed: they shade as faces.
 func (s *Site) Obstacles() []Obstacle {
 	if s == nil {

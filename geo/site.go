@@ -10,12 +10,14 @@ import (
 // Site is the surveyor's drawing in local east-north-up metres. U is height above the site's
 // ground datum.
 type Site struct {
-	Proj   *ENU
-	Faces  []Face
-	Blocks []Block
-	Trees  []Tree
-	Avoids []Avoid
-	Panels []Panel
+	Proj  *ENU
+	Faces []Face
+	// Buildings are houses drawn by footprint and roof shape; their roof faces are in Faces.
+	Buildings []Building
+	Blocks    []Block
+	Trees     []Tree
+	Avoids    []Avoid
+	Panels    []Panel
 	// Warnings are problems that do not stop a survey (for the surveyor to read).
 	Warnings []string
 }
@@ -36,6 +38,9 @@ type Face struct {
 	// EaveOffsetM is the coordinate, along the downhill direction, of the eave; the height at
 	// a plan point p is EaveHeightM + (EaveOffsetM − downhill·p)·tan(pitch).
 	EaveOffsetM float64
+
+	// Building is the id of the building whose roof the face is; empty for a face drawn by hand.
+	Building string
 }
 
 // Downhill returns the horizontal unit vector the face slopes toward.

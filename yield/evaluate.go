@@ -121,7 +121,14 @@ func (m *Model) flat() (dcKeep, avail float64) {
 // EvaluateACWh is the layout's annual AC energy (Wh) net of every loss, as Evaluate's ACkWh,
 // without the unshaded reference and the breakdown: the layout search's objective.
 func (m *Model) EvaluateACWh(l electric.Layout, opt electric.EvalOptions) (float64, error) {
-	yr, err := m.Year.Evaluate(l, m.In.System.Inverter, m.options(opt))
+	return m.EvaluateACWhCached(l, opt, nil)
+}
+
+// EvaluateACWhCached is EvaluateACWh through a cache of the inputs' shares of the year, so
+// that a search that changes one or two inputs at a time recomputes only those; the value is
+// the same to the bit. A nil cache computes everything.
+func (m *Model) EvaluateACWhCached(l electric.Layout, opt electric.EvalOptions, c *electric.EvalCache) (float64, error) {
+	yr, err := m.Year.EvaluateCached(l, m.In.System.Inverter, m.options(opt), c)
 	if err != nil {
 		return 0, fmt.Errorf("yield: layout: %w", err)
 	}

@@ -132,3 +132,41 @@ with open("testdata/bad/not-collection.geojson", "w") as f:
     f.write('{"type": "Feature", "properties": {}, "geometry": null}\n')
 with open("testdata/bad/crs.geojson", "w") as f:
     f.write('{"type": "FeatureCollection", "crs": {"type": "name", "properties": {"name": "EPSG:3857"}}, "features": []}\n')
+
+# Buildings drawn by footprint and roof shape (a gabled house, the same roof drawn as two faces,
+# hipped, skillion, flat, L-shaped gabled with wings of one width and of two widths, and a
+# near-rectangle turned 30° with one corner 5 cm off square).
+def ring(pts):
+    pts = list(pts) + [pts[0]]
+    return [[ll(x, y) for x, y in pts]]
+
+def bld(id, shape, pts, **kw):
+    p = {"kind": "building", "id": id, "roof_shape": shape}
+    p.update(kw)
+    return feat(p, poly(ring(pts)))
+
+def turned(pts, deg, dx=0, dy=0):
+    c, s = math.cos(math.radians(deg)), math.sin(math.radians(deg))
+    return [(dx + x * c + y * s, dy - x * s + y * c) for x, y in pts]
+
+dump("testdata/buildings.geojson", [
+    bld("gable", "gabled", [(-5, -4), (5, -4), (5, 4), (-5, 4)], pitch_deg=35, eave_height_m=3, ridge_azimuth_deg=90),
+    bld("hip", "hipped", [(20, -4), (32, -4), (32, 4), (20, 4)], pitch_deg=30, eave_height_m=3),
+    bld("lean", "skillion", [(40, -3), (46, -3), (46, 3), (40, 3)], pitch_deg=10, eave_height_m=2.5, ridge_azimuth_deg=200),
+    bld("box", "flat", [(55, -5), (65, -5), (65, 2), (55, 2)], eave_height_m=6),
+    bld("ell", "gabled", [(-5, 20), (7, 20), (7, 26), (1, 26), (1, 34), (-5, 34)], pitch_deg=40, eave_height_m=4),
+    bld("wide", "gabled", [(20, 20), (34, 20), (34, 28), (24, 28), (24, 36), (20, 36)], pitch_deg=35, eave_height_m=3),
+    bld("skew", "gabled", turned([(0, 0), (10, 0), (10, 6.05), (0, 6)], -30, 45, 25), pitch_deg=30, eave_height_m=3),
+])
+dump("testdata/gable-drawn.geojson", [
+    feat({"kind": "roof", "id": "gable-S", "pitch_deg": 35, "aspect_deg": 180, "eave_height_m": 3}, poly(rect(-5, -4, 5, 0))),
+    feat({"kind": "roof", "id": "gable-N", "pitch_deg": 35, "aspect_deg": 0, "eave_height_m": 3}, poly(rect(-5, 0, 5, 4))),
+    feat({"kind": "block", "id": "gable", "height_m": 3}, poly(rect(-5, -4, 5, 4))),
+])
+bad("building-pentagon", [bld("house", "gabled", [(0, 0), (10, 0), (10, 6), (5, 9), (0, 6)], pitch_deg=35, eave_height_m=3)])
+bad("building-hipped-ell", [bld("house", "hipped", [(-5, 20), (7, 20), (7, 26), (1, 26), (1, 34), (-5, 34)], pitch_deg=35, eave_height_m=3)])
+bad("building-shape", [bld("house", "mansard", [(0, 0), (10, 0), (10, 6), (0, 6)], pitch_deg=35, eave_height_m=3)])
+bad("building-skillion-no-direction", [bld("shed", "skillion", [(0, 0), (4, 0), (4, 3), (0, 3)], pitch_deg=10, eave_height_m=2)])
+bad("building-ridge-askew", [bld("house", "gabled", [(0, 0), (10, 0), (10, 6), (0, 6)], pitch_deg=35, eave_height_m=3, ridge_azimuth_deg=45)])
+bad("building-face-id", [bld("house", "gabled", [(0, 0), (10, 0), (10, 6), (0, 6)], pitch_deg=35, eave_height_m=3, ridge_azimuth_deg=90),
+                         feat({"kind": "roof", "id": "house-S", "pitch_deg": 20, "aspect_deg": 180, "eave_height_m": 2}, poly(rect(0, -5, 10, -1)))])

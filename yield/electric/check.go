@@ -82,8 +82,10 @@ func StringLimits(ds Datasheet, lowTempC, hotCellTempC float64, inv Inverter) (m
 // (Error); MPP voltage at hotCellTempC at or above the MPPT minimum
 // (Warning); MPP voltage at lowTempC within the MPPT maximum (Warning);
 // input MPP current at STC within the input limit (Warning: the inverter
-// moves off the maximum); 1.25·Isc per input above the limit (Info: the
-// short-circuit safety factor of IEC 62548-1 practice, from memory); strings
+// moves off the maximum); 1.25·Isc per input above the limit (Warning: the
+// factor IEC 62548-1 applies to a string's short-circuit current at STC for
+// higher irradiance when it sizes cables and protection, from memory; an
+// input rated below it may not withstand a fault); strings
 // of unequal length on one input (Warning); more inputs than the inverter
 // has (Error). Invalid datasheet or inverter values give one Error each.
 func CheckStrings(ds Datasheet, inputs [][]int, lowTempC, hotCellTempC float64, inv Inverter) []Finding {
@@ -134,8 +136,8 @@ func CheckStrings(ds Datasheet, inputs [][]int, lowTempC, hotCellTempC float64, 
 				Message: fmt.Sprintf("input %d: %d strings give %.1f A at the MPP, above the input limit %.1f A; the inverter will clip current", a+1, nPar, i, inv.MaxInputCurrentA)})
 		}
 		if i := 1.25 * float64(nPar) * ds.IscA; i > inv.MaxInputCurrentA {
-			out = append(out, Finding{Severity: Info, Code: "input_isc", Input: a, Value: i, Limit: inv.MaxInputCurrentA, Unit: "A",
-				Message: fmt.Sprintf("input %d: 1.25 × short-circuit current %.1f A exceeds %.1f A; check the inverter's short-circuit rating", a+1, i, inv.MaxInputCurrentA)})
+			out = append(out, Finding{Severity: Warning, Code: "input_isc", Input: a, Value: i, Limit: inv.MaxInputCurrentA, Unit: "A",
+				Message: fmt.Sprintf("input %d: 1.25 × short-circuit current (the IEC 62548-1 sizing factor) is %.1f A, above the input rating %.1f A; check the inverter's maximum short-circuit current per input, or put fewer strings on this input", a+1, i, inv.MaxInputCurrentA)})
 		}
 		if minL != maxL {
 			out = append(out, Finding{Severity: Warning, Code: "unequal_strings", Input: a, Value: float64(maxL), Limit: float64(minL), Unit: "",

@@ -189,6 +189,20 @@ func TestStringSizing(t *testing.T) {
 	if len(want) != 0 {
 		t.Errorf("missing findings %v in %+v", want, fs)
 	}
+	// 1.25 × 2 × 9.5 A = 23.75 A over the 12 A input rating: a warning, not a remark, since
+	// the input may not withstand a fault (IEC 62548-1 sizing factor, from memory).
+	isc := false
+	for _, f := range fs {
+		if f.Code == "input_isc" {
+			isc = true
+			if f.Severity != Warning || !scalar.EqualWithinAbs(f.Value, 23.75, 1e-9) || f.Input != 1 {
+				t.Errorf("input_isc %+v, want a warning of 23.75 A on input 2", f)
+			}
+		}
+	}
+	if !isc {
+		t.Errorf("no input_isc finding in %+v", fs)
+	}
 	if fs := CheckStrings(ds, [][]int{{20}, {12}}, -10, 70, inv); len(fs) != 0 {
 		t.Errorf("good design flagged: %+v", fs)
 	}

@@ -57,9 +57,12 @@ func ShadeFeatures(m *yield.Model) [][]float64 {
 
 // ModelEvaluator evaluates layouts on a prepared model: the annual AC energy in Wh after
 // every loss (yield.Model.Evaluate), so that the search ranks layouts on exactly what the
-// report shows. The model's year of module curves is shared by all calls.
+// report shows. The model's year of module curves is shared by all calls, and each input's
+// share of the year is kept (electric.EvalCache, 64 MB at most), so that a layout that
+// differs from an earlier one in one or two inputs costs only those inputs.
 func ModelEvaluator(m *yield.Model, opt electric.EvalOptions) Evaluator {
+	c := &electric.EvalCache{}
 	return func(l electric.Layout) (float64, error) {
-		return m.EvaluateACWh(l, opt)
+		return m.EvaluateACWhCached(l, opt, c)
 	}
 }

@@ -92,9 +92,11 @@ func (r roof) eval(l electric.Layout) (float64, error) {
 // exhaustive evaluates every distinct layout of every shape, the reference for the search.
 func exhaustive(t *testing.T, n, inputs int, b Bounds, leaveOut bool, eval Evaluator) (best float64, count int) {
 	t.Helper()
+	// The search's rule: with leave-out, at least the inputs' capacity (or every module)
+	// less a quarter of the roof.
 	minMods := n
-	if leaveOut {
-		minMods = n - n/4
+	if capacity := inputs * b.MaxParallel * b.MaxSeries; leaveOut || capacity < n {
+		minMods = min(n, capacity) - n/4
 	}
 	best = math.Inf(-1)
 	seen := map[string]bool{}
@@ -202,43 +204,129 @@ func (c *checked) Evaluate(l electric.Layout) (float64, error) {
 }
 
 // On small roofs the search must find the optimum that enumerating every layout finds; the
-// enumeration is its own reference. The cases vary the shade, the bounds and leave-out.
+// test's own enumeration is the reference. Each case runs twice: with a budget that covers
+// every layout (the search then enumerates them itself and says so, and counts as many
+// layouts as the reference), and with a budget just short of that, so that the local search
+// must find the optimum on its own. The cases vary the shade, the bounds and leave-out.
 func TestSearchMatchesExhaustive(t *testing.T) {
 	for _, c := range []struct {
-		name              string
-		n, cols, shadows  int
-		inputs            int
-		b                 Bounds
-		leaveOut          bool
-		seed              uint64
-		fullNeighbourhood bool
+		name             string
+		n, cols, shadows int
+		inputs           int
+		b                Bounds
+		leaveOut         bool
+		seed             uint64
 	}{
-		{"8 modules, 2 single-string inputs", 8, 4, 3, 2, Bounds{MinSeries: 3, MaxSeries: 6, MaxParallel: 1}, false, 1, true},
-		{"9 modules, parallel strings allowed", 9, 3, 4, 2, Bounds{MinSeries: 3, MaxSeries: 5, MaxParallel: 2}, false, 2, true},
-		{"10 modules, heavy shade", 10, 5, 6, 2, Bounds{MinSeries: 3, MaxSeries: 7, MaxParallel: 2}, false, 3, true},
-		{"10 modules, three inputs", 10, 5, 4, 3, Bounds{MinSeries: 3, MaxSeries: 6, MaxParallel: 1}, false, 4, true},
-		{"9 modules, leave-out allowed", 9, 3, 5, 2, Bounds{MinSeries: 3, MaxSeries: 4, MaxParallel: 1}, true, 5, true},
-		{"11 modules, one input", 11, 4, 5, 1, Bounds{MinSeries: 3, MaxSeries: 6, MaxParallel: 3}, true, 6, true},
+		{"8 modules, 2 single-string inputs", 8, 4, 3, 2, Bounds{MinSeries: 3, MaxSeries: 6, MaxParallel: 1}, false, 1},
+		{"9 modules, parallel strings allowed", 9, 3, 4, 2, Bounds{MinSeries: 3, MaxSeries: 5, MaxParallel: 2}, false, 2},
+		{"10 modules, heavy shade", 10, 5, 6, 2, Bounds{MinSeries: 3, MaxSeries: 7, MaxParallel: 2}, false, 3},
+		{"10 modules, three inputs", 10, 5, 4, 3, Bounds{MinSeries: 3, MaxSeries: 6, MaxParallel: 1}, false, 4},
+		{"9 modules, leave-out allowed", 9, 3, 5, 2, Bounds{MinSeries: 3, MaxSeries: 4, MaxParallel: 1}, true, 5},
+		{"11 modules, one input", 11, 4, 5, 1, Bounds{MinSeries: 3, MaxSeries: 6, MaxParallel: 3}, true, 6},
+	} {
+		r := randomRoof(c.n, c.cols, 48, c.shadows, c.seed)
+		want, count := exhaustive(t, c.n, c.inputs, c.b, c.leaveOut, r.eval)
+		p := Problem{Features: r.features(), Positions: r.pos, Bounds: c.b, Inputs: c.inputs}
+		for _, mode := range []struct {
+			name     string
+			maxEvals int
+			enum     bool
+		}{
+			{"enumerated", count, true},
+			{"local search", count - 1, false},
+		} {
+			t.Run(c.name+", "+mode.name, func(t *testing.T) {
+				chk := &checked{n: c.n, in: c.inputs, b: c.b, eval: r.eval}
+				got, err := Search(context.Background(), p, chk.Evaluate, Options{LeaveOut: c.leaveOut, MaxEvals: mode.maxEvals})
+				if err != nil {
+					t.Fatal(err)
+				}
+				best := got.Candidates[0]
+				// The same evaluator on the same layout: equal to rounding.
+				if !scalar.EqualWithinAbsOrRel(best.EnergyWh, want, 1e-9, 1e-9) {
+					t.Errorf("search best %.4f Wh, exhaustive best %.4f Wh over %d layouts (start %q, shape %s)",
+						best.EnergyWh, want, count, best.Start, best.Shape)
+				}
+				if got.Exhaustive != mode.enum {
+					t.Errorf("Exhaustive = %v, want %v (%d layouts, budget %d)", got.Exhaustive, mode.enum, count, mode.maxEvals)
+				}
+				if mode.enum && got.Evaluated != count {
+					t.Errorf("enumeration evaluated %d layouts, the reference counts %d", got.Evaluated, count)
+				}
+				t.Logf("search: %d evaluations; enumeration: %d layouts", got.Evaluated, count)
+				if len(chk.bad) > 0 {
+					t.Errorf("layouts outside the bounds were evaluated: %v", chk.bad[:min(3, len(chk.bad))])
+				}
+			})
+		}
+	}
+}
+
+// countLayouts agrees with the test's enumeration of distinct layouts.
+func TestCountLayouts(t *testing.T) {
+	for _, c := range []struct {
+		name     string
+		n        int
+		inputs   int
+		b        Bounds
+		leaveOut bool
+	}{
+		{"8 modules, 2 inputs", 8, 2, Bounds{MinSeries: 3, MaxSeries: 6, MaxParallel: 1}, false},
+		{"9 modules, parallel strings", 9, 2, Bounds{MinSeries: 3, MaxSeries: 5, MaxParallel: 2}, false},
+		{"9 modules, leave-out", 9, 2, Bounds{MinSeries: 3, MaxSeries: 4, MaxParallel: 1}, true},
+		{"8 modules, 3 equal inputs", 8, 3, Bounds{MinSeries: 2, MaxSeries: 4, MaxParallel: 2}, false},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			r := randomRoof(c.n, c.cols, 48, c.shadows, c.seed)
-			want, count := exhaustive(t, c.n, c.inputs, c.b, c.leaveOut, r.eval)
-			chk := &checked{n: c.n, in: c.inputs, b: c.b, eval: r.eval}
-			got, err := Search(context.Background(), Problem{Features: r.features(), Positions: r.pos, Bounds: c.b, Inputs: c.inputs},
-				chk.Evaluate, Options{LeaveOut: c.leaveOut, MaxEvals: 2000})
+			eval := func(electric.Layout) (float64, error) { return 1, nil }
+			_, want := exhaustive(t, c.n, c.inputs, c.b, c.leaveOut, eval)
+			p := Problem{Inputs: c.inputs, Bounds: c.b}
+			got := countLayouts(shapesFor(p, c.n, c.leaveOut), c.n)
+			// An exact count, computed through log-gamma: equal to 1e-9.
+			if !scalar.EqualWithinAbsOrRel(got, float64(want), 1e-9, 1e-9) {
+				t.Errorf("countLayouts %.3f, enumeration %d", got, want)
+			}
+		})
+	}
+}
+
+// More freedom never gives a worse best: leave-out allowed against not, three inputs against
+// two, on seeded roofs too large to enumerate; and the best is never worse than a start the
+// caller gives (here a poor one: the modules in reverse index order).
+func TestSearchMonotone(t *testing.T) {
+	for seed := range uint64(4) {
+		r := randomRoof(24, 6, 48, 8, 100+seed)
+		b := Bounds{MinSeries: 4, MaxSeries: 9, MaxParallel: 2}
+		var rev []int
+		for m := 23; m >= 0; m-- {
+			rev = append(rev, m)
+		}
+		given := electric.Layout{Inputs: [][][]int{{rev[:8], rev[8:16]}, {rev[16:]}}}
+		run := func(inputs int, leaveOut bool) float64 {
+			p := Problem{Features: r.features(), Positions: r.pos, Bounds: b, Inputs: inputs, Starts: []electric.Layout{given}}
+			res, err := Search(context.Background(), p, r.eval, Options{LeaveOut: leaveOut, MaxEvals: 150})
 			if err != nil {
 				t.Fatal(err)
 			}
-			// The same evaluator on the same layout: equal to rounding.
-			if !scalar.EqualWithinAbsOrRel(got[0].EnergyWh, want, 1e-9, 1e-9) {
-				t.Errorf("search best %.4f Wh, exhaustive best %.4f Wh over %d layouts (start %q, shape %s)",
-					got[0].EnergyWh, want, count, got[0].Start, got[0].Shape)
+			if res.Exhaustive {
+				t.Fatalf("seed %d: %d inputs enumerated; the case must need the local search", seed, inputs)
 			}
-			t.Logf("search: %d evaluations; enumeration: %d layouts", chk.calls, count)
-			if len(chk.bad) > 0 {
-				t.Errorf("layouts outside the bounds were evaluated: %v", chk.bad[:min(3, len(chk.bad))])
+			return res.Candidates[0].EnergyWh
+		}
+		two, twoOut, three := run(2, false), run(2, true), run(3, false)
+		g, _ := r.eval(given)
+		for _, c := range []struct {
+			name         string
+			wide, narrow float64
+		}{
+			{"leave-out against not", twoOut, two},
+			{"three inputs against two", three, two},
+			{"search against the given start", two, g},
+		} {
+			// Equal layouts give equal energies to the bit; a margin of rounding only.
+			if c.wide < c.narrow*(1-1e-12) {
+				t.Errorf("seed %d, %s: %.4f < %.4f", seed, c.name, c.wide, c.narrow)
 			}
-		})
+		}
 	}
 }
 
@@ -316,11 +404,11 @@ func TestShadedEndTogether(t *testing.T) {
 				t.Fatal(err)
 			}
 			// The search's best is at least keeping them together (rounding aside).
-			if got[0].EnergyWh < et*(1-1e-9) {
-				t.Errorf("search best %.3f Wh below together %.3f Wh", got[0].EnergyWh, et)
+			if got.Candidates[0].EnergyWh < et*(1-1e-9) {
+				t.Errorf("search best %.3f Wh below together %.3f Wh", got.Candidates[0].EnergyWh, et)
 			}
 			var home []int
-			for a, in := range got[0].Layout.Inputs {
+			for a, in := range got.Candidates[0].Layout.Inputs {
 				for b, s := range in {
 					for _, m := range s {
 						if m < 3 {
@@ -330,7 +418,7 @@ func TestShadedEndTogether(t *testing.T) {
 				}
 			}
 			if home[0] != home[1] || home[1] != home[2] {
-				t.Errorf("shaded modules 0, 1, 2 in strings %v of %v", home, got[0].Layout.Inputs)
+				t.Errorf("shaded modules 0, 1, 2 in strings %v of %v", home, got.Candidates[0].Layout.Inputs)
 			}
 		})
 	}
@@ -349,9 +437,9 @@ func TestGivenStart(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	bestE, bestL := long[0].EnergyWh, long[0].Layout
-	if !scalar.EqualWithinAbsOrRel(bestE, want, 1e-9, 1e-9) {
-		t.Skipf("the long search did not reach the optimum (%.3f against %.3f); nothing to give", bestE, want)
+	bestE, bestL := long.Candidates[0].EnergyWh, long.Candidates[0].Layout
+	if !long.Exhaustive || !scalar.EqualWithinAbsOrRel(bestE, want, 1e-9, 1e-9) {
+		t.Fatalf("the long search (exhaustive %v) did not reach the optimum: %.3f against %.3f", long.Exhaustive, bestE, want)
 	}
 	bad := electric.Layout{Inputs: [][][]int{{{0, 1}}}} // two modules: below MinSeries
 	got, err := Search(context.Background(), Problem{Features: r.features(), Bounds: b, Inputs: inputs, Starts: []electric.Layout{bad, bestL}},
@@ -359,7 +447,7 @@ func TestGivenStart(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !scalar.EqualWithinAbsOrRel(got[0].EnergyWh, want, 1e-9, 1e-9) || got[0].Start != StartGiven {
-		t.Errorf("best %.4f Wh from %q, want the given optimum %.4f Wh", got[0].EnergyWh, got[0].Start, want)
+	if !scalar.EqualWithinAbsOrRel(got.Candidates[0].EnergyWh, want, 1e-9, 1e-9) || got.Candidates[0].Start != StartGiven {
+		t.Errorf("best %.4f Wh from %q, want the given optimum %.4f Wh", got.Candidates[0].EnergyWh, got.Candidates[0].Start, want)
 	}
 }

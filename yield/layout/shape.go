@@ -3,6 +3,7 @@ package layout
 import (
 	"cmp"
 	"fmt"
+	"iter"
 	"slices"
 
 	"sunstring/yield/electric"
@@ -57,17 +58,77 @@ func (sh Shape) String() string {
 	return s
 }
 
-// Shapes lists every shape that wires between minModules and n modules into at most inputs
-// inputs within the bounds (MinSeries..MaxSeries modules per string, at most MaxParallel equal
-// strings per input), most modules first, then fewest strings, then most even string lengths.
-// The order is the search's preference among equal energies: every module used, then the
-// least wiring. A shape with no string is never listed.
+// MaxShapes is the most shapes Shapes returns. The search starts from the first shapes only
+// (a third of its budget of full-year evaluations, a few starts a shape), so a longer list
+// would only cost memory: with a dozen inputs the complete list runs to millions.
+const MaxShapes = 256
+
+// Shapes lists the first MaxShapes shapes that wire between minModules and n modules into at
+// most inputs inputs within the bounds (MinSeries..MaxSeries modules per string, at most
+// MaxParallel equal strings per input), most modules first, then fewest strings, then most
+// even string lengths. The order is the search's preference among equal energies: every
+// module used, then the least wiring. A shape with no string is never listed. ShapeSeq gives
+// the same order without the cap.
 func Shapes(n, minModules, inputs int, b Bounds) []Shape {
-	if n < 1 || inputs < 1 || b.MinSeries < 1 || b.MaxSeries < b.MinSeries || b.MaxParallel < 1 {
-		return nil
+	var out []Shape
+	for sh := range ShapeSeq(n, minModules, inputs, b) {
+		out = append(out, sh)
+		if len(out) == MaxShapes {
+			break
+		}
 	}
-	minModules = max(minModules, 1)
-	var opts []InputShape // per input, ordered so that generated lists come out sorted
+	return out
+}
+
+// AnyShape reports whether some shape wires between minModules and n modules into at most
+// inputs inputs within the bounds.
+func AnyShape(n, minModules, inputs int, b Bounds) bool {
+	for range ShapeSeq(n, minModules, inputs, b) {
+		return true
+	}
+	return false
+}
+
+// ShapeSeq yields the shapes of Shapes one at a time, in the same order and without a cap.
+// It builds them lazily, fewest-wiring first, and prunes every partial shape that cannot
+// reach the module and string count it is building towards, so taking the first few costs
+// about the same for 2 inputs as for 12. A yielded shape is the caller's to keep.
+func ShapeSeq(n, minModules, inputs int, b Bounds) iter.Seq[Shape] {
+	return func(yield func(Shape) bool) {
+		if n < 1 || inputs < 1 || b.MinSeries < 1 || b.MaxSeries < b.MinSeries || b.MaxParallel < 1 {
+			return
+		}
+		e := newShapeEnum(inputs, b)
+		top := min(n, inputs*b.MaxParallel*b.MaxSeries)
+		for m := top; m >= max(minModules, 1); m-- {
+			// With m modules: at least ⌈m/MaxSeries⌉ strings, at most m/MinSeries, and at most
+			// MaxParallel an input.
+			for s := (m + b.MaxSeries - 1) / b.MaxSeries; s <= min(m/b.MinSeries, inputs*b.MaxParallel); s++ {
+				for d := 0; d <= b.MaxSeries-b.MinSeries; d++ {
+					if !e.run(m, s, d, yield) {
+						return
+					}
+				}
+			}
+		}
+	}
+}
+
+// shapeEnum lists the shapes of exactly m modules, s strings and spread d in the order of
+// their inputs' options (a depth-first walk over non-increasing options), which is the order
+// the complete list kept among equal (modules, strings, spread).
+type shapeEnum struct {
+	opts     []InputShape // larger inputs first, then longer strings
+	inputs   int
+	b        Bounds
+	cur      Shape
+	stopped  bool
+	m, s, d  int
+	yieldFun func(Shape) bool
+}
+
+func newShapeEnum(inputs int, b Bounds) *shapeEnum {
+	var opts []InputShape
 	for p := b.MaxParallel; p >= 1; p-- {
 		for l := b.MaxSeries; l >= b.MinSeries; l-- {
 			opts = append(opts, InputShape{p, l})
@@ -76,36 +137,56 @@ func Shapes(n, minModules, inputs int, b Bounds) []Shape {
 	slices.SortStableFunc(opts, func(a, c InputShape) int {
 		return cmp.Or(cmp.Compare(c.Modules(), a.Modules()), cmp.Compare(c.Length, a.Length))
 	})
-	var out []Shape
-	cur := make(Shape, 0, inputs)
-	// Inputs are generated in non-increasing option order, so each multiset of inputs appears
-	// once.
-	var rec func(from, used int)
-	rec = func(from, used int) {
-		if used >= minModules && len(cur) > 0 {
-			out = append(out, slices.Clone(cur))
+	return &shapeEnum{opts: opts, inputs: inputs, b: b, cur: make(Shape, 0, inputs)}
+}
+
+// run yields the shapes of (m, s, d); it returns false when the caller stopped.
+func (e *shapeEnum) run(m, s, d int, yield func(Shape) bool) bool {
+	e.m, e.s, e.d, e.yieldFun, e.stopped = m, s, d, yield, false
+	e.cur = e.cur[:0]
+	e.walk(0, 0, 0, e.b.MaxSeries+1, 0)
+	return !e.stopped
+}
+
+// walk extends e.cur with options from index from on; used modules and strings so far, and
+// the shortest and longest string (lo > hi while empty).
+func (e *shapeEnum) walk(from, used, strs, lo, hi int) {
+	remM, remS := e.m-used, e.s-strs
+	if remM == 0 && remS == 0 {
+		if hi-lo == e.d && !e.yieldFun(slices.Clone(e.cur)) {
+			e.stopped = true
 		}
-		if len(cur) == inputs {
+		return
+	}
+	slots := e.inputs - len(e.cur)
+	if remM <= 0 || remS <= 0 || slots == 0 || remS > slots*e.b.MaxParallel {
+		return
+	}
+	for i := from; i < len(e.opts) && !e.stopped; i++ {
+		o := e.opts[i]
+		// Options are in non-increasing module order: if the largest allowed cannot fill the
+		// rest in the slots left, no later one can.
+		if o.Modules()*slots < remM {
 			return
 		}
-		for i := from; i < len(opts); i++ {
-			if used+opts[i].Modules() > n {
-				continue
-			}
-			cur = append(cur, opts[i])
-			rec(i, used+opts[i].Modules())
-			cur = cur[:len(cur)-1]
+		if o.Modules() > remM || o.Strings > remS {
+			continue
 		}
+		nlo, nhi := min(lo, o.Length), max(hi, o.Length)
+		if nhi-nlo > e.d {
+			continue
+		}
+		// The remaining strings must have lengths within d of every string so far, and the
+		// remaining modules must fit them.
+		rm, rs := remM-o.Modules(), remS-o.Strings
+		wlo, whi := max(nhi-e.d, e.b.MinSeries), min(nlo+e.d, e.b.MaxSeries)
+		if rm < rs*wlo || rm > rs*whi {
+			continue
+		}
+		e.cur = append(e.cur, o)
+		e.walk(i, used+o.Modules(), strs+o.Strings, nlo, nhi)
+		e.cur = e.cur[:len(e.cur)-1]
 	}
-	rec(0, 0)
-	slices.SortStableFunc(out, func(a, c Shape) int {
-		return cmp.Or(
-			cmp.Compare(c.Modules(), a.Modules()),
-			cmp.Compare(a.Strings(), c.Strings()),
-			cmp.Compare(spread(a), spread(c)),
-		)
-	})
-	return out
 }
 
 // spread is the difference between the longest and the shortest string.

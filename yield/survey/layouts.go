@@ -75,15 +75,24 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 		if m.In.Progress != nil {
 			prog = func(done, total int) { m.In.Progress("layout search", done, total) }
 		}
-		cands, err := layout.Search(ctx, layout.Problem{
-			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b,
-			Inputs: p.Inverter.Inputs, Order: order, Starts: []electric.Layout{seq},
+		faces := make([]int, n)
+		faceNo := map[string]int{}
+		for i, mod := range p.Modules {
+			if _, ok := faceNo[mod.Face]; !ok {
+				faceNo[mod.Face] = len(faceNo)
+			}
+			faces[i] = faceNo[mod.Face]
+		}
+		res, err := layout.Search(ctx, layout.Problem{
+			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b, Faces: faces,
+			Inputs: p.Inverter.Inputs, Order: order, Starts: append([]electric.Layout{seq}, p.fixed...),
 		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
 			CableWeightWh: weightWh, Keep: keep + 1, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
 		})
 		if err != nil {
 			return nil, fmt.Errorf("layout search: %w", err)
 		}
+		cands := res.Candidates
 		if len(cands) > 0 && layoutKey(cands[0].Layout) == layoutKey(seq) {
 			out[0].Note += "; the layout search found none better"
 		}

@@ -5,10 +5,12 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"strings"
 	"sunstring/geo"
 	"sunstring/shading"
 	"sunstring/yield"
 	"sunstring/yield/report"
+	"sunstring/yield/weather"
 
 	"github.com/paulmach/orb"
 )
@@ -123,14 +125,18 @@ func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 	for _, f := range p.Site.Faces {
 		pl.Faces = append(pl.Faces, report.Shape{ID: f.ID, Ring: ringOf(f.Plan)})
 	}
-	for _, b := range p.Site.Blocks {
-		pl.Blocks = append(pl.Blocks, report.Shape{ID: b.ID, Ring: ringOf(b.Footprint)})
+	// Every obstacle is drawn by its shape, whatever kind (or file) it came from.
+	for _, ob := range p.Site.Obstacles() {
+		switch {
+		case ob.Prism != nil:
+			pl.Blocks = append(pl.Blocks, report.Shape{ID: ob.ID, Ring: ringOf(ob.Prism.Footprint)})
+		case ob.Crown != nil:
+			t := ob.Crown
+			pl.Trees = append(pl.Trees, report.TreeMark{ID: ob.ID, X: t.Trunk[0], Y: t.Trunk[1], CrownRadiusM: t.CrownRadiusM})
+		}
 	}
 	for _, a := range p.Site.Avoids {
 		pl.Avoids = append(pl.Avoids, report.Shape{ID: a.ID, Ring: ringOf(a.Area)})
-	}
-	for _, t := range p.Site.Trees {
-		pl.Trees = append(pl.Trees, report.TreeMark{ID: t.ID, X: t.Trunk[0], Y: t.Trunk[1], CrownRadiusM: t.CrownRadiusM})
 	}
 	index := map[string]int{}
 	for i, m := range p.Modules {
@@ -240,4 +246,30 @@ func ringOf(r orb.Ring) [][2]float64 {
 		out[i] = [2]float64(p)
 	}
 	return out
+}
+
+// SkyView is the sun-path chart's input for one module by id: the sun's paths over a typical
+// year and the silhouettes of everything that stands above the module's horizon.
+func (p *Project) SkyView(moduleID string) (*report.SunPath, error) {
+	idx := -1
+	ids := make([]string, 0, len(p.Modules))
+	for i, m := range p.Modules {
+		if m.ID == moduleID {
+			idx = i
+		}
+		ids = append(ids, m.ID)
+	}
+	if idx < 0 {
+		return nil, badInput{fmt.Errorf("module %q: no such module on %s; modules: %s", moduleID, p.Cfg.File, strings.Join(ids, ", "))}
+	}
+	sc, err := shading.NewScene(p.Site, p.Modules, shading.Options{Horizon: p.Horizon, Workers: 1})
+	if err != nil {
+		return nil, fmt.Errorf("sky view: %w", err)
+	}
+	const step = 1.0 // degrees of azimuth: finer than a chimney seen from a few metres
+	return &report.SunPath{
+		Observer: p.Observer, Zone: p.Cfg.Zone, Year: weather.TypicalYear,
+		Outlines: sc.Silhouette(idx, step), AzStepDeg: step, Module: moduleID,
+		ShadeLossPct: -1,
+	}, nil
 }

@@ -157,3 +157,38 @@ func fillTemps(ser *Series, temps [12]float64, dayKt []float64) {
 		ser.Records[i].AirTempC += shift[m]
 	}
 }
+
+// CheckClearSky returns an *InputError, named name, for every calendar month (on the data's
+// standard-time clock) whose global irradiation in the series exceeds what a cloudless, very
+// clean sky (Ineichen & Perez 2002 at Linke turbidity 2) gives at site over the same records.
+// Clouds can lift single minutes above a clear sky, never a month: a month above it means
+// wrong units, a file for another place, or stamps far off.
+func (s *Series) CheckClearSky(name string, site Site) error {
+	p := &problems{name: name}
+	if s == nil || len(s.Records) == 0 || s.Interval <= 0 {
+		return nil
+	}
+	ends := make([]time.Time, len(s.Records))
+	for i, r := range s.Records {
+		ends[i] = r.End
+	}
+	suns := sunOver(ends, s.Interval, sun.Observer{LatDeg: site.LatDeg, LonDeg: site.LonDeg, ElevationM: site.ElevationM})
+	zone := fixedZone(s.TZOffsetHours)
+	hours := s.Interval.Hours()
+	var data, env [12]float64
+	for i, r := range s.Records {
+		m := r.End.Add(-s.Interval/2).In(zone).Month() - 1
+		data[m] += r.GHI * hours / 1000
+		if is := suns[i]; is.frac > 0 {
+			g, _ := clearSky(is.pos.Zenith.Degrees(), irradiance.ExtraterrestrialNormal(is.doy), envelopeTL, site.ElevationM)
+			env[m] += g * is.frac * hours / 1000
+		}
+	}
+	for m := range 12 {
+		if data[m] > env[m] && data[m] > 0 {
+			p.add(0, "GHI "+monthNames[m], "%.1f kWh/m² over the month, above the %.1f kWh/m² a cloudless sky gives at the site (%.2f°, %.2f°) over the same hours; check the units (W/m², the mean over each hour), that the file is for this site, and the stamps",
+				data[m], env[m], site.LatDeg, site.LonDeg)
+		}
+	}
+	return p.err()
+}

@@ -1,7 +1,9 @@
 package weather
 
 import (
+	"strings"
 	"testing"
+	"time"
 
 	"gonum.org/v1/gonum/floats/scalar"
 )
@@ -96,5 +98,49 @@ func TestCheckSite(t *testing.T) {
 	// Standard time of a zone with daylight saving time is its winter offset.
 	if got := StandardOffsetHours(zoneVienna); !scalar.EqualWithinAbs(got, 1, 0) {
 		t.Errorf("Europe/Vienna standard offset %g, want +1 (IANA tz database)", got)
+	}
+}
+
+func TestCheckClearSky(t *testing.T) {
+	site := Site{LatDeg: 47.05, LonDeg: 15.43, ElevationM: 400, Zone: time.FixedZone("", 3600)}
+	// The indicative year at the default turbidities (3 to 4.2) stays below the envelope at
+	// turbidity 2: analytic, since the Ineichen–Perez GHI falls as turbidity rises.
+	clear := ClearSky(site, nil)
+	if err := clear.CheckClearSky("w.csv", site); err != nil {
+		t.Errorf("the default clear-sky year refused: %v", err)
+	}
+	// A file in kJ/m² an hour read as W/m² is 3.6 times too bright.
+	bright := *clear
+	bright.Records = append([]Record(nil), clear.Records...)
+	for i := range bright.Records {
+		bright.Records[i].GHI *= 3.6
+	}
+	err := bright.CheckClearSky("w.csv", site)
+	if err == nil {
+		t.Fatal("3.6 times the clear sky accepted")
+	}
+	for _, frag := range []string{"w.csv: ", `"GHI June"`, "above the", "cloudless sky", "units"} {
+		if !strings.Contains(err.Error(), frag) {
+			t.Errorf("message %q lacks %q", err, frag)
+		}
+	}
+	// The same year at a southern site: its June is winter there, far darker.
+	south := Site{LatDeg: -47.05, LonDeg: 15.43, ElevationM: 400, Zone: time.FixedZone("", 3600)}
+	if err := clear.CheckClearSky("w.csv", south); err == nil || !strings.Contains(err.Error(), "June") {
+		t.Errorf("a northern year at a southern site: %v, want June refused", err)
+	}
+}
+
+func TestCheckMonthlyNamesTheInput(t *testing.T) {
+	site := Site{LatDeg: 47.05, LonDeg: 15.43, Zone: time.FixedZone("", 3600)}
+	g := [12]float64{36, 57, 98, 132, 160, 170, 176, 152, 107, 70, 38, 29}
+	temps := [12]float64{-1, 1, 5, 10, 15, 18, 20, 19.6, 15, 10, 4, 0}
+	if err := CheckMonthly(site, "site.yaml: climate", g, temps); err != nil {
+		t.Fatalf("plausible months refused: %v", err)
+	}
+	g[5] = 400 // June: more than a clear sky gives at 47° N (about 230 kWh/m², hand check of the envelope)
+	err := CheckMonthly(site, "site.yaml: climate", g, temps)
+	if err == nil || !strings.Contains(err.Error(), "site.yaml: climate: field \"monthly_ghi_kwh_m2 June\"") {
+		t.Errorf("error %v, want one naming site.yaml and June", err)
 	}
 }

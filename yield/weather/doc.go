@@ -61,6 +61,14 @@
 //   - Sun position: package sunstring/shading/sun. Extraterrestrial irradiance and air mass:
 //     package sunstring/yield/irradiance.
 //
+// # Checks for a survey
+//
+// CheckYear refuses a series that is not exactly one year of hourly records (8760, or 8784
+// when the dates include 29 February). NoonShift compares when the light of the clearest days
+// arrives with solar noon at the site, which finds files stamped in the wrong zone or at the
+// start instead of the end of each hour; NoonWarning turns a shift of 20 minutes or more into
+// a message.
+//
 // Synthetic years (FromMonthly) reproduce the monthly global totals to within 0.1 % and the
 // monthly mean temperatures exactly; single hours and days are plausible, not forecasts.
 package weather

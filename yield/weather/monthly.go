@@ -6,6 +6,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+	"time"
 
 	"sunstring/yield/irradiance"
 )
@@ -48,58 +49,14 @@ var monthNames = [12]string{"January", "February", "March", "April", "May", "Jun
 // Input problems (negative or implausible totals, totals above what a clear sky gives, light
 // in a polar night) come back together as an *InputError named "monthly climate".
 func FromMonthly(s Site, ghiKWhM2, tempC [12]float64) (*Series, error) {
-	p := &problems{name: "monthly climate"}
-	checkSite(p, s)
-	for m := range 12 {
-		g, t := ghiKWhM2[m], tempC[m]
-		if math.IsNaN(g) || g < 0 || g > maxMonthlyGHIKWhM2 {
-			p.add(0, "monthly_ghi_kwh_m2 "+monthNames[m], "value %s outside 0..%d kWh/m²", fmtNum(g), maxMonthlyGHIKWhM2)
-		}
-		if math.IsNaN(t) || t < limTemp.lo || t > limTemp.hi {
-			p.add(0, "monthly_temp_c "+monthNames[m], "value %s outside %g..%g °C", fmtNum(t), limTemp.lo, limTemp.hi)
-		}
+	y, err := monthlyYear(s, "monthly climate", ghiKWhM2, tempC)
+	if err != nil {
+		return nil, err
 	}
-	if p.count() > 0 {
-		return nil, p.err()
-	}
-
-	ser, ends, suns := emptyYear(s, SourceMonthly)
+	ser, ends, suns := y.ser, y.ends, y.suns
 	n := len(ends)
-	zone := fixedZone(ser.TZOffsetHours)
-	month := make([]int, n) // 0..11
-	day := make([]int, n)   // 0-based day of the year, local standard time
-	etr := make([]float64, n)
-	envelope := make([]float64, n) // clear-sky GHI at Linke turbidity 2, W/m²
-	var monthETR, monthEnv [12]float64
-	nDays := 0
-	for i, e := range ends {
-		mid := e.Add(-ser.Interval / 2).In(zone)
-		month[i], day[i] = int(mid.Month())-1, mid.YearDay()-1
-		nDays = day[i] + 1
-		is := suns[i]
-		if is.frac == 0 {
-			continue
-		}
-		i0 := irradiance.ExtraterrestrialNormal(is.doy)
-		etr[i] = i0 * is.meanC
-		g, _ := clearSky(is.pos.Zenith.Degrees(), i0, envelopeTL, s.ElevationM)
-		envelope[i] = g * is.frac
-		monthETR[month[i]] += etr[i]
-		monthEnv[month[i]] += envelope[i]
-	}
-	for m := range 12 {
-		target := ghiKWhM2[m] * 1000
-		switch {
-		case target > 0 && monthEnv[m] == 0:
-			p.add(0, "monthly_ghi_kwh_m2 "+monthNames[m], "value %s, but the sun does not rise at the site in %s", fmtNum(ghiKWhM2[m]), monthNames[m])
-		case target > feasibleShare*monthEnv[m]:
-			p.add(0, "monthly_ghi_kwh_m2 "+monthNames[m], "value %s above %.0f%% of the clear-sky total %.1f kWh/m² at the site; check the units (kWh/m² a month)",
-				fmtNum(ghiKWhM2[m]), feasibleShare*100, monthEnv[m]/1000)
-		}
-	}
-	if p.count() > 0 {
-		return nil, p.err()
-	}
+	month, day, etr, envelope := y.month, y.day, y.etr, y.envelope
+	monthETR, nDays := y.monthETR, y.nDays
 
 	// Daily clearness: Bendt quantiles per month, in the rank order of an AR(1) sequence.
 	dayETR := make([]float64, nDays)
@@ -176,6 +133,79 @@ func FromMonthly(s Site, ghiKWhM2, tempC [12]float64) (*Series, error) {
 	fillTemps(ser, tempC, hourKt)
 	ser.Warnings = append(ser.Warnings, "synthetic year from monthly values: monthly totals are kept, single days and hours are plausible, not measured")
 	return ser, nil
+}
+
+// CheckMonthly validates monthly values as FromMonthly does (ranges, totals above what a
+// clear sky gives at the site, light in a polar night) without synthesizing the year, and
+// names the input name in its messages: e.g. "site.yaml: climate", so that a check of the
+// site file finds what a survey would refuse.
+func CheckMonthly(s Site, name string, ghiKWhM2, tempC [12]float64) error {
+	_, err := monthlyYear(s, name, ghiKWhM2, tempC)
+	return err
+}
+
+// monthYear is an empty year at a site with what FromMonthly needs of each hour.
+type monthYear struct {
+	ser                *Series
+	ends               []time.Time
+	suns               []intervalSun
+	month, day         []int     // 0..11; 0-based day of the year, local standard time
+	etr, envelope      []float64 // extraterrestrial horizontal and clear-sky GHI at Linke turbidity 2, W/m²
+	monthETR, monthEnv [12]float64
+	nDays              int
+}
+
+// monthlyYear validates monthly values (problems named name) and prepares the empty year.
+func monthlyYear(s Site, name string, ghiKWhM2, tempC [12]float64) (*monthYear, error) {
+	p := &problems{name: name}
+	checkSite(p, s)
+	for m := range 12 {
+		g, t := ghiKWhM2[m], tempC[m]
+		if math.IsNaN(g) || g < 0 || g > maxMonthlyGHIKWhM2 {
+			p.add(0, "monthly_ghi_kwh_m2 "+monthNames[m], "value %s outside 0..%d kWh/m²", fmtNum(g), maxMonthlyGHIKWhM2)
+		}
+		if math.IsNaN(t) || t < limTemp.lo || t > limTemp.hi {
+			p.add(0, "monthly_temp_c "+monthNames[m], "value %s outside %g..%g °C", fmtNum(t), limTemp.lo, limTemp.hi)
+		}
+	}
+	if p.count() > 0 {
+		return nil, p.err()
+	}
+	y := &monthYear{}
+	y.ser, y.ends, y.suns = emptyYear(s, SourceMonthly)
+	n := len(y.ends)
+	zone := fixedZone(y.ser.TZOffsetHours)
+	y.month, y.day = make([]int, n), make([]int, n)
+	y.etr, y.envelope = make([]float64, n), make([]float64, n)
+	for i, e := range y.ends {
+		mid := e.Add(-y.ser.Interval / 2).In(zone)
+		y.month[i], y.day[i] = int(mid.Month())-1, mid.YearDay()-1
+		y.nDays = y.day[i] + 1
+		is := y.suns[i]
+		if is.frac == 0 {
+			continue
+		}
+		i0 := irradiance.ExtraterrestrialNormal(is.doy)
+		y.etr[i] = i0 * is.meanC
+		g, _ := clearSky(is.pos.Zenith.Degrees(), i0, envelopeTL, s.ElevationM)
+		y.envelope[i] = g * is.frac
+		y.monthETR[y.month[i]] += y.etr[i]
+		y.monthEnv[y.month[i]] += y.envelope[i]
+	}
+	for m := range 12 {
+		target := ghiKWhM2[m] * 1000
+		switch {
+		case target > 0 && y.monthEnv[m] == 0:
+			p.add(0, "monthly_ghi_kwh_m2 "+monthNames[m], "value %s, but the sun does not rise at the site in %s", fmtNum(ghiKWhM2[m]), monthNames[m])
+		case target > feasibleShare*y.monthEnv[m]:
+			p.add(0, "monthly_ghi_kwh_m2 "+monthNames[m], "value %s above %.0f%% of the clear-sky total %.1f kWh/m² at the site (Ineichen & Perez 2002, Linke turbidity %g); check the units (kWh/m² a month) and the site's coordinates",
+				fmtNum(ghiKWhM2[m]), feasibleShare*100, y.monthEnv[m]/1000, envelopeTL)
+		}
+	}
+	if p.count() > 0 {
+		return nil, p.err()
+	}
+	return y, nil
 }
 
 // fitMonths caps every hour at the envelope and scales the uncapped hours of each month until

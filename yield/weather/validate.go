@@ -168,8 +168,11 @@ func finish(p *problems, rows []row, s *Series, obs *sun.Observer) {
 		}
 		s.Warnings = append(s.Warnings, fmt.Sprintf("%d hours without direct and diffuse values: split from GHI with the Erbs et al. (1982) correlation", nBeam))
 	}
-	if n := len(s.Records); n > 0 && n != 8760 && n != 8784 {
-		s.Warnings = append(s.Warnings, fmt.Sprintf("the data covers %d hours (%s to %s), not one whole year; annual figures cover this span only",
-			n, s.Records[0].End.Format(time.RFC3339), s.Records[n-1].End.Format(time.RFC3339)))
+	if n := len(s.Records); n > 0 {
+		start := s.Records[0].End.Add(-s.Interval).In(fixedZone(s.TZOffsetHours))
+		if n != OneYearRecords(start) {
+			s.Warnings = append(s.Warnings, fmt.Sprintf("the data covers %d hours (%s to %s), not one whole year; annual figures cover this span only",
+				n, s.Records[0].End.Format(time.RFC3339), s.Records[n-1].End.Format(time.RFC3339)))
+		}
 	}
 }

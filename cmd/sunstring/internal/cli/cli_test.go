@@ -99,7 +99,7 @@ func TestSurveyExampleContract(t *testing.T) {
 	if err := json.Unmarshal(b, &s); err != nil {
 		t.Fatal(err)
 	}
-	// Every key of DESIGN.md's output contract.
+	// Every key of the summary.json contract in README.md (Outputs).
 	for _, k := range []string{"site", "modules", "dc_kwp", "climate", "annual_ac_kwh", "specific_yield_kwh_per_kwp",
 		"performance_ratio", "monthly_ac_kwh", "losses", "layouts", "module_results", "warnings"} {
 		if _, ok := s[k]; !ok {
@@ -399,7 +399,7 @@ func TestSkyCommand(t *testing.T) {
 }
 
 // Without climate data the survey runs on an indicative clear-sky year and says so in every
-// output (DESIGN.md).
+// output (README.md, Inputs: without climate data).
 func TestIndicativeClimateIsLoud(t *testing.T) {
 	dir := t.TempDir()
 	site, _ := os.ReadFile(exampleSite)

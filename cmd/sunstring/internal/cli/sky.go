@@ -10,9 +10,7 @@ import (
 	"github.com/spf13/cobra"
 	"gonum.org/v1/plot/vg"
 
-	"sunstring/shading"
 	"sunstring/yield/report"
-	"sunstring/yield/weather"
 )
 
 func newSkyCmd() *cobra.Command {
@@ -57,26 +55,9 @@ The file's extension chooses the format: .png or .svg.`,
 		if err != nil {
 			return err
 		}
-		idx := -1
-		var ids []string
-		for i, m := range p.Modules {
-			if m.ID == module {
-				idx = i
-			}
-			ids = append(ids, m.ID)
-		}
-		if idx < 0 {
-			return inputError{fmt.Errorf("--module %q: no such module on %s; modules: %s", module, a[0], strings.Join(ids, ", "))}
-		}
-		sc, err := shading.NewScene(p.Site, p.Modules, shading.Options{Horizon: p.Horizon, Workers: 1})
+		sp, err := p.SkyView(module)
 		if err != nil {
-			return fmt.Errorf("sky: %w", err)
-		}
-		const step = 1.0 // degrees of azimuth
-		sp := &report.SunPath{
-			Observer: p.Observer, Zone: p.Cfg.Zone, Year: weather.TypicalYear,
-			Outlines: sc.Silhouette(idx, step), AzStepDeg: step, Module: module,
-			ShadeLossPct: -1,
+			return fmt.Errorf("--module: %w", err)
 		}
 		b, err := report.Render(report.SunPathChart(sp), 18*vg.Centimeter, 11*vg.Centimeter, format)
 		if err != nil {

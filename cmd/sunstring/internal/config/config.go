@@ -115,7 +115,7 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*survey.Co
 		}
 	}
 	for key, flag := range bind {
-		// The environment overrides a flag (the order: file < flags < environment),
+		// The environment overrides a flag (the order README.md states: file < flags < environment),
 		// so a flag is bound only when its key has no SUNSTRING_ variable.
 		if _, set := os.LookupEnv(EnvName(key)); set {
 			continue

@@ -107,7 +107,7 @@ func asBad(err error, bi *interface{ BadInput() bool }) bool {
 }
 
 func TestPrecedence(t *testing.T) {
-	// The order of the issue: file < flags < environment.
+	// The order README.md states: file < flags < environment.
 	p := write(t, minimal+"fill: {orientation: portrait}\n")
 	for _, c := range []struct {
 		name, flag, env, want string

@@ -1,0 +1,332 @@
+package layout
+
+import (
+	"cmp"
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"runtime"
+	"slices"
+	"sync"
+
+	"sunstring/yield/electric"
+)
+
+type searcher struct {
+	ctx   context.Context
+	p     Problem
+	n     int
+	eval  Evaluator
+	opt   Options
+	feat  [][]float64 // features with a small position term (see newSearcher)
+	shade []float64   // per module: sum of its features
+	norm  []float64   // per module: ‖feat‖²
+	alike []int       // per module: the lowest index with identical shade features and face
+	cache map[string]state
+	evals int // new layouts evaluated, over all levels
+	total int // the most evaluations all levels may do
+	// exhaustive reports whether the last level enumerated every layout; budgetSpent
+	// whether some level's local search ran out of budget.
+	exhaustive, budgetSpent bool
+	mu                      sync.Mutex
+}
+
+func newSearcher(ctx context.Context, p Problem, n int, eval Evaluator, opt Options) *searcher {
+	s := &searcher{ctx: ctx, p: p, n: n, eval: eval, opt: opt, cache: map[string]state{}, shade: make([]float64, n)}
+	dim := 0
+	if len(p.Features) > 0 {
+		dim = len(p.Features[0])
+	}
+	// The clustering distance is the shade distance plus a small position term: modules shaded
+	// alike are then grouped with their neighbours rather than at random across the roof, and
+	// a roof without shade comes out in compact groups. The position term is scaled to a tenth
+	// of the shade vectors' spread so that it only decides between modules of similar shade.
+	var fvar, pvar float64
+	mean := make([]float64, dim)
+	for _, f := range p.Features {
+		for j, x := range f {
+			mean[j] += x / float64(n)
+		}
+	}
+	for i, f := range p.Features {
+		for j, x := range f {
+			fvar += sq(x - mean[j])
+			s.shade[i] += x
+		}
+	}
+	var pc Point
+	for _, q := range p.Positions {
+		pc.X += q.X / float64(n)
+		pc.Y += q.Y / float64(n)
+		pc.Z += q.Z / float64(n)
+	}
+	for _, q := range p.Positions {
+		pvar += sq(q.X-pc.X) + sq(q.Y-pc.Y) + sq(q.Z-pc.Z)
+	}
+	w := 1.0
+	if fvar > 0 && pvar > 0 {
+		w = math.Sqrt(0.1 * fvar / pvar)
+	}
+	s.feat = make([][]float64, n)
+	for i := range n {
+		v := make([]float64, 0, dim+3)
+		if dim > 0 {
+			v = append(v, p.Features[i]...)
+		}
+		if len(p.Positions) > 0 {
+			q := p.Positions[i]
+			v = append(v, w*q.X, w*q.Y, w*q.Z)
+		}
+		s.feat[i] = v
+	}
+	s.norm = make([]float64, n)
+	s.alike = make([]int, n)
+	shadeOf := func(i int) []float64 {
+		if dim == 0 {
+			return nil
+		}
+		return p.Features[i]
+	}
+	faceOf := func(i int) int {
+		if len(p.Faces) == 0 {
+			return 0
+		}
+		return p.Faces[i]
+	}
+	for i := range n {
+		s.norm[i] = dot(s.feat[i], s.feat[i])
+		s.alike[i] = i
+		for j := range i {
+			if s.alike[j] == j && faceOf(i) == faceOf(j) && slices.Equal(shadeOf(i), shadeOf(j)) {
+				s.alike[i] = j
+				break
+			}
+		}
+	}
+	return s
+}
+
+func dot(a, b []float64) float64 {
+	d := 0.0
+	for i := range a {
+		d += a[i] * b[i]
+	}
+	return d
+}
+
+// searchBatch is how many neighbours the local search evaluates at a time: enough to keep
+// the cores busy, few enough that little is wasted after an improvement. A constant, so that
+// the result does not depend on the number of cores.
+const searchBatch = 16
+
+// runLevel searches one level of freedom, starting also from prev (the best of the narrower
+// levels), and returns the best distinct states found so far.
+func (s *searcher) runLevel(lv level, prev []state) ([]state, error) {
+	stop := s.evals + s.opt.MaxEvals
+	shapes := shapesForInputs(s.p, s.n, lv.leaveOut, lv.inputs)
+	// The count is exact but computed through log-gamma: half a layout of slack.
+	if countLayouts(shapes, s.n) <= float64(s.opt.MaxEvals)+0.5 {
+		if err := s.enumerate(shapes); err != nil {
+			return nil, err
+		}
+		s.exhaustive = true
+		return s.best(3), nil
+	}
+	s.exhaustive = false
+	// The starts take about a third of the budget; the shapes listed first (most modules,
+	// fewest strings) come first. They are evaluated together, on all cores.
+	var starts []state
+	for _, sh := range shapes {
+		if len(starts) >= s.opt.MaxEvals/3 && len(starts) > 0 {
+			break
+		}
+		starts = append(starts, s.starts(sh)...)
+	}
+	for _, l := range s.p.Starts {
+		if st, ok := s.given(l, lv); ok {
+			starts = append(starts, st)
+		}
+	}
+	for _, st := range prev {
+		starts = append(starts, st.clone())
+	}
+	ptrs := make([]*state, len(starts))
+	for i := range starts {
+		ptrs[i] = &starts[i]
+	}
+	if err := s.scoreAll(ptrs); err != nil {
+		return nil, err
+	}
+	slices.SortStableFunc(starts, func(a, b state) int { return cmp.Or(cmp.Compare(b.score, a.score), cmp.Compare(a.key, b.key)) })
+	// Local search from the best starts of distinct shapes, so that the ranking offers
+	// real alternatives rather than one layout and its near copies.
+	seen := map[string]bool{}
+	var from []state
+	for _, st := range starts {
+		if k := st.shape.String(); !seen[k] && len(from) < 3 {
+			seen[k] = true
+			from = append(from, st)
+		}
+	}
+	for i, st := range from {
+		// Each run may use its share of what is left, the first the most.
+		left := stop - s.evals
+		share := left / (len(from) - i)
+		if i == 0 {
+			share = left * 2 / (len(from) + 1)
+		}
+		if err := s.improve(st, lv, s.evals+share); err != nil {
+			return nil, err
+		}
+	}
+	return s.best(3), nil
+}
+
+// best returns the n best evaluated states of distinct shapes.
+func (s *searcher) best(n int) []state {
+	all := s.sorted()
+	seen := map[string]bool{}
+	var out []state
+	for _, st := range all {
+		if k := st.shape.String(); !seen[k] && len(out) < n {
+			seen[k] = true
+			out = append(out, st.clone())
+		}
+	}
+	return out
+}
+
+// sorted returns every evaluated state, best first (ties by key).
+func (s *searcher) sorted() []state {
+	all := make([]state, 0, len(s.cache))
+	for _, st := range s.cache {
+		all = append(all, st)
+	}
+	slices.SortFunc(all, func(a, b state) int {
+		return cmp.Or(cmp.Compare(b.score, a.score), cmp.Compare(a.key, b.key))
+	})
+	return all
+}
+
+// scoreAll evaluates states concurrently, through the cache; new ones count against the
+// budget.
+func (s *searcher) scoreAll(sts []*state) error {
+	if err := s.ctx.Err(); err != nil {
+		return err
+	}
+	var todo []*state
+	inBatch := map[string]bool{}
+	for _, st := range sts {
+		st.canon()
+		if _, ok := s.cache[st.key]; !ok && !inBatch[st.key] {
+			inBatch[st.key] = true
+			todo = append(todo, st)
+		}
+	}
+	errs := make([]error, len(todo))
+	workers := min(runtime.GOMAXPROCS(0), len(todo))
+	var wg sync.WaitGroup
+	next := 0
+	for range workers {
+		wg.Go(func() {
+			for {
+				s.mu.Lock()
+				i := next
+				next++
+				s.mu.Unlock()
+				if i >= len(todo) || s.ctx.Err() != nil {
+					return
+				}
+				st := todo[i]
+				e, err := s.eval(st.layout)
+				if err != nil {
+					errs[i] = fmt.Errorf("layout: evaluating %s: %w", st.shape, err)
+					continue
+				}
+				st.energy = e
+			}
+		})
+	}
+	wg.Wait()
+	if err := s.ctx.Err(); err != nil {
+		return err
+	}
+	if err := errors.Join(errs...); err != nil {
+		return err
+	}
+	for _, st := range todo {
+		st.cable = ExtraCableM(st.layout, s.p.Positions, s.p.ReachM)
+		st.score = st.energy - s.opt.CableWeightWh*st.cable
+		s.cache[st.key] = st.clone()
+	}
+	for _, st := range sts {
+		c := s.cache[st.key]
+		st.energy, st.cable, st.score = c.energy, c.cable, c.score
+	}
+	s.evals += len(todo)
+	if s.opt.Progress != nil {
+		s.opt.Progress(min(s.evals, s.total), s.total)
+	}
+	return nil
+}
+
+// improve runs the local search from st until no neighbour is better or the number of
+// evaluations reaches stop.
+func (s *searcher) improve(st state, lv level, stop int) error {
+	cur := st.clone()
+	if err := s.scoreAll([]*state{&cur}); err != nil {
+		return err
+	}
+	for {
+		moves := s.neighbours(&cur, lv)
+		next := -1
+		var batch []state
+		for i := 0; i < len(moves) && next < 0; {
+			if s.evals >= stop {
+				s.budgetSpent = true
+				return nil
+			}
+			batch = batch[:0]
+			for ; i < len(moves) && len(batch) < searchBatch; i++ {
+				batch = append(batch, s.apply(&cur, moves[i]))
+			}
+			ptrs := make([]*state, len(batch))
+			for k := range batch {
+				ptrs[k] = &batch[k]
+			}
+			if err := s.scoreAll(ptrs); err != nil {
+				return err
+			}
+			for k := range batch {
+				// A strict improvement beyond rounding, so that equal layouts never cycle.
+				if batch[k].score > cur.score+1e-9*math.Abs(cur.score) && (next < 0 || batch[k].score > batch[next].score) {
+					next = k
+				}
+			}
+		}
+		if next < 0 {
+			return nil // no neighbour is better: a local optimum
+		}
+		cur = batch[next].clone()
+	}
+}
+
+// ranked returns the distinct evaluated layouts, best first, at most Keep.
+func (s *searcher) ranked() []Candidate {
+	all := s.sorted()
+	var out []Candidate
+	for _, st := range all[:min(len(all), s.opt.Keep)] {
+		l := electric.Layout{Inputs: make([][][]int, len(st.layout.Inputs))}
+		for i, in := range st.layout.Inputs {
+			for _, str := range in {
+				l.Inputs[i] = append(l.Inputs[i], Chain(str, s.p.Positions))
+			}
+		}
+		out = append(out, Candidate{
+			Layout: l, Shape: slices.Clone(st.shape), Left: slices.Clone(st.pool),
+			EnergyWh: st.energy, CableM: st.cable, Score: st.score, Start: st.start,
+		})
+	}
+	return out
+}
