@@ -44,6 +44,9 @@ type System struct {
 	Albedo   float64
 	Sky      irradiance.SkyModel
 	IAM      IAMModel
+	// Mounting sets the cell temperature model; the zero value is modules on rails over a
+	// pitched roof.
+	Mounting irradiance.Mounting
 }
 
 // Input is everything a simulation needs.
@@ -276,9 +279,11 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 			shaded := dirRaw*litFrac + difRaw
 			withIAM := direct*litFrac + diffuse
 			dst.UnshadedIrr[i] = soil * (dirUn + difUn)
-			dst.TempC[i] = irradiance.CellTempFaiman(shaded, r.AirTempC, r.WindMS, irradiance.FaimanU0, irradiance.FaimanU1)
+			// Each module's cells are heated by the light the module itself receives, shade
+			// included.
+			dst.TempC[i] = in.System.Mounting.CellTemp(shaded, r.AirTempC, r.WindMS)
 			unIrr[s*n+i] = float32(dst.UnshadedIrr[i])
-			unTemp[s*n+i] = float32(irradiance.CellTempFaiman(unsh, r.AirTempC, r.WindMS, irradiance.FaimanU0, irradiance.FaimanU1))
+			unTemp[s*n+i] = float32(in.System.Mounting.CellTemp(unsh, r.AirTempC, r.WindMS))
 
 			m.StepPOA[s] += shaded / float64(n)
 			hours := iv.Hours()

@@ -1,6 +1,7 @@
 package irradiance
 
 import (
+	"errors"
 	"math"
 	"math/rand/v2"
 	"testing"
@@ -194,5 +195,80 @@ func TestCellTempProperties(t *testing.T) {
 		if CellTempFaiman(p1, air, w1, 0, 0) < air {
 			t.Fatalf("cell below air temperature in sunlight")
 		}
+	}
+}
+
+// TestCellTempMounting holds the three mountings against hand calculations from King et al.
+// (2004) eq. 11–12 with the Table 1 coefficients (regression values), and against an outside
+// model: Faiman (2008) with its open-rack U0 25, U1 6.84 gives 56.41 °C at 1000 W/m², 25 °C
+// air and 1 m/s; the King open-rack row must land within 3 K of it (two independent fits to
+// free-standing glass–polymer modules; their own stated scatter is a few kelvin).
+func TestCellTempMounting(t *testing.T) {
+	tests := []struct {
+		name      string
+		got       float64
+		want, tol float64
+		reason    string
+	}{
+		{"open rack, 1000 W/m², 25 °C, 1 m/s", OpenRack.CellTemp(1000, 25, 1), 54.384, 0.001,
+			"25 + 1000·exp(−3.56 − 0.075) + 3 [hand calculation]"},
+		{"rails, 1000 W/m², 25 °C, 1 m/s", Rails.CellTemp(1000, 25, 1), 74.456, 0.001,
+			"25 + 1000·exp(−2.98 − 0.0471) + 1 [hand calculation]"},
+		{"flush, 1000 W/m², 25 °C, 1 m/s", Flush.CellTemp(1000, 25, 1), 82.527, 0.001,
+			"25 + 1000·exp(−2.81 − 0.0455) + 0 [hand calculation]"},
+		{"open rack, 800 W/m², 20 °C, 5 m/s", OpenRack.CellTemp(800, 20, 5), 38.037, 0.001,
+			"20 + 800·exp(−3.56 − 0.375) + 2.4 [hand calculation]"},
+		{"rails hot-cell check", Rails.HotCellC(35), 84.456, 0.001, "1000 W/m², 35 °C air, 1 m/s [hand calculation]"},
+		{"zero value is rails", Mounting(0).CellTemp(1000, 25, 1), 74.456, 0.001, "documented default"},
+		{"dark: air temperature", Flush.CellTemp(0, 12, 0), 12, 0, "no heating without light"},
+		{"negative poa and wind read as 0", Rails.CellTemp(-5, 12, -3), 12, 0, "documented clamp"},
+		{"open rack agrees with Faiman", OpenRack.CellTemp(1000, 25, 1), CellTempFaiman(1000, 25, 1, 0, 0), 3,
+			"Faiman (2008) open rack, 56.41 °C"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if !scalar.EqualWithinAbs(tc.got, tc.want, tc.tol) {
+				t.Errorf("got %.4f, want %.4f ± %g (%s)", tc.got, tc.want, tc.tol, tc.reason)
+			}
+		})
+	}
+	// Less ventilation, hotter cells: flush above rails above open rack at every light and
+	// wind (the order Table 1 of King et al. 2004 shows).
+	rng := rand.New(rand.NewPCG(14, 1))
+	for range 5000 {
+		poa, air, ws := 50+rng.Float64()*1150, -20+rng.Float64()*60, rng.Float64()*15
+		o, r, f := OpenRack.CellTemp(poa, air, ws), Rails.CellTemp(poa, air, ws), Flush.CellTemp(poa, air, ws)
+		if !(o < r && r < f) {
+			t.Fatalf("poa %g air %g wind %g: open %g, rails %g, flush %g", poa, air, ws, o, r, f)
+		}
+	}
+}
+
+func TestMountingNames(t *testing.T) {
+	tests := []struct {
+		name    string
+		in      string
+		want    Mounting
+		wantErr bool
+	}{
+		{"rails", "rails", Rails, false},
+		{"open-rack", "open-rack", OpenRack, false},
+		{"flush", "flush", Flush, false},
+		{"empty is default", "", Rails, false},
+		{"unknown", "roof", Rails, true},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			got, err := ParseMounting(tc.in)
+			if (err != nil) != tc.wantErr || got != tc.want {
+				t.Fatalf("ParseMounting(%q) = %v, %v", tc.in, got, err)
+			}
+			if err != nil && !errors.Is(err, ErrUnknownMounting) {
+				t.Errorf("error %v does not wrap ErrUnknownMounting", err)
+			}
+		})
+	}
+	if got := MountingNames(); len(got) != 3 || got[0] != "rails" {
+		t.Errorf("MountingNames() = %v, want rails first", got)
 	}
 }

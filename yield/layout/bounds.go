@@ -5,17 +5,17 @@ import (
 	"math"
 
 	"sunstring/yield/electric"
+	"sunstring/yield/irradiance"
 )
 
-// HotCellRiseK is how far a roof-mounted module's cells run above the hottest air
-// temperature in full sun (common practice: 30–35 K for modules close to the roof).
-const HotCellRiseK = 35.0
-
-// Limits are the temperature extremes and the module's own voltage rating.
+// Limits are the temperature extremes, the mounting and the module's own voltage rating.
 type Limits struct {
 	LowTempC         float64 // lowest expected air temperature, taken as the cell temperature at dawn
 	HighTempC        float64 // hottest expected air temperature
 	MaxSystemVoltage float64 // the module's rating (0: not checked)
+	// Mounting gives the hottest cell temperature, Mounting.HotCellC(HighTempC): the same
+	// model the yield uses.
+	Mounting irradiance.Mounting
 }
 
 // Bounds are the allowed modules per string and strings per input.
@@ -36,7 +36,7 @@ func StringBounds(ds electric.Datasheet, inv electric.Inverter, lim Limits) (Bou
 	// One set of formulas with the checks that are reported (electric.VocAt, VmpAt: the Vmp
 	// coefficient is Pmax's less Isc's), so that no string the bounds allow is flagged.
 	b.VocColdV = electric.VocAt(ds, lim.LowTempC)
-	hot := lim.HighTempC + HotCellRiseK
+	hot := lim.Mounting.HotCellC(lim.HighTempC)
 	b.VmpHotV = electric.VmpAt(ds, hot)
 	b.VmpColdV = electric.VmpAt(ds, lim.LowTempC)
 	maxV := inv.MaxDCVoltageV
@@ -54,7 +54,7 @@ func StringBounds(ds electric.Datasheet, inv electric.Inverter, lim Limits) (Bou
 	b.MaxParallel = int(math.Floor(inv.MaxInputCurrentA / ds.ImpA))
 	switch {
 	case b.MaxSeries < b.MinSeries:
-		return b, fmt.Errorf("layout: no string length fits: at most %d modules (%.1f V open-circuit each at %g °C, limit %.0f V) but at least %d (%.1f V MPP each at %g °C cell, MPPT minimum %.0f V)",
+		return b, fmt.Errorf("layout: no string length fits: at most %d modules (%.1f V open-circuit each at %g °C, limit %.0f V) but at least %d (%.1f V MPP each at %.0f °C cell, MPPT minimum %.0f V)",
 			b.MaxSeries, b.VocColdV, lim.LowTempC, maxV, b.MinSeries, b.VmpHotV, hot, inv.MPPTMinV)
 	case b.MaxParallel < 1:
 		return b, fmt.Errorf("layout: one string's current (%.1f A at MPP) exceeds the input limit %.1f A", ds.ImpA, inv.MaxInputCurrentA)

@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 
 	"sunstring/yield/electric"
+	"sunstring/yield/irradiance"
 )
 
 func TestStringBoundsWorkedExample(t *testing.T) {
@@ -17,7 +18,9 @@ func TestStringBoundsWorkedExample(t *testing.T) {
 	// is the Pmax coefficient less the Isc one, here 0.)
 	ds := electric.Datasheet{VocV: 40, VmpV: 33, ImpA: 9, TempCoeffVocPct: -0.30, TempCoeffPmaxPct: -0.37}
 	inv := electric.Inverter{MaxDCVoltageV: 1000, MPPTMinV: 200, MPPTMaxV: 2000, MaxInputCurrentA: 20}
-	b, err := StringBounds(ds, inv, Limits{LowTempC: -10, HighTempC: 70 - HotCellRiseK})
+	// The rise of the cell above the air does not depend on the air temperature in the
+	// mounting model, so this air temperature puts the hot cell at 70 °C.
+	b, err := StringBounds(ds, inv, Limits{LowTempC: -10, HighTempC: 70 - irradiance.Rails.HotCellC(0)})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -101,12 +104,12 @@ func TestBoundsAgreeWithChecks(t *testing.T) {
 		inv := electric.Inverter{ACPowerW: 6000, MaxDCVoltageV: 600 + 400*r.Float64(), MPPTMinV: 80 + 150*r.Float64(), Inputs: 1,
 			MaxInputCurrentA: 30, Efficiency: []electric.EffPoint{{LoadFrac: 1, Eff: 0.97}}}
 		inv.MPPTMaxV = inv.MaxDCVoltageV * 0.9
-		lim := Limits{LowTempC: -25 + 20*r.Float64(), HighTempC: 25 + 20*r.Float64()}
+		lim := Limits{LowTempC: -25 + 20*r.Float64(), HighTempC: 25 + 20*r.Float64(), Mounting: irradiance.Mounting(r.IntN(3))}
 		b, err := StringBounds(ds, inv, lim)
 		if err != nil {
 			continue
 		}
-		hot := lim.HighTempC + HotCellRiseK
+		hot := lim.Mounting.HotCellC(lim.HighTempC)
 		voltage := func(n int) []electric.Finding {
 			var out []electric.Finding
 			for _, f := range electric.CheckStrings(ds, [][]int{{n}}, lim.LowTempC, hot, inv) {
