@@ -36,6 +36,9 @@ type Finding struct {
 	Input        int // inverter input (0-based), −1 when not input-specific
 	Value, Limit float64
 	Unit         string // "V", "A" or "mA"
+	// Detail is the installer-facing explanation: where a limit comes from and what
+	// the estimate assumes. Empty when the Message says it all.
+	Detail string
 }
 
 // VocAt returns the module's open-circuit voltage at cell temperature tempC
@@ -125,7 +128,7 @@ func CheckStrings(ds Datasheet, inputs [][]int, lowTempC, hotCellTempC float64, 
 		}
 		if v := float64(minL) * vmpHot; v < inv.MPPTMinV {
 			out = append(out, Finding{Severity: Warning, Code: "vmp_hot", Input: a, Value: v, Limit: inv.MPPTMinV, Unit: "V",
-				Message: fmt.Sprintf("input %d: %d modules give %.1f V at the MPP at %g °C cell, below the MPPT minimum %.0f V", a+1, minL, v, hotCellTempC, inv.MPPTMinV)})
+				Message: fmt.Sprintf("input %d: %d modules give %.1f V at the MPP at %.0f °C cell, below the MPPT minimum %.0f V", a+1, minL, v, hotCellTempC, inv.MPPTMinV)})
 		}
 		if v := float64(maxL) * vmpCold; v > inv.MPPTMaxV {
 			out = append(out, Finding{Severity: Warning, Code: "vmp_cold", Input: a, Value: v, Limit: inv.MPPTMaxV, Unit: "V",
@@ -170,23 +173,46 @@ type LeakageAssumptions struct {
 type LeakageResult struct {
 	CapDryNF, CapWetNF float64 // array capacitance to earth (nF)
 	DrymA, WetmA       float64 // RMS leakage current (mA)
-	Findings           []Finding
+	// ContinuousLimitmA is the continuous residual-current limit the estimate is held to.
+	ContinuousLimitmA float64
+	Findings          []Finding
 }
 
-// Residual-current limits of IEC 62109-2 (from memory): 300 mA continuous
-// for inverters up to 30 kVA (10 mA per kVA above), and sudden changes of
-// 30 mA must trip within 0.3 s.
+// Residual-current monitoring of transformerless inverters, IEC 62109-2:2011 clause 4.8.3.5
+// (clause number and values from memory, not re-read): a continuous residual current above
+// 300 mA for inverters rated up to 30 kVA (10 mA per kVA above) must disconnect within 0.3 s;
+// sudden changes of 30, 60 and 150 mA within 0.3, 0.15 and 0.04 s. The sudden-change limits
+// guard against a person touching a live part or a fresh insulation fault, which step the
+// residual current within fractions of a second. Dew and rain raise the capacitive leakage
+// over minutes, so wetting is held to the continuous limit, never to the sudden-change ones.
 const (
-	leakContinuousmA = 300.0
-	leakSuddenmA     = 30.0
+	leakContinuousmA      = 300.0
+	leakContinuousPerkVA  = 10.0
+	leakContinuousUpTokVA = 30.0
+	leakSuddenmA          = 30.0
 )
+
+// leakageSource names where the limits come from, for the installer.
+const leakageSource = "IEC 62109-2:2011 clause 4.8.3.5, values from memory: check the inverter's manual"
+
+// ContinuousLeakageLimitmA returns the continuous residual-current limit (mA) of a
+// transformerless inverter rated ratedKVA: 300 mA up to 30 kVA, 10 mA per kVA above
+// (IEC 62109-2:2011 clause 4.8.3.5, from memory).
+func ContinuousLeakageLimitmA(ratedKVA float64) float64 {
+	if ratedKVA > leakContinuousUpTokVA {
+		return leakContinuousPerkVA * ratedKVA
+	}
+	return leakContinuousmA
+}
 
 // Leakage estimates the capacitive current that a transformerless inverter
 // drives through the array's capacitance to earth: I = 2πf·C·Vcm, with C the
-// module area times the capacitance per area. It compares the wet current
-// with the continuous limit (Error above it) and the dry-to-wet change with
-// the 30 mA sudden-change limit (Info: the change after rain is slow, but a
-// large one leaves little margin for a real fault).
+// module area times the capacitance per area. The wet current and the
+// dry-to-wet rise are both held to the continuous residual-current limit: the
+// wet current above it is an Error (the inverter will refuse to run in wet
+// weather); the rise is an Info that states the margin and why the
+// sudden-change limits do not apply to it. Each finding's Detail says where the
+// limits come from, for the installer.
 func Leakage(moduleAreaM2 float64, a LeakageAssumptions) (LeakageResult, error) {
 	if math.IsNaN(moduleAreaM2) || moduleAreaM2 < 0 || moduleAreaM2 > 1e5 {
 		return LeakageResult{}, badf("array_area_m2", "%g must lie in 0..100000", moduleAreaM2)
@@ -207,17 +233,22 @@ func Leakage(moduleAreaM2 float64, a LeakageAssumptions) (LeakageResult, error) 
 	r := LeakageResult{CapDryNF: dry * moduleAreaM2, CapWetNF: wet * moduleAreaM2}
 	w := 2 * math.Pi * f * vcm * 1e-9 * 1e3 // nF → mA
 	r.DrymA, r.WetmA = w*r.CapDryNF, w*r.CapWetNF
-	limit := leakContinuousmA
-	if a.RatedKVA > 30 {
-		limit = 10 * a.RatedKVA
-	}
+	limit := ContinuousLeakageLimitmA(a.RatedKVA)
+	r.ContinuousLimitmA = limit
+	detail := fmt.Sprintf("Continuous residual-current limit %.0f mA (%.0f mA up to %.0f kVA, %.0f mA per kVA above); sudden changes of %.0f mA must trip within 0.3 s (%s). "+
+		"The estimate assumes %.0f nF/m² dry and %.0f nF/m² wet to earth and %.0f V common-mode at %.0f Hz; measured values depend on the modules, the mounting and the weather.",
+		limit, leakContinuousmA, leakContinuousUpTokVA, leakContinuousPerkVA, leakSuddenmA, leakageSource, dry, wet, vcm, f)
 	if r.WetmA > limit {
 		r.Findings = append(r.Findings, Finding{Severity: Error, Code: "leakage_continuous", Input: -1, Value: r.WetmA, Limit: limit, Unit: "mA",
-			Message: fmt.Sprintf("wet array drives about %.0f mA capacitive current, above the %.0f mA continuous residual-current limit", r.WetmA, limit)})
+			Message: fmt.Sprintf("wet array drives about %.0f mA capacitive current, above the %.0f mA continuous residual-current limit: the inverter may refuse to run in wet weather; split the array over more inverters or choose one with a transformer",
+				r.WetmA, limit),
+			Detail: detail})
 	}
-	if d := r.WetmA - r.DrymA; d > leakSuddenmA {
-		r.Findings = append(r.Findings, Finding{Severity: Info, Code: "leakage_change", Input: -1, Value: d, Limit: leakSuddenmA, Unit: "mA",
-			Message: fmt.Sprintf("leakage rises by about %.0f mA from dry to wet, more than the %.0f mA sudden-change limit; nuisance trips are possible", d, leakSuddenmA)})
+	if d := r.WetmA - r.DrymA; d > 0 {
+		r.Findings = append(r.Findings, Finding{Severity: Info, Code: "leakage_rise", Input: -1, Value: d, Limit: limit, Unit: "mA",
+			Message: fmt.Sprintf("leakage rises by about %.0f mA from dry (%.0f mA) to wet (%.0f mA) over minutes of dew or rain; held to the %.0f mA continuous limit, not to the %.0f mA sudden-change limit, which is for steps within fractions of a second",
+				d, r.DrymA, r.WetmA, limit, leakSuddenmA),
+			Detail: detail})
 	}
 	return r, nil
 }

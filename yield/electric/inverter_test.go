@@ -3,6 +3,7 @@ package electric
 import (
 	"errors"
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -209,8 +210,9 @@ func TestStringSizing(t *testing.T) {
 }
 
 // TestLeakage: I = 2π·f·C·V. 40 m² at 20 nF/m² dry → 800 nF → 2π·50·115 V
-// ·800 nF = 28.90 mA; wet 100 nF/m² → 144.5 mA [calc]. Limits IEC 62109-2
-// (from memory): 300 mA continuous up to 30 kVA, 30 mA sudden change.
+// ·800 nF = 28.90 mA; wet 100 nF/m² → 144.5 mA [hand calculation]. Limits IEC 62109-2:2011
+// clause 4.8.3.5 (from memory): 300 mA continuous up to 30 kVA, 10 mA/kVA above; 30 mA
+// sudden change, for steps within fractions of a second only.
 func TestLeakage(t *testing.T) {
 	r, err := Leakage(40, LeakageAssumptions{})
 	if err != nil {
@@ -226,6 +228,9 @@ func TestLeakage(t *testing.T) {
 		{"dry mA", r.DrymA, 800 * w},
 		{"wet mA", r.WetmA, 4000 * w},
 		{"dry mA value", r.DrymA, 28.902652},
+		{"limit up to 30 kVA", r.ContinuousLimitmA, 300},
+		{"limit at 50 kVA", ContinuousLeakageLimitmA(50), 500},
+		{"limit at 30 kVA", ContinuousLeakageLimitmA(30), 300},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -234,12 +239,21 @@ func TestLeakage(t *testing.T) {
 			}
 		})
 	}
-	if len(r.Findings) != 1 || r.Findings[0].Code != "leakage_change" {
-		t.Errorf("40 m²: findings %+v, want only the sudden-change note", r.Findings)
+	// The dry-to-wet rise (115.6 mA) is slow: it is held to the continuous limit and passes;
+	// nothing compares it with the 30 mA sudden-change limit.
+	if len(r.Findings) != 1 || r.Findings[0].Code != "leakage_rise" || r.Findings[0].Severity != Info ||
+		r.Findings[0].Limit != 300 || !scalar.EqualWithinAbs(r.Findings[0].Value, 3200*w, 1e-9) {
+		t.Errorf("40 m²: findings %+v, want only the rise, against 300 mA", r.Findings)
+	}
+	if d := r.Findings[0].Detail; !strings.Contains(d, "IEC 62109-2") || !strings.Contains(d, "from memory") {
+		t.Errorf("detail %q must name the standard and how sure the values are", d)
 	}
 	big, _ := Leakage(120, LeakageAssumptions{})
-	if len(big.Findings) == 0 || big.Findings[0].Code != "leakage_continuous" {
+	if len(big.Findings) == 0 || big.Findings[0].Code != "leakage_continuous" || big.Findings[0].Severity != Error {
 		t.Errorf("120 m² wet (433 mA) must exceed 300 mA: %+v", big.Findings)
+	}
+	if big50, _ := Leakage(120, LeakageAssumptions{RatedKVA: 50}); big50.Findings[0].Code == "leakage_continuous" {
+		t.Errorf("120 m² wet (433 mA) is within 500 mA at 50 kVA: %+v", big50.Findings)
 	}
 	if _, err := Leakage(math.NaN(), LeakageAssumptions{}); err == nil {
 		t.Error("NaN area accepted")

@@ -34,7 +34,10 @@
 //     losses under field conditions by means of an analytical model", Solar Energy
 //     Materials and Solar Cells 70(1):25–38, fitted to measured modules at all angles,
 //     with its closed-form approximations for isotropic sky diffuse and ground light.
-//   - cell temperature: Faiman, D. (2008), "Assessing the outdoor operating performance of
+//   - cell temperature by mounting (rails, open rack, flush): King, D. L., Boyson, W. E. &
+//     Kratochvil, J. A. (2004), "Photovoltaic array performance model", Sandia report
+//     SAND2004-3535, eq. 11–12 with its Table 1 coefficients; the report gives about ±5 °C
+//     (from memory). Also Faiman, D. (2008), "Assessing the outdoor operating performance of
 //     photovoltaic modules", Progress in Photovoltaics 16(4):307–315, a steady-state heat
 //     balance with an RMS error of about 1.5–2 K on the paper's data (from memory); and
 //     the NOCT linear rise (Ross, R. G. (1980), "Flat-plate photovoltaic array design

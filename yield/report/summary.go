@@ -146,6 +146,8 @@ type Check struct {
 	Value    float64 `json:"value"`
 	Limit    float64 `json:"limit"`
 	Unit     string  `json:"unit"`
+	// Detail is for the installer: where a limit comes from, what an estimate assumes.
+	Detail string `json:"detail,omitempty"`
 }
 
 // Cautions are shown wherever the tool gives a voltage, current or layout.

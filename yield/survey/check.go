@@ -14,7 +14,7 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 	}
 	b := p.bounds
 	checks = append(checks, report.Check{Severity: "info", Subject: "strings", Unit: "modules", Value: float64(b.MaxSeries), Limit: float64(b.MinSeries),
-		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %g °C cell); at most %d string(s) per input",
+		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %.0f °C cell); at most %d string(s) per input",
 			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), b.MaxParallel)})
 	// The roof-order layout's strings, which a survey always reports.
 	seq, _, err := p.roofOrder()

@@ -3,14 +3,21 @@ package survey
 import (
 	"fmt"
 	"strings"
+
 	"sunstring/yield/electric"
-	"sunstring/yield/layout"
+	"sunstring/yield/irradiance"
 	"sunstring/yield/report"
 )
 
-// hotCellC is the hottest expected cell temperature: the hottest air plus the rise of a
-// roof-mounted module in full sun.
-func (p *Project) hotCellC() float64 { return p.Cfg.Climate.HighTempC + layout.HotCellRiseK }
+// Mounting returns the validated module.mounting (the default, rails, when unset).
+func (p *Project) Mounting() irradiance.Mounting {
+	m, _ := irradiance.ParseMounting(strings.ToLower(p.Cfg.Module.Mounting))
+	return m
+}
+
+// hotCellC is the hottest expected cell temperature: a cell in full sun at the hottest air
+// with a light wind, by the mounting's own temperature model (the one the yield uses).
+func (p *Project) hotCellC() float64 { return p.Mounting().HotCellC(p.Cfg.Climate.HighTempC) }
 
 // electricalChecks gives, for a layout's string lengths per inverter input, the numbers a
 // surveyor must see (open-circuit voltage at the coldest, MPP voltage at the hottest, input
@@ -37,7 +44,7 @@ func (p *Project) electricalChecks(name string, lens [][]int) []report.Check {
 		}
 		vmp := float64(shortest) * electric.VmpAt(ds, hot)
 		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "V", Value: vmp, Limit: inv.MPPTMinV,
-			Message: fmt.Sprintf("%s in series: %.1f V at the maximum power point at %g °C cell (MPPT minimum %.0f V)", report.Count(shortest, "module", "modules"), vmp, hot, inv.MPPTMinV)})
+			Message: fmt.Sprintf("%s in series: %.1f V at the maximum power point at %.0f °C cell (MPPT minimum %.0f V)", report.Count(shortest, "module", "modules"), vmp, hot, inv.MPPTMinV)})
 		cur := float64(len(ls)) * ds.ImpA
 		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "A", Value: cur, Limit: inv.MaxInputCurrentA,
 			Message: fmt.Sprintf("%s in parallel: %.1f A at the maximum power point (input limit %.1f A)", report.Count(len(ls), "string", "strings"), cur, inv.MaxInputCurrentA)})
@@ -56,7 +63,7 @@ func (p *Project) leakageChecks(connected int) []report.Check {
 	if p.Cfg.Inverter.Transformerless && len(p.Modules) > 0 && connected > 0 {
 		area := float64(connected) * p.Modules[0].AreaM2()
 		if lr, err := electric.Leakage(area, electric.LeakageAssumptions{RatedKVA: inv.ACPowerW / 1000}); err == nil {
-			out = append(out, report.Check{Severity: "info", Subject: "array", Unit: "mA", Value: lr.WetmA, Limit: 300,
+			out = append(out, report.Check{Severity: "info", Subject: "array", Unit: "mA", Value: lr.WetmA, Limit: lr.ContinuousLimitmA,
 				Message: fmt.Sprintf("capacitive leakage with a transformerless inverter: about %.0f mA dry, %.0f mA wet (%.0f / %.0f nF to earth; assumed 20 / 100 nF per m² of module and 115 V common-mode at 50 Hz)",
 					lr.DrymA, lr.WetmA, lr.CapDryNF, lr.CapWetNF)})
 			for _, f := range lr.Findings {
@@ -80,7 +87,7 @@ func fromFinding(subject string, f electric.Finding) report.Check {
 		subject = fmt.Sprintf("%s, input %d", subject, f.Input+1)
 		msg = strings.TrimPrefix(msg, fmt.Sprintf("input %d: ", f.Input+1))
 	}
-	return report.Check{Severity: sev, Subject: subject, Message: msg, Value: f.Value, Limit: f.Limit, Unit: f.Unit}
+	return report.Check{Severity: sev, Subject: subject, Message: msg, Value: f.Value, Limit: f.Limit, Unit: f.Unit, Detail: f.Detail}
 }
 
 // lengths returns the string lengths per input of a layout.

@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"time"
+
+	"sunstring/yield/irradiance"
 )
 
 // Config is the decoded site file: the site, its climate, the module, the inverter, the fill
@@ -61,6 +63,9 @@ type Module struct {
 	LengthM          float64 `mapstructure:"length_m"`
 	WidthM           float64 `mapstructure:"width_m"`
 	MaxSystemVoltage float64 `mapstructure:"max_system_voltage_v"`
+	// Mounting is how the modules are fixed: rails (over a pitched roof, the default),
+	// open-rack or flush; it sets the cell temperature model.
+	Mounting string `mapstructure:"mounting"`
 }
 
 // Inverter is the inverter datasheet. EfficiencyPct is a number (flat) or a list of
@@ -264,6 +269,9 @@ func (s *Config) Validate() Errors {
 		bad("module.width_m", "%g m is more than length_m (%g m): width is the short side", m.WidthM, m.LengthM)
 	}
 	rng("module.max_system_voltage_v", m.MaxSystemVoltage, 50, 1500, " V")
+	if _, err := irradiance.ParseMounting(strings.ToLower(m.Mounting)); err != nil {
+		bad("module.mounting", "%q is not one of %s", m.Mounting, strings.Join(irradiance.MountingNames(), ", "))
+	}
 	inv := &s.Inverter
 	positive("inverter.ac_power_w", inv.ACPowerW, " W")
 	positive("inverter.max_dc_voltage_v", inv.MaxDCVoltageV, " V")

@@ -11,7 +11,7 @@
 // The models are those of the packages it calls: solar position after Reda & Andreas (2004),
 // NREL/TP-560-34302 (shading/sun); per-cell beam shade by ray tests (shading); Perez et al.
 // (1990), Hay & Davies (1980) or isotropic transposition, Martin & Ruiz (2001) or ASHRAE
-// incidence-angle modifiers and Faiman (2008) cell temperature (yield/irradiance); the
+// incidence-angle modifiers and King et al. (2004) cell temperature by mounting (yield/irradiance); the
 // single-diode model of De Soto et al. (2006) per cell with bypass diodes (yield/electric);
 // the layout search (yield/layout). Its figures are estimates: local codes and a licensed
 // installer have the final word on voltages, currents and layouts.

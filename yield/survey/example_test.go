@@ -59,6 +59,6 @@ func Example() {
 	fmt.Println("proposal rendered:", ok)
 	// Output:
 	// 27 modules, 11.07 kWp
-	// about 12000 kWh a year
+	// about 11800 kWh a year
 	// proposal rendered: true
 }

@@ -281,6 +281,7 @@ func (p *Project) prepareLayouts() error {
 	cfg := p.Cfg
 	b, err := layout.StringBounds(p.Datasheet, p.Inverter, layout.Limits{
 		LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
+		Mounting: p.Mounting(),
 	})
 	if err != nil {
 		return badInput{fmt.Errorf("%s: module and inverter do not fit together: %w", cfg.File, err)}

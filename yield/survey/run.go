@@ -50,6 +50,7 @@ func (p *Project) Run(ctx context.Context, opt Options) (*Result, error) {
 		return nil, err
 	}
 	sky, _ := irradiance.ParseSkyModel(strings.ToLower(p.Cfg.Model.Sky))
+	mounting := p.Mounting()
 	iam := yield.IAMMartinRuiz
 	if strings.EqualFold(p.Cfg.Model.IAM, "ashrae") {
 		iam = yield.IAMASHRAE
@@ -59,6 +60,7 @@ func (p *Project) Run(ctx context.Context, opt Options) (*Result, error) {
 		Horizon: p.Horizon, Progress: opt.Progress,
 		System: yield.System{
 			Module: p.Datasheet, Inverter: p.Inverter, Albedo: p.Cfg.Climate.Albedo, Sky: sky, IAM: iam,
+			Mounting: mounting,
 			Losses: yield.Losses{
 				SoilingPct: p.Cfg.Losses.SoilingPct, WiringPct: p.Cfg.Losses.WiringPct,
 				MismatchPct: p.Cfg.Losses.MismatchPct, AvailabilityPct: p.Cfg.Losses.AvailabilityPct,

@@ -6,6 +6,7 @@ import (
 	"sunstring/geo"
 	"sunstring/yield"
 	"sunstring/yield/electric"
+	"sunstring/yield/irradiance"
 	"sunstring/yield/report"
 	"sunstring/yield/weather"
 )
@@ -63,9 +64,9 @@ type RankedLayout struct {
 }
 
 // ModelSources names the survey's models as published, with their sources, for the
-// sky model (perez, hay-davies, isotropic) and the incidence-angle modifier (martin-ruiz,
-// ashrae) the site file chose.
-func ModelSources(sky, iam string) []string {
+// sky model (perez, hay-davies, isotropic), the incidence-angle modifier (martin-ruiz,
+// ashrae) and the mounting the site file chose.
+func ModelSources(sky, iam string, mounting irradiance.Mounting) []string {
 	skyText := "Perez et al. (1990), Solar Energy 44(5):271–289: anisotropic sky with circumsolar and horizon brightening"
 	switch strings.ToLower(sky) {
 	case "hay-davies":
@@ -81,10 +82,17 @@ func ModelSources(sky, iam string) []string {
 		"Sun position: Solar Position Algorithm, Reda & Andreas (2004), NREL/TP-560-34302",
 		"Light on the tilted module (transposition): " + skyText + "; ground reflection with the site's albedo",
 		"Reflection at the glass (incidence-angle modifier): " + iamText,
-		"Cell temperature: Faiman (2008), Progress in Photovoltaics 16(4):307–315",
+		"Cell temperature: King, Boyson & Kratochvil (2004), Sandia report SAND2004-3535, eq. 11–12 with the Table 1 coefficients for the mounting " + mounting.String() + mountingText[mounting],
 		"Module: single-diode model fitted to the datasheet, De Soto, Klein & Beckman (2006), Solar Energy 80(1):78–88, solved with the Lambert W function (Jain & Kapoor 2004), cell by cell with bypass diodes",
 		"Shade: ray tests from every cell centre toward the sun; sky-view factors for the diffuse light",
 	}
+}
+
+// mountingText says in words what each mounting is.
+var mountingText = map[irradiance.Mounting]string{
+	irradiance.Rails:    " (modules on rails over the roof: close roof mount)",
+	irradiance.OpenRack: " (free air behind the modules: open rack)",
+	irradiance.Flush:    " (built into the roof, back closed: insulated back)",
 }
 
 // summary builds summary.json from the model and the ranked layouts (best first).
@@ -95,7 +103,7 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 		Modules:  len(p.Modules),
 		DCkWp:    kwp,
 		Climate:  report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
-		Models:   ModelSources(p.Cfg.Model.Sky, p.Cfg.Model.IAM),
+		Models:   ModelSources(p.Cfg.Model.Sky, p.Cfg.Model.IAM, p.Mounting()),
 		Cautions: report.Cautions,
 	}
 	for _, mo := range ws.Monthly() {

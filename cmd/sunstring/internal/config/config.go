@@ -66,6 +66,7 @@ var defaults = map[string]any{
 	"module.power_w": 0.0, "module.voc_v": 0.0, "module.isc_a": 0.0, "module.vmp_v": 0.0, "module.imp_a": 0.0,
 	"module.half_cut": false,
 	"module.length_m": 0.0, "module.width_m": 0.0, "module.max_system_voltage_v": 1000.0,
+	"module.mounting":     "rails",
 	"inverter.ac_power_w": 0.0, "inverter.max_dc_voltage_v": 0.0, "inverter.mppt_min_v": 0.0,
 	"inverter.mppt_max_v": 0.0, "inverter.max_input_current_a": 0.0,
 	"inverter.efficiency_pct": 96.0, "inverter.night_w": 0.0, "inverter.transformerless": true,
