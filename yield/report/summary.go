@@ -83,9 +83,19 @@ type ShadePart struct {
 
 // LayoutAdvice is the layout to wire, in plain words.
 type LayoutAdvice struct {
-	Chosen     string   `json:"chosen"`
-	Reason     string   `json:"reason"`
+	// Chosen is the layout to wire: among those equivalent to the best, the one with the
+	// fewest face crossings, then the least extra cable.
+	Chosen string `json:"chosen"`
+	// Reason says in plain words why, for a homeowner.
+	Reason string `json:"reason"`
+	// Equivalent names every layout equivalent to the best (the best included).
 	Equivalent []string `json:"equivalent"`
+	// Hardware says whether module-level converters or another inverter input would pay.
+	Hardware string `json:"hardware,omitempty"`
+	// LayoutsEvaluated is how many distinct layouts the search evaluated; SearchExhaustive
+	// whether that was every layout the inverter allows.
+	LayoutsEvaluated int  `json:"layouts_evaluated"`
+	SearchExhaustive bool `json:"search_exhaustive"`
 }
 
 // Layout is one ranked string layout.
@@ -101,6 +111,8 @@ type Layout struct {
 	// EquivalentToBest reports whether the layout's energy lies within the equivalence
 	// margin of the best's.
 	EquivalentToBest bool `json:"equivalent_to_best"`
+	// FaceCrossings counts the hops between two roof faces along the layout's strings.
+	FaceCrossings int `json:"face_crossings"`
 }
 
 // Alternative is the best layout run another way, for comparison: a plain hill-climbing

@@ -12,9 +12,14 @@ import (
 )
 
 // layouts evaluates the roof-order layout, the user's fixed layouts and (when layouts.search
-// is on) the searched ones on the same footing, and returns them best first by annual AC
-// energy less the weighed extra cable: at most layouts.keep of them plus every fixed layout.
-// The best one's note explains what makes it better.
+// is on) the searched ones and layouts of other structure built from the best (strings on
+// their faces, the shaded modules together or spread, strings on other inputs) on the same
+// footing, and returns them best first by annual AC energy less the weighed extra cable: at
+// most layouts.keep of them plus every fixed layout. Searched layouts and variants are named
+// from their structure (describe); of those with the same description only the best is
+// kept, so the ranking shows layouts that differ in structure rather than copies that differ
+// by a module. It also sets the advice: which of the layouts equivalent to the best to wire,
+// and why.
 func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, error) {
 	cfg := p.Cfg
 	if err := p.prepareLayouts(); err != nil {
@@ -36,6 +41,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 	weightWh := cfg.Layouts.CableWeight * 1000
 	var out []RankedLayout
 	seen := map[string]bool{}
+	names := map[string]bool{}
 	eval := func(name string, l electric.Layout, note string) error {
 		r, err := m.Evaluate(l, electric.EvalOptions{})
 		if err != nil {
@@ -54,6 +60,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 			}
 		}
 		seen[layoutKey(l)] = true
+		names[name] = true
 		out = append(out, rl)
 		return nil
 	}
@@ -69,7 +76,21 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 			return nil, err
 		}
 	}
+	shaded := shadedSet(m)
+	// named evaluates a searched layout or a variant under its structural name, unless the
+	// layout or a better one of the same structure is listed already.
+	named := func(l electric.Layout, note string) error {
+		if seen[layoutKey(l)] {
+			return nil
+		}
+		name := p.describe(l, shaded)
+		if names[name] {
+			return nil // the same structure, already listed with more energy (or the user's name)
+		}
+		return eval(name, l, note)
+	}
 	keep := max(int(cfg.Layouts.Keep), 1)
+	var res layout.Result
 	if cfg.Layouts.Search {
 		prog := func(done, total int) {}
 		if m.In.Progress != nil {
@@ -83,11 +104,11 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 			}
 			faces[i] = faceNo[mod.Face]
 		}
-		res, err := layout.Search(ctx, layout.Problem{
+		res, err = layout.Search(ctx, layout.Problem{
 			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b, Faces: faces,
 			Inputs: p.Inverter.Inputs, Order: order, Starts: append([]electric.Layout{seq}, p.fixed...),
 		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
-			CableWeightWh: weightWh, Keep: keep + 1, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
+			CableWeightWh: weightWh, Keep: 40, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
 		})
 		if err != nil {
 			return nil, fmt.Errorf("layout search: %w", err)
@@ -96,17 +117,24 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 		if len(cands) > 0 && layoutKey(cands[0].Layout) == layoutKey(seq) {
 			out[0].Note += "; the layout search found none better"
 		}
-		k := 0
+		how := fmt.Sprintf("found by the layout search (%d layouts evaluated", res.Evaluated)
+		if res.Exhaustive {
+			how += ", every layout the inverter allows"
+		}
+		how += ")"
 		for _, c := range cands {
-			if seen[layoutKey(c.Layout)] {
-				continue // the roof order or a user's layout, already listed
+			// The search's values rank the candidates; names are given best first, so the
+			// best of each structure keeps the name.
+			if err := named(c.Layout, how); err != nil {
+				return nil, err
 			}
-			k++
-			note := fmt.Sprintf("searched: strings of %s modules (inputs separated by |), from a start %s", c.Shape, c.Start)
-			if len(c.Left) > 0 {
-				note += fmt.Sprintf("; %d modules left unconnected", len(c.Left))
-			}
-			if err := eval(fmt.Sprintf("searched %d", k), c.Layout, note); err != nil {
+		}
+		base := seq
+		if len(cands) > 0 {
+			base = cands[0].Layout
+		}
+		for _, l := range p.variants(base, order, shaded) {
+			if err := named(l, "built from the best layout by changing its structure"); err != nil {
 				return nil, err
 			}
 		}
@@ -119,9 +147,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 			kept = append(kept, l)
 		}
 	}
-	if len(kept) > 1 {
-		kept[0].Note += ". " + p.explain(m, kept, cfg.Layouts.CableWeight)
-	}
+	p.advice = p.advise(m, kept, shaded, res)
 	return kept, nil
 }
 
@@ -147,92 +173,6 @@ func layoutKey(l electric.Layout) string {
 	}
 	slices.Sort(ins)
 	return strings.Join(ins, "|")
-}
-
-// explain says in a sentence or three what makes the best layout better than the next one
-// and than the roof order: which modules carry most of the shade, and how the best layout's
-// strings hold them compared with the other layout's.
-func (p *Project) explain(m *yield.Model, ls []RankedLayout, cableWeight float64) string {
-	best := ls[0]
-	other := ls[1]
-	for _, l := range ls[1:] {
-		if l.Name == roofOrderName {
-			other = l
-		}
-	}
-	// The modules that drive the loss: the most shaded ones, down to half the worst
-	// module's loss and above 3 % (below that, shade is a nuisance rather than a driver).
-	type ms struct {
-		id   string
-		loss float64
-	}
-	var mods []ms
-	for i, mod := range p.Modules {
-		mods = append(mods, ms{mod.ID, m.Stats[i].ShadeLossPct})
-	}
-	sort.SliceStable(mods, func(i, j int) bool { return mods[i].loss > mods[j].loss })
-	var shaded []string
-	for _, x := range mods {
-		if len(shaded) == 8 || x.loss < 3 || x.loss < mods[0].loss/2 {
-			break
-		}
-		shaded = append(shaded, fmt.Sprintf("%s (%.0f %%)", x.id, x.loss))
-	}
-	diff := best.Result.ACkWh - other.Result.ACkWh
-	pct := 0.0
-	if other.Result.ACkWh > 0 {
-		pct = 100 * diff / other.Result.ACkWh
-	}
-	var b strings.Builder
-	if diff < 0.5 && cableWeight == 0 {
-		// A tie to the kWh: nothing to explain about shade.
-		fmt.Fprintf(&b, "It ties with %q (%.1f kWh a year apart); either wiring serves.", other.Name, diff)
-		return b.String()
-	}
-	fmt.Fprintf(&b, "Why it leads: it yields %.0f kWh a year (%.1f %%) more than %q", diff, pct, other.Name)
-	if cableWeight > 0 {
-		fmt.Fprintf(&b, " after weighing %.1f m against %.1f m of extra cable", best.CableM, other.CableM)
-	}
-	b.WriteString(".")
-	if len(shaded) == 0 {
-		b.WriteString(" No module loses more than 3 % of its sun to shade, so the layouts differ mostly in string voltage and inverter loading.")
-		return b.String()
-	}
-	ids := make([]string, len(shaded))
-	for i, s := range shaded {
-		ids[i] = strings.Fields(s)[0]
-	}
-	fmt.Fprintf(&b, " Most shade falls on %s (share of the year's irradiation lost). %s; %s.", strings.Join(shaded, ", "),
-		holders("The best layout", best, ids), holders(fmt.Sprintf("%q", other.Name), other, ids))
-	b.WriteString(" A string's current follows its weakest modules, so keeping the shaded modules together lets the other strings run at full current when the shade comes.")
-	return b.String()
-}
-
-// holders says which strings of a layout hold the given modules, e.g. "the best layout
-// puts them in 1 string (input 2) of 6 modules".
-func holders(who string, l RankedLayout, ids []string) string {
-	want := map[string]bool{}
-	for _, id := range ids {
-		want[id] = true
-	}
-	var parts []string
-	nth := map[int]int{} // strings counted per input, as module_results label them
-	for i, s := range l.Strings {
-		nth[l.Inputs[i]]++
-		c := 0
-		for _, id := range s {
-			if want[id] {
-				c++
-			}
-		}
-		if c > 0 {
-			parts = append(parts, fmt.Sprintf("%d in string %d.%d of %d modules", c, l.Inputs[i], nth[l.Inputs[i]], len(s)))
-		}
-	}
-	if len(parts) == 0 {
-		return who + " leaves them unconnected"
-	}
-	return who + " has " + strings.Join(parts, ", ")
 }
 
 // roofOrder is the plain layout: modules wired in roof order (face, row, column), strings that

@@ -9,6 +9,7 @@ import (
 	"sunstring/shading/sun"
 	"sunstring/yield/electric"
 	"sunstring/yield/layout"
+	"sunstring/yield/report"
 )
 
 // ReadFunc returns the whole content of the input file at path; what names the file for
@@ -35,6 +36,8 @@ type Project struct {
 	fixed    []electric.Layout
 	boundsOK bool
 	read     ReadFunc
+	// Set by layouts: which layout to wire and why.
+	advice *report.LayoutAdvice
 }
 
 // Load reads the map and (optionally) the horizon that a validated site file names, through

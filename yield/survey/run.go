@@ -76,7 +76,7 @@ func (p *Project) Run(ctx context.Context, opt Options) (*Result, error) {
 		return nil, err
 	}
 	sum := p.summary(model, ws, layouts)
-	if sum.Alternatives, err = alternatives(model, layouts); err != nil {
+	if sum.Alternatives, err = p.alternatives(model, layouts); err != nil {
 		return nil, err
 	}
 	if err := ctx.Err(); err != nil {

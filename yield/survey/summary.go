@@ -1,12 +1,15 @@
 package survey
 
 import (
+	"cmp"
 	"fmt"
+	"slices"
 	"strings"
 	"sunstring/geo"
 	"sunstring/yield"
 	"sunstring/yield/electric"
 	"sunstring/yield/irradiance"
+	"sunstring/yield/layout"
 	"sunstring/yield/report"
 	"sunstring/yield/weather"
 )
@@ -26,14 +29,25 @@ func (p *Project) Faces() []report.Face {
 const moduleConverterEff = 0.985
 
 // alternatives runs the best layout with a plain hill-climbing tracker (which can stop on a
-// local maximum of a shaded string's P-V curve) and with a converter on every module, so the
-// surveyor sees what the tracker choice and module-level electronics are worth here.
-func alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alternative, error) {
+// local maximum of a shaded string's P-V curve), with a converter on every module, and with
+// converters only on the fewest most-shaded modules that capture most of what converters
+// everywhere would gain, the rest on plain strings; so the surveyor sees what the tracker
+// choice and module-level electronics are worth here. It also completes the advice with
+// what the hardware would change.
+func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alternative, error) {
 	if len(ls) == 0 {
 		return nil, nil
 	}
 	best := ls[0].Result
+	ids := func(mods []int) []string {
+		out := make([]string, len(mods))
+		for i, k := range mods {
+			out[i] = p.Modules[k].ID
+		}
+		return out
+	}
 	var out []report.Alternative
+	var every float64
 	for _, a := range []struct {
 		name, note string
 		opt        electric.EvalOptions
@@ -47,9 +61,136 @@ func alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alternative, erro
 		if err != nil {
 			return nil, fmt.Errorf("alternative %q: %w", a.name, err)
 		}
-		out = append(out, report.Alternative{Name: a.name, AnnualACkWh: r.ACkWh, DifferenceKWh: r.ACkWh - best.ACkWh, Note: a.note})
+		alt := report.Alternative{Name: a.name, AnnualACkWh: r.ACkWh, DifferenceKWh: r.ACkWh - best.ACkWh, Note: a.note}
+		if a.opt.ModuleLevel {
+			alt.ConvertersOn = ids(modulesOf(best.Layout))
+			every = r.ACkWh - best.ACkWh
+		}
+		out = append(out, alt)
+	}
+	part, err := p.someConverters(m, best, every)
+	if err != nil {
+		return nil, err
+	}
+	if part != nil {
+		out = append(out, *part)
+	}
+	if p.advice != nil {
+		p.advice.Hardware = p.hardware(best, every, part)
 	}
 	return out, nil
+}
+
+// someConverters finds the smallest set of the most shaded modules whose own converters
+// capture at least 80 % of what converters on every module gain (every, kWh), the rest of
+// the best layout on plain strings (the converters' modules taken out of their strings, or
+// the rest rewired in the same order when that breaks the string bounds). Nil when
+// converters everywhere gain nothing or no set of up to 12 modules keeps valid strings.
+func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every float64) (*report.Alternative, error) {
+	if every <= 0 {
+		return nil, nil
+	}
+	conn := connected(best.Layout)
+	idx := modulesOf(best.Layout)
+	slices.SortStableFunc(idx, func(a, b int) int { return cmp.Compare(m.Stats[b].ShadeLossPct, m.Stats[a].ShadeLossPct) })
+	var found *report.Alternative
+	for k := 1; k <= min(12, len(idx)-1); k++ {
+		conv := slices.Clone(idx[:k])
+		if m.Stats[conv[k-1]].ShadeLossPct <= 0 {
+			break
+		}
+		rest := cloneLayout(best.Layout)
+		for a := range rest.Inputs {
+			for b := range rest.Inputs[a] {
+				rest.Inputs[a][b] = slices.DeleteFunc(rest.Inputs[a][b], func(x int) bool { return slices.Contains(conv, x) })
+			}
+		}
+		if !p.fits(rest) {
+			var order []int
+			for _, in := range best.Layout.Inputs {
+				for _, s := range in {
+					for _, x := range s {
+						if conn[x] && !slices.Contains(conv, x) {
+							order = append(order, x)
+						}
+					}
+				}
+			}
+			l, left, err := layout.Sequential(order, p.Inverter.Inputs, p.bounds)
+			if err != nil || left > 0 || !p.fits(l) {
+				continue
+			}
+			rest = l
+		}
+		r, err := m.Evaluate(rest, electric.EvalOptions{ConvertersOn: conv, ModuleLevelEff: moduleConverterEff})
+		if err != nil {
+			return nil, fmt.Errorf("alternative: converters on %d modules: %w", k, err)
+		}
+		gain := r.ACkWh - best.ACkWh
+		names := make([]string, k)
+		for i, x := range conv {
+			names[i] = p.Modules[x].ID
+		}
+		alt := report.Alternative{
+			Name:          fmt.Sprintf("module-level converters on the %d most shaded modules", k),
+			AnnualACkWh:   r.ACkWh,
+			DifferenceKWh: gain,
+			Note: fmt.Sprintf("converters (%.1f %% efficiency) on %s only, the other modules on plain strings: %s kWh a year, %.0f %% of the %s kWh that converters on every module gain",
+				100*moduleConverterEff, joinWords(names), report.Thousands(gain, 0), 100*gain/every, report.Thousands(every, 0)),
+			ConvertersOn: names,
+		}
+		if k == 1 {
+			alt.Name = "a module-level converter on the most shaded module"
+		}
+		if found == nil || gain > found.DifferenceKWh {
+			found = &alt
+		}
+		if gain >= 0.8*every {
+			return &alt, nil
+		}
+	}
+	return found, nil
+}
+
+// hardware says whether module-level converters or another inverter input would be the
+// better choice on this roof: when converters everywhere gain more than the equivalence
+// margin, or the strings lose more than that to mismatch without shade (orientations).
+func (p *Project) hardware(best yield.LayoutResult, every float64, part *report.Alternative) string {
+	margin := best.ACkWh * EquivalenceMarginPct / 100
+	var plain float64
+	for _, l := range best.Losses {
+		if strings.HasPrefix(l.Step, "string mismatch without shade") {
+			plain = l.KWh
+		}
+	}
+	var s []string
+	switch {
+	case every > margin && part != nil && part.DifferenceKWh >= 0.8*every:
+		s = append(s, fmt.Sprintf("Module-level converters pay here: on every module they add %s kWh a year (%s), and on %d modules alone %s kWh.",
+			report.Thousands(every, 0), report.Pct(100*every/best.ACkWh), len(part.ConvertersOn), report.Thousands(part.DifferenceKWh, 0)))
+	case every > margin:
+		s = append(s, fmt.Sprintf("Module-level converters on every module add %s kWh a year (%s), more than the layouts differ.",
+			report.Thousands(every, 0), report.Pct(100*every/best.ACkWh)))
+	default:
+		s = append(s, fmt.Sprintf("Module-level converters add %s kWh a year at most (%s), within what the model tells apart: plain strings serve.",
+			report.Thousands(max(every, 0), 0), report.Pct(100*max(every, 0)/best.ACkWh)))
+	}
+	if plain > margin {
+		s = append(s, fmt.Sprintf("The strings lose %s kWh a year to mismatch without shade (modules of different orientation or temperature on one input): an inverter with another input, or converters, would recover most of it.",
+			report.Thousands(plain, 0)))
+	}
+	return strings.Join(s, " ")
+}
+
+// modulesOf lists a layout's modules in string order.
+func modulesOf(l electric.Layout) []int {
+	var out []int
+	for _, in := range l.Inputs {
+		for _, s := range in {
+			out = append(out, s...)
+		}
+	}
+	return out
 }
 
 // RankedLayout is one evaluated layout with its module ids: Strings[i] is wired to the
@@ -61,6 +202,10 @@ type RankedLayout struct {
 	Result  yield.LayoutResult
 	CableM  float64
 	Note    string
+	// Equivalent reports whether the layout's energy is within EquivalenceMarginPct of the
+	// best's; Crossings counts the hops between roof faces along its strings.
+	Equivalent bool
+	Crossings  int
 }
 
 // ModelSources names the survey's models as published, with their sources, for the
@@ -159,13 +304,23 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], nth[best.Inputs[i]])
 			}
 		}
+		// One reference for every layout's shade loss, so that the column agrees with the
+		// ranking: the best layout's modules with no shade, same losses.
+		ref := best.Result.UnshadedACkWh
 		for _, l := range ls {
+			loss := 0.0
+			if ref > 0 {
+				loss = 100 * (1 - l.Result.ACkWh/ref)
+			}
 			s.Layouts = append(s.Layouts, report.Layout{
-				Name: l.Name, AnnualACkWh: l.Result.ACkWh, ShadeLossPct: l.Result.ShadeLossPct,
+				Name: l.Name, AnnualACkWh: l.Result.ACkWh, ShadeLossPct: loss,
 				BehindBestKWh: best.Result.ACkWh - l.Result.ACkWh, CableM: l.CableM,
 				Strings: l.Strings, Inputs: l.Inputs, Note: l.Note,
+				EquivalentToBest: l.Equivalent, FaceCrossings: l.Crossings,
 			})
 		}
+		s.EquivalenceMarginPct = EquivalenceMarginPct
+		s.LayoutAdvice = p.advice
 	}
 	for i, mod := range p.Modules {
 		st := m.Stats[i]

@@ -180,6 +180,7 @@ func TestSurveyExampleContract(t *testing.T) {
 	} else if ls[0].(map[string]any)["annual_ac_kwh"].(float64) != ac {
 		t.Error("annual_ac_kwh is not the best layout's")
 	}
+	checkLayoutAdvice(t, s)
 	for _, f := range []string{"modules.geojson", "monthly.png"} {
 		if st, err := os.Stat(filepath.Join(dir, f)); err != nil || st.Size() == 0 {
 			t.Errorf("%s missing or empty", f)
@@ -455,5 +456,93 @@ func TestStaleTemporaryFolders(t *testing.T) {
 	}
 	if _, err := os.Stat(fresh); err != nil {
 		t.Error("a fresh temporary folder was removed")
+	}
+}
+
+// checkLayoutAdvice holds summary.json's layout advice to the contract in README.md: every
+// layout says whether it is equivalent to the best; the names are unique plain words (no
+// numbered placeholders); the shade loss column rises down the ranking (one reference for
+// all); the chosen layout is one of the equivalent ones, which are exactly those within the
+// margin; alternatives with converters list the modules they put them on.
+func checkLayoutAdvice(t *testing.T, s map[string]any) {
+	t.Helper()
+	margin, ok := s["equivalence_margin_pct"].(float64)
+	if !ok || margin < 0.5 {
+		t.Errorf("equivalence_margin_pct = %v, want a number of at least 0.5", s["equivalence_margin_pct"])
+	}
+	ls := s["layouts"].([]any)
+	best := ls[0].(map[string]any)["annual_ac_kwh"].(float64)
+	names := map[string]bool{}
+	equivalent := map[string]bool{}
+	prevLoss := -1.0
+	for _, x := range ls {
+		l := x.(map[string]any)
+		name := l["name"].(string)
+		if names[name] {
+			t.Errorf("layout name %q twice", name)
+		}
+		names[name] = true
+		if strings.HasPrefix(name, "searched ") {
+			t.Errorf("numbered placeholder name %q", name)
+		}
+		eq, ok := l["equivalent_to_best"].(bool)
+		if !ok {
+			t.Errorf("layout %q: equivalent_to_best missing or not a bool", name)
+		}
+		// Energies rounded to 0.1 kWh: the margin's edge is fuzzy by that much.
+		if within := l["annual_ac_kwh"].(float64) >= best*(1-margin/100); within != eq && math.Abs(l["annual_ac_kwh"].(float64)-best*(1-margin/100)) > 0.1 {
+			t.Errorf("layout %q: equivalent_to_best %v, energy %v against best %v and margin %v %%", name, eq, l["annual_ac_kwh"], best, margin)
+		}
+		if eq {
+			equivalent[name] = true
+		}
+		// Shade loss against one reference: rounded to 0.01 %, never falling down the ranking.
+		loss := l["shade_loss_pct"].(float64)
+		if loss < prevLoss-0.01 {
+			t.Errorf("layout %q: shade_loss_pct %v below the better layout's %v", name, loss, prevLoss)
+		}
+		prevLoss = loss
+	}
+	adv, ok := s["layout_advice"].(map[string]any)
+	if !ok {
+		t.Fatal("layout_advice missing")
+	}
+	if c, _ := adv["chosen"].(string); !equivalent[c] {
+		t.Errorf("layout_advice.chosen %q is not a layout equivalent to the best (%v)", c, equivalent)
+	}
+	if r, _ := adv["reason"].(string); len(r) < 40 {
+		t.Errorf("layout_advice.reason %q: want a plain sentence", r)
+	}
+	var eqNames []string
+	for _, x := range adv["equivalent"].([]any) {
+		eqNames = append(eqNames, x.(string))
+		if !equivalent[x.(string)] {
+			t.Errorf("layout_advice.equivalent lists %q, not marked equivalent", x)
+		}
+	}
+	if len(eqNames) != len(equivalent) {
+		t.Errorf("layout_advice.equivalent %v, layouts marked equivalent %v", eqNames, equivalent)
+	}
+	ids := map[string]bool{}
+	for _, x := range s["module_results"].([]any) {
+		ids[x.(map[string]any)["id"].(string)] = true
+	}
+	for _, x := range s["alternatives"].([]any) {
+		a := x.(map[string]any)
+		if !strings.Contains(a["name"].(string), "converter") {
+			continue
+		}
+		on, _ := a["converters_on"].([]any)
+		if len(on) == 0 {
+			t.Errorf("alternative %q lists no converters_on", a["name"])
+		}
+		for _, id := range on {
+			if !ids[id.(string)] {
+				t.Errorf("alternative %q: converters_on %q is not a module", a["name"], id)
+			}
+		}
+		if a["name"] == "module-level converters" && len(on) != len(ids) {
+			t.Errorf("converters on every module list %d of %d modules", len(on), len(ids))
+		}
 	}
 }
