@@ -169,7 +169,7 @@ type level struct {
 func (s *searcher) levels(inputs int, leaveOut bool) []level {
 	var out []level
 	for k := 1; k < inputs; k++ {
-		if len(Shapes(s.n, s.n, k, s.p.Bounds)) > 0 {
+		if AnyShape(s.n, s.n, k, s.p.Bounds) {
 			out = append(out, level{k, false})
 		}
 	}

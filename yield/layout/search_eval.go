@@ -126,7 +126,8 @@ func (s *searcher) runLevel(lv level, prev []state) ([]state, error) {
 	stop := s.evals + s.opt.MaxEvals
 	shapes := shapesForInputs(s.p, s.n, lv.leaveOut, lv.inputs)
 	// The count is exact but computed through log-gamma: half a layout of slack.
-	if countLayouts(shapes, s.n) <= float64(s.opt.MaxEvals)+0.5 {
+	// A list cut at MaxShapes is not every layout.
+	if len(shapes) < MaxShapes && countLayouts(shapes, s.n) <= float64(s.opt.MaxEvals)+0.5 {
 		if err := s.enumerate(shapes); err != nil {
 			return nil, err
 		}
