@@ -61,3 +61,13 @@ func jsonText(data []byte, n *jnode) string {
 	}
 	return n.typeName()
 }
+
+// source reads the optional "source" property of an obstacle: the file it was imported from,
+// which an export writes so that the surveyor can tell drawn from imported. Anything but a
+// string is ignored.
+func (d *decoder) source(f *rawFeature) string {
+	if n := f.props.member("source"); n != nil && n.kind == 's' {
+		return n.str
+	}
+	return ""
+}

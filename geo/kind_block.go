@@ -11,7 +11,7 @@ import (
 var blockKind = kind{
 	name:     "block",
 	geometry: "Polygon",
-	props:    []string{"id", "height_m", "base_m", "ridge_m", "ridge_azimuth_deg"},
+	props:    []string{"id", "height_m", "base_m", "ridge_m", "ridge_azimuth_deg", "roof_shape", "source"},
 	build:    (*decoder).block,
 	export: func(e *exporter, s *Site) []exportItem {
 		var out []exportItem
@@ -21,6 +21,12 @@ var blockKind = kind{
 				ps := []kv{{"kind", "block"}, {"id", bl.ID}, {"height_m", round(bl.HeightM)}, {"base_m", round(bl.BaseM)}}
 				if bl.RidgeM != 0 {
 					ps = append(ps, kv{"ridge_m", round(bl.RidgeM)}, kv{"ridge_azimuth_deg", round(bl.RidgeAzimuthDeg)})
+					if bl.Hipped {
+						ps = append(ps, kv{"roof_shape", RoofHipped})
+					}
+				}
+				if bl.Source != "" {
+					ps = append(ps, kv{"source", bl.Source})
 				}
 				return e.feature(b, e.ring(bl.Footprint), ps...)
 			}})
@@ -78,6 +84,18 @@ func (d *decoder) block(f *rawFeature) {
 		d.fproblem(f, f.props.member("ridge_m"), "ridge_m", fmt.Sprintf("%g is not above height_m %g; %s", ridge, h, ridgeRule))
 		return
 	}
+	if sn := f.props.member("roof_shape"); sn != nil && sn.kind != 'z' {
+		switch {
+		case sn.kind != 's' || sn.str != RoofGabled && sn.str != RoofHipped:
+			d.fproblem(f, sn, "roof_shape", "must be \"gabled\" or \"hipped\" (a block with ridge_m; without it the top is flat)")
+			return
+		case !hasRidge:
+			d.fproblem(f, sn, "ridge_m", "missing; a gabled or hipped block needs ridge_m, the ridge height above ground")
+			return
+		}
+		b.Hipped = sn.str == RoofHipped
+	}
+	b.Source = d.source(f)
 	b.BaseM, b.HeightM, b.RidgeM, b.RidgeAzimuthDeg = base, h, ridge, raz
 	d.site.Blocks = append(d.site.Blocks, b)
 }

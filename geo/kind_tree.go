@@ -14,7 +14,7 @@ var treeKind = kind{
 	name:     "tree",
 	geometry: "Point",
 	props: []string{"id", "height_m", "crown_radius_m", "crown_base_m", "crown_shape",
-		"leaf_off_transmittance", "leaf_off_months", "base_m"},
+		"leaf_off_transmittance", "leaf_off_months", "base_m", "source"},
 	build: (*decoder).tree,
 	export: func(e *exporter, s *Site) []exportItem {
 		var out []exportItem
@@ -29,6 +29,9 @@ var treeKind = kind{
 						ms[k] = int(m)
 					}
 					ps = append(ps, kv{"leaf_off_transmittance", round(t.LeafOffTransmittance)}, kv{"leaf_off_months", ms})
+				}
+				if t.Source != "" {
+					ps = append(ps, kv{"source", t.Source})
 				}
 				return e.feature(b, e.point(t.Trunk), ps...)
 			}})
@@ -63,7 +66,7 @@ func (d *decoder) tree(f *rawFeature) {
 		transRule  = "leaf_off_transmittance is the share of sunlight a bare crown lets through, 0 to 1 (omit it for an evergreen)"
 		groundRule = "base_m is the ground under the trunk above the site's ground, between -100 and 1000 m (default 0)"
 	)
-	t := Tree{ID: f.id, Index: f.index}
+	t := Tree{ID: f.id, Index: f.index, Source: d.source(f)}
 	v := d.local(f.point)
 	t.Trunk = v.Plan()
 	h, okH := d.need(f, "height_m", -100, 1150, false, heightRule)

@@ -91,6 +91,12 @@ type Block struct {
 	// footprint vertex farthest from the ridge line.
 	RidgeM          float64
 	RidgeAzimuthDeg float64
+	// Hipped reports whether a pitched top also falls toward both ends of the ridge, at the same
+	// slope as toward the sides (a hipped roof; a pyramid when the ends are as far as the sides).
+	Hipped bool
+
+	// Source names the file an imported obstacle came from; empty for one drawn in the map.
+	Source string
 }
 
 // Pitched reports whether the block has a gable roof above its walls.
@@ -108,7 +114,24 @@ func (b *Block) TopAt(p orb.Point) float64 {
 	if half <= 0 {
 		return b.RidgeM
 	}
-	return b.RidgeM - (b.RidgeM-b.HeightM)*math.Min(1, d/half)
+	top := b.RidgeM - (b.RidgeM-b.HeightM)*math.Min(1, d/half)
+	if b.Hipped {
+		slope := (b.RidgeM - b.HeightM) / half
+		u := math.Abs((p[0]-c[0])*math.Sin(a) + (p[1]-c[1])*math.Cos(a))
+		top = math.Min(top, b.HeightM+slope*math.Max(0, b.hipHalf(c)-u))
+	}
+	return top
+}
+
+// hipHalf returns the largest distance of a footprint vertex from c along the ridge: where the
+// hipped ends reach the walls.
+func (b *Block) hipHalf(c orb.Point) float64 {
+	a := b.RidgeAzimuthDeg * math.Pi / 180
+	half := 0.0
+	for _, p := range b.Footprint {
+		half = math.Max(half, math.Abs((p[0]-c[0])*math.Sin(a)+(p[1]-c[1])*math.Cos(a)))
+	}
+	return half
 }
 
 // ridgeLine returns a point on the ridge (the footprint's vertex centroid) and the largest
@@ -168,6 +191,8 @@ type Tree struct {
 	CrownRadiusM float64
 	CrownBaseM   float64 // bottom of the crown above ground
 	Shape        CrownShape
+	// Source names the file an imported tree came from; empty for one drawn in the map.
+	Source string
 
 	// Deciduous reports whether the tree drops its leaves; then LeafOffTransmittance of the
 	// beam passes the crown in LeafOffMonths. An evergreen crown passes nothing.

@@ -34,7 +34,7 @@ func (k kind) String() string {
 const farT = 1e6
 
 // object is one obstruction in a form the ray test can use directly. Faces are planar
-// polygons, blocks are vertical prisms (optionally cut by two gable planes), trees are crowns
+// polygons, blocks are vertical prisms (optionally cut by two gable planes, or four for a hip), trees are crowns
 // of revolution. Everything is opaque except tree crowns, which pass a month-dependent
 // fraction of the beam.
 type object struct {
@@ -57,12 +57,16 @@ type object struct {
 
 	// Block: base and highest top; a gable is the pair of half-spaces
 	// z ≤ ridge ∓ slope·((x−c)·across).
-	base, top   float64
-	gable       bool
-	ridge       float64
-	slope       float64
-	ridgeC      orb.Point
-	across      orb.Point
+	base, top float64
+	gable     bool
+	ridge     float64
+	slope     float64
+	ridgeC    orb.Point
+	across    orb.Point
+	// Hipped block: also z ≤ hipTop ∓ slope·((x−c)·along).
+	hip         bool
+	hipTop      float64
+	along       orb.Point
 	crownShape  geo.CrownShape
 	crownBase   float64
 	trunk       orb.Point
@@ -195,6 +199,15 @@ func blockObject(b *geo.Block) (object, error) {
 			o.gable = true
 			o.ridge = b.RidgeM
 			o.slope = (b.RidgeM - b.HeightM) / half
+			if b.Hipped {
+				o.hip = true
+				o.along = orb.Point{math.Sin(a), math.Cos(a)}
+				halfL := 0.0
+				for _, p := range o.poly {
+					halfL = max(halfL, math.Abs((p[0]-o.ridgeC[0])*o.along[0]+(p[1]-o.ridgeC[1])*o.along[1]))
+				}
+				o.hipTop = b.HeightM + o.slope*halfL
+			}
 		}
 	}
 	o.setSphereFromBox(o.base, o.top)
@@ -303,6 +316,14 @@ func (o *object) hitBlock(p, d geo.Vec3) bool {
 		if !clip(&lo, &hi, p.U-o.ridge+o.slope*w0, d.U+o.slope*w1) ||
 			!clip(&lo, &hi, p.U-o.ridge-o.slope*w0, d.U-o.slope*w1) {
 			return false
+		}
+		if o.hip {
+			u0 := (p.E-o.ridgeC[0])*o.along[0] + (p.N-o.ridgeC[1])*o.along[1]
+			u1 := d.E*o.along[0] + d.N*o.along[1]
+			if !clip(&lo, &hi, p.U-o.hipTop+o.slope*u0, d.U+o.slope*u1) ||
+				!clip(&lo, &hi, p.U-o.hipTop-o.slope*u0, d.U-o.slope*u1) {
+				return false
+			}
 		}
 	}
 	// What is left is a plan segment; the solid is hit when the segment meets the footprint.
