@@ -33,8 +33,14 @@ func ExportGeoJSON(site *Site, mods []Module, props func(i int) map[string]any) 
 		items = append(items, k.export(e, site)...)
 	}
 	// Features keep the map's order; Index is unique per feature within one map.
+	before := func(a, b exportItem) bool {
+		if a.imported != b.imported {
+			return !a.imported
+		}
+		return a.index < b.index
+	}
 	for i := 1; i < len(items); i++ {
-		for j := i; j > 0 && items[j].index < items[j-1].index; j-- {
+		for j := i; j > 0 && before(items[j], items[j-1]); j-- {
 			items[j], items[j-1] = items[j-1], items[j]
 		}
 	}
@@ -78,8 +84,9 @@ func ExportGeoJSON(site *Site, mods []Module, props func(i int) map[string]any) 
 // exportItem is one feature of the site for ExportGeoJSON: its index in the map (the output
 // keeps the map's order) and how to write it.
 type exportItem struct {
-	index int
-	write func(*bytes.Buffer) error
+	index    int
+	write    func(*bytes.Buffer) error
+	imported bool // from a surroundings file: after the map's features
 }
 
 // kv is one property in output order; an empty key splices a JSON object's members.

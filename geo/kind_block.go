@@ -17,7 +17,7 @@ var blockKind = kind{
 		var out []exportItem
 		for i := range s.Blocks {
 			bl := &s.Blocks[i]
-			out = append(out, exportItem{bl.Index, func(b *bytes.Buffer) error {
+			out = append(out, exportItem{index: bl.Index, write: func(b *bytes.Buffer) error {
 				ps := []kv{{"kind", "block"}, {"id", bl.ID}, {"height_m", round(bl.HeightM)}, {"base_m", round(bl.BaseM)}}
 				if bl.RidgeM != 0 {
 					ps = append(ps, kv{"ridge_m", round(bl.RidgeM)}, kv{"ridge_azimuth_deg", round(bl.RidgeAzimuthDeg)})
@@ -29,7 +29,7 @@ var blockKind = kind{
 					ps = append(ps, kv{"source", bl.Source})
 				}
 				return e.feature(b, e.ring(bl.Footprint), ps...)
-			}})
+			}, imported: bl.Source != ""})
 		}
 		return out
 	},

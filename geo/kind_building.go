@@ -19,7 +19,7 @@ var buildingKind = kind{
 		var out []exportItem
 		for i := range s.Buildings {
 			bl := &s.Buildings[i]
-			out = append(out, exportItem{bl.Index, func(b *bytes.Buffer) error {
+			out = append(out, exportItem{index: bl.Index, write: func(b *bytes.Buffer) error {
 				ps := []kv{{"kind", "building"}, {"id", bl.ID}, {"roof_shape", bl.RoofShape}}
 				if bl.RoofShape != RoofFlat {
 					ps = append(ps, kv{"pitch_deg", round(bl.PitchDeg)})

@@ -16,7 +16,7 @@ var avoidKind = kind{
 		var out []exportItem
 		for i := range s.Avoids {
 			a := &s.Avoids[i]
-			out = append(out, exportItem{a.Index, func(b *bytes.Buffer) error {
+			out = append(out, exportItem{index: a.Index, write: func(b *bytes.Buffer) error {
 				return e.feature(b, e.ring(a.Area), kv{"kind", "avoid"}, kv{"id", a.ID})
 			}})
 		}
@@ -38,7 +38,7 @@ var panelKind = kind{
 		var out []exportItem
 		for i := range s.Panels {
 			p := &s.Panels[i]
-			out = append(out, exportItem{p.Index, func(b *bytes.Buffer) error {
+			out = append(out, exportItem{index: p.Index, write: func(b *bytes.Buffer) error {
 				return e.feature(b, e.ring(p.Outline), kv{"kind", "panel"}, kv{"id", p.ID})
 			}})
 		}

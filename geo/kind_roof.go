@@ -20,7 +20,7 @@ var roofKind = kind{
 			if f.Building != "" {
 				continue // written as its building
 			}
-			out = append(out, exportItem{f.Index, func(b *bytes.Buffer) error {
+			out = append(out, exportItem{index: f.Index, write: func(b *bytes.Buffer) error {
 				return e.feature(b, e.ring(f.Plan), kv{"kind", "roof"}, kv{"id", f.ID},
 					kv{"pitch_deg", round(f.PitchDeg)}, kv{"aspect_deg", round(f.AspectDeg)}, kv{"eave_height_m", round(f.EaveHeightM)})
 			}})

@@ -20,7 +20,7 @@ var treeKind = kind{
 		var out []exportItem
 		for i := range s.Trees {
 			t := &s.Trees[i]
-			out = append(out, exportItem{t.Index, func(b *bytes.Buffer) error {
+			out = append(out, exportItem{index: t.Index, write: func(b *bytes.Buffer) error {
 				ps := []kv{{"kind", "tree"}, {"id", t.ID}, {"height_m", round(t.HeightM)}, {"crown_radius_m", round(t.CrownRadiusM)},
 					{"crown_base_m", round(t.CrownBaseM)}, {"crown_shape", t.Shape.String()}, {"base_m", round(t.BaseM)}}
 				if t.Deciduous {
@@ -34,7 +34,7 @@ var treeKind = kind{
 					ps = append(ps, kv{"source", t.Source})
 				}
 				return e.feature(b, e.point(t.Trunk), ps...)
-			}})
+			}, imported: t.Source != ""})
 		}
 		return out
 	},
