@@ -17,7 +17,7 @@ type Problem struct {
 	Field   string // property or member name, e.g. "pitch_deg" or "geometry"
 	Msg     string // what is wrong and what is allowed
 	Line    int    // 1-based; 0 when unknown
-	Col     int    // 1-based, in characters
+	Col     int    // 1-based, in characters; 0 when unknown
 	Pointer string // RFC 6901 JSON Pointer to the offending value
 }
 
@@ -29,8 +29,11 @@ func (p Problem) String() string {
 	} else {
 		b.WriteString("map")
 	}
-	if p.Line > 0 {
+	switch {
+	case p.Line > 0 && p.Col > 0:
 		fmt.Fprintf(&b, ":%d:%d", p.Line, p.Col)
+	case p.Line > 0:
+		fmt.Fprintf(&b, ":%d", p.Line)
 	}
 	b.WriteString(": ")
 	if p.Index >= 0 {
