@@ -12,9 +12,9 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/paulmach/orb"
 	posm "github.com/paulmach/osm"
 	"github.com/paulmach/osm/osmxml"
-	"github.com/paulmach/orb"
 
 	"sunstring/geo"
 )
