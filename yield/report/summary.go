@@ -38,6 +38,10 @@ type Summary struct {
 	Warnings             []string       `json:"warnings"`
 	Cautions             []string       `json:"cautions"`
 	Models               []string       `json:"models"`
+
+	// Surroundings lists the obstacles imported from the site file's surroundings files, each
+	// with its source; absent without such files.
+	Surroundings []Surrounding `json:"surroundings,omitempty"`
 }
 
 // SiteInfo names the site.
@@ -148,6 +152,15 @@ type Face struct {
 	SlopedAreaM2 float64 `json:"sloped_area_m2"`
 	Modules      int     `json:"modules"`
 	KWp          float64 `json:"kwp"`
+}
+
+// Surrounding is one imported obstacle: a building (a block) or a tree, its id in its source
+// (an OpenStreetMap extract names elements "way/123", "node/45") and its top above ground.
+type Surrounding struct {
+	ID      string  `json:"id"`
+	Kind    string  `json:"kind"`
+	Source  string  `json:"source"`
+	HeightM float64 `json:"height_m"`
 }
 
 // Check is one electrical check of the reported layout.

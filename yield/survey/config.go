@@ -2,9 +2,11 @@ package survey
 
 import (
 	"fmt"
+
 	"math"
 	"path/filepath"
 	"strings"
+	"sunstring/geo"
 	"time"
 
 	"sunstring/yield/irradiance"
@@ -21,13 +23,18 @@ type Config struct {
 	Longitude  *float64 `mapstructure:"longitude"`
 	ElevationM *float64 `mapstructure:"elevation_m"`
 	Horizon    string   `mapstructure:"horizon"` // optional far-horizon CSV, relative to the file
-	Climate    Climate  `mapstructure:"climate"`
-	Module     Module   `mapstructure:"module"`
-	Inverter   Inverter `mapstructure:"inverter"`
-	Fill       Fill     `mapstructure:"fill"`
-	Layouts    Layouts  `mapstructure:"layouts"`
-	Losses     Losses   `mapstructure:"losses"`
-	Model      Model    `mapstructure:"model"`
+	// Surroundings lists maps of the neighbourhood (OpenStreetMap XML, or GeoJSON of blocks and
+	// trees), relative to the file: their buildings and trees within SurroundingsRadiusM of the
+	// roof faces become obstacles.
+	Surroundings        []string `mapstructure:"surroundings"`
+	SurroundingsRadiusM float64  `mapstructure:"surroundings_radius_m"`
+	Climate             Climate  `mapstructure:"climate"`
+	Module              Module   `mapstructure:"module"`
+	Inverter            Inverter `mapstructure:"inverter"`
+	Fill                Fill     `mapstructure:"fill"`
+	Layouts             Layouts  `mapstructure:"layouts"`
+	Losses              Losses   `mapstructure:"losses"`
+	Model               Model    `mapstructure:"model"`
 
 	// Dir is the folder of the site file; relative paths resolve against it.
 	Dir string `mapstructure:"-"`
@@ -201,6 +208,12 @@ func (s *Config) Validate() Errors {
 	if s.Map == "" {
 		bad("map", "missing: the path of the GeoJSON map, relative to the site file")
 	}
+	for i, f := range s.Surroundings {
+		if _, ok := surroundingsFormat(f); !ok {
+			bad(fmt.Sprintf("surroundings[%d]", i), "%q: a surroundings file is an OpenStreetMap extract (.osm) or a GeoJSON of blocks and trees (.geojson, .json)", f)
+		}
+	}
+	rng("surroundings_radius_m", s.SurroundingsRadiusM, 1, geo.MaxExtentM, " m")
 	if z, err := time.LoadLocation(s.Timezone); err != nil || s.Timezone == "" || strings.EqualFold(s.Timezone, "local") {
 		bad("timezone", "%q is not an IANA time zone name such as Europe/Vienna or America/Denver", s.Timezone)
 	} else {

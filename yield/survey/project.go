@@ -61,6 +61,9 @@ func Load(cfg *Config, read ReadFunc) (*Project, error) {
 		return nil, err
 	}
 	p.Site = site
+	if err := p.loadSurroundings(read); err != nil {
+		return nil, err
+	}
 	lon, lat, _ := site.Proj.Inverse(geo.Vec3{})
 	p.LatDeg, p.LonDeg = lat, lon
 	elev := 0.0

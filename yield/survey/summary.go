@@ -261,6 +261,16 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 	s.Warnings = append(s.Warnings, p.Site.Warnings...)
 	s.Warnings = append(s.Warnings, p.Notes...)
 	s.Faces = p.Faces()
+	for _, o := range p.Site.Obstacles() {
+		switch {
+		case o.Prism != nil && o.Prism.Source != "":
+			s.Surroundings = append(s.Surroundings, report.Surrounding{ID: o.ID, Kind: o.Kind, Source: o.Prism.Source,
+				HeightM: report.Round(max(o.Prism.HeightM, o.Prism.RidgeM), 2)})
+		case o.Crown != nil && o.Crown.Source != "":
+			s.Surroundings = append(s.Surroundings, report.Surrounding{ID: o.ID, Kind: o.Kind, Source: o.Crown.Source,
+				HeightM: report.Round(o.Crown.HeightM, 2)})
+		}
+	}
 	stringOf := map[string]string{}
 	if len(ls) > 0 {
 		best := ls[0]

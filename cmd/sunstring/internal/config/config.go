@@ -52,7 +52,7 @@ var requiredWhy = map[string]string{
 // allKeys lists every key of the site file: the required ones, those with a default and the
 // optional ones without.
 func allKeys() []string {
-	keys := append([]string{"latitude", "longitude", "elevation_m", "climate.monthly_ghi_kwh_m2", "climate.monthly_temp_c", "layouts.fixed"}, required...)
+	keys := append([]string{"latitude", "longitude", "elevation_m", "climate.monthly_ghi_kwh_m2", "climate.monthly_temp_c", "layouts.fixed", "surroundings"}, required...)
 	for k := range defaults {
 		keys = append(keys, k)
 	}
@@ -61,7 +61,7 @@ func allKeys() []string {
 
 // defaults gives every other key a default, so that environment variables reach it.
 var defaults = map[string]any{
-	"name": "", "map": "", "horizon": "",
+	"name": "", "map": "", "horizon": "", "surroundings_radius_m": 100.0,
 	"climate.file": "", "climate.low_temp_c": -10.0, "climate.high_temp_c": 35.0, "climate.albedo": 0.2,
 	"module.power_w": 0.0, "module.voc_v": 0.0, "module.isc_a": 0.0, "module.vmp_v": 0.0, "module.imp_a": 0.0,
 	"module.half_cut": false,
