@@ -1,6 +1,7 @@
 package geo
 
 import (
+	"cmp"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -128,6 +129,7 @@ func (d *decoder) syntaxProblem(err error) {
 	msg := err.Error()
 	var se *json.SyntaxError
 	var de *dupKeyError
+	var le *limitError
 	switch {
 	case errors.As(err, &se):
 		off = se.Offset
@@ -135,6 +137,9 @@ func (d *decoder) syntaxProblem(err error) {
 	case errors.As(err, &de):
 		off, ptr = de.off, de.ptr
 		msg = fmt.Sprintf("member %q appears twice in one object; keep one", de.key)
+	case errors.As(err, &le):
+		off, ptr = le.off, le.ptr
+		msg = fmt.Sprintf("at %s: %s", cmp.Or(ptr, "/"), le.msg)
 	case errors.Is(err, io.ErrUnexpectedEOF):
 		off = int64(len(d.data))
 		msg = "the JSON ends too early; the file is cut short"
@@ -150,7 +155,7 @@ func (d *decoder) syntaxProblem(err error) {
 func (d *decoder) problem(n *jnode, index int, id, field, msg string) {
 	p := Problem{File: d.opt.File, Index: index, ID: id, Field: field, Msg: msg}
 	if n != nil {
-		p.Pointer = n.ptr
+		p.Pointer = n.pointer()
 		p.Line, p.Col = lineCol(d.data, n.off)
 	}
 	d.probs = append(d.probs, p)

@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -13,15 +14,30 @@ import (
 
 // jnode is one JSON value with where it starts in the input. encoding/json's Unmarshal forgets
 // positions and silently keeps the last of duplicate members; surveyors need to be told where,
-// so the map is read token by token into this tree first.
+// so the map is read token by token into this tree first. A node keeps its parent and its
+// place in it rather than its JSON Pointer, so that the tree costs a few tens of bytes a value
+// and the pointer is spelt only for a message.
 type jnode struct {
-	off  int64  // byte offset of the value's first character
-	ptr  string // RFC 6901 pointer
-	kind byte   // 'o' object, 'a' array, 's' string, 'n' number, 'b' bool, 'z' null
-	keys []string
-	vals []*jnode // object members (in order of keys) or array elements
-	str  string   // string value, or the number's text
-	b    bool
+	parent *jnode
+	keys   []string
+	vals   []*jnode // object members (in order of keys) or array elements
+	str    string   // string value, or the number's text
+	off    int64    // byte offset of the value's first character
+	idx    int32    // place in the parent's vals
+	kind   byte     // 'o' object, 'a' array, 's' string, 'n' number, 'b' bool, 'z' null
+	b      bool
+}
+
+// pointer returns the node's RFC 6901 JSON Pointer ("" for the document).
+func (n *jnode) pointer() string {
+	if n == nil || n.parent == nil {
+		return ""
+	}
+	p := n.parent
+	if p.kind == 'o' {
+		return p.pointer() + "/" + escapePointer(p.keys[n.idx])
+	}
+	return p.pointer() + "/" + strconv.Itoa(int(n.idx))
 }
 
 // member returns the object member named k (names match exactly, unlike orb's decoder).
@@ -54,9 +70,14 @@ func (n *jnode) typeName() string {
 	return "null"
 }
 
-// maxDepth bounds nesting: a map needs five levels, and deep nesting from a broken or hostile
+// maxDepth bounds nesting: a map needs six levels, and deep nesting from a broken or hostile
 // file must not exhaust the stack.
 const maxDepth = 32
+
+// MaxMapValues is the most JSON values (objects, arrays, strings, numbers, booleans, nulls) a
+// map may hold. A site map holds a few thousand; the bound keeps the decoded tree within about
+// 100 MB whatever a file of MaxMapBytes holds.
+const MaxMapValues = 1_000_000
 
 // dupKeyError is a member that appears twice in one object.
 type dupKeyError struct {
@@ -67,16 +88,33 @@ type dupKeyError struct {
 
 func (e *dupKeyError) Error() string { return fmt.Sprintf("member %q appears twice", e.key) }
 
-type treeReader struct {
-	data []byte
-	dec  *json.Decoder
+// limitError is a map beyond what a site map can be: too many values or too deep.
+type limitError struct {
+	off int64
+	ptr string
+	msg string
 }
+
+func (e *limitError) Error() string { return e.msg }
+
+type treeReader struct {
+	data  []byte
+	dec   *json.Decoder
+	count int
+	// seen holds the member names of seenFor, the large object being read.
+	seen    map[string]struct{}
+	seenFor *jnode
+}
+
+// dupScan is the member count up to which duplicates are found by comparing with each
+// earlier name; larger objects use a set, so that the check stays linear.
+const dupScan = 16
 
 // parseTree reads one JSON document into a tree of positioned values.
 func parseTree(data []byte) (*jnode, error) {
 	t := &treeReader{data: data, dec: json.NewDecoder(bytes.NewReader(data))}
 	t.dec.UseNumber()
-	root, err := t.value("", 0)
+	root, err := t.value(nil, 0, 0)
 	if err != nil {
 		return nil, err
 	}
@@ -101,11 +139,17 @@ func (t *treeReader) start() int64 {
 	return off
 }
 
-func (t *treeReader) value(ptr string, depth int) (*jnode, error) {
+func (t *treeReader) value(parent *jnode, idx, depth int) (*jnode, error) {
+	n := &jnode{off: t.start(), parent: parent, idx: int32(idx)}
 	if depth > maxDepth {
-		return nil, &json.SyntaxError{Offset: t.dec.InputOffset()}
+		return nil, &limitError{off: n.off, ptr: n.pointer(),
+			msg: fmt.Sprintf("values nested more than %d deep; a map needs six levels (collection, features, feature, geometry, coordinates, ring, position)", maxDepth)}
 	}
-	n := &jnode{off: t.start(), ptr: ptr}
+	t.count++
+	if t.count > MaxMapValues {
+		return nil, &limitError{off: n.off, ptr: n.pointer(),
+			msg: fmt.Sprintf("more than %d JSON values; a site map holds a few thousand (roof faces, obstructions and their corners)", MaxMapValues)}
+	}
 	tok, err := t.dec.Token()
 	if err != nil {
 		if errors.Is(err, io.EOF) {
@@ -128,22 +172,20 @@ func (t *treeReader) value(ptr string, depth int) (*jnode, error) {
 				if !ok {
 					return nil, &json.SyntaxError{Offset: koff}
 				}
-				for _, seen := range n.keys {
-					if seen == k {
-						return nil, &dupKeyError{off: koff, ptr: ptr + "/" + escapePointer(k), key: k}
-					}
+				if t.duplicate(n, k) {
+					return nil, &dupKeyError{off: koff, ptr: n.pointer() + "/" + escapePointer(k), key: k}
 				}
-				c, err := t.value(ptr+"/"+escapePointer(k), depth+1)
+				n.keys = append(n.keys, k)
+				c, err := t.value(n, len(n.vals), depth+1)
 				if err != nil {
 					return nil, err
 				}
-				n.keys = append(n.keys, k)
 				n.vals = append(n.vals, c)
 			}
 		case '[':
 			n.kind = 'a'
-			for i := 0; t.dec.More(); i++ {
-				c, err := t.value(ptr+"/"+strconv.Itoa(i), depth+1)
+			for t.dec.More() {
+				c, err := t.value(n, len(n.vals), depth+1)
 				if err != nil {
 					return nil, err
 				}
@@ -168,6 +210,30 @@ func (t *treeReader) value(ptr string, depth int) (*jnode, error) {
 		n.kind = 'z'
 	}
 	return n, nil
+}
+
+// duplicate reports whether object n already has a member named k. Small objects compare
+// with each name; from dupScan members on, a set of the names is kept while the object is
+// read (objects nest, so the set is rebuilt when a nested object has used it).
+func (t *treeReader) duplicate(n *jnode, k string) bool {
+	if len(n.keys) < dupScan {
+		return slices.Contains(n.keys, k)
+	}
+	if t.seen == nil {
+		t.seen = map[string]struct{}{}
+	}
+	if len(t.seen) != len(n.keys) || t.seenFor != n {
+		clear(t.seen)
+		for _, key := range n.keys {
+			t.seen[key] = struct{}{}
+		}
+		t.seenFor = n
+	}
+	if _, ok := t.seen[k]; ok {
+		return true
+	}
+	t.seen[k] = struct{}{}
+	return false
 }
 
 func escapePointer(k string) string {
