@@ -1,6 +1,7 @@
 package yield
 
 import (
+	"bytes"
 	"context"
 	"fmt"
 	"math/rand/v2"
@@ -11,6 +12,8 @@ import (
 
 	"sunstring/geo"
 	"sunstring/shading/sun"
+	"sunstring/yield/electric"
+	"sunstring/yield/internal/roofgen"
 	"sunstring/yield/weather"
 )
 
@@ -66,6 +69,56 @@ func BenchmarkPrepare(b *testing.B) {
 					b.Fatal(err)
 				}
 			}
+		})
+	}
+}
+
+// largeRoof decodes and fills the invented hall roof of about n modules (yield/internal/roofgen)
+// as the site file it writes would, and returns the survey's input with a synthetic year.
+func largeRoof(b *testing.B, n int) Input {
+	b.Helper()
+	site, err := geo.Decode(bytes.NewReader(roofgen.Map(roofgen.Options{Modules: n})), geo.DecodeOptions{File: "roof.geojson",
+		OriginLonDeg: ptrTo(roofgen.LonDeg), OriginLatDeg: ptrTo(roofgen.LatDeg)})
+	if err != nil {
+		b.Fatal(err)
+	}
+	mods, _, err := geo.Fill(site, geo.FillOptions{LengthM: 1.72, WidthM: 1.134, Grid: geo.CellGrid{Cols: 6, Rows: 20},
+		SetbackM: 0.4, GapM: 0.02, ObstacleClearanceM: 0.3})
+	if err != nil {
+		b.Fatal(err)
+	}
+	zone, _ := time.LoadLocation("Europe/Vienna")
+	ghi := [12]float64{36, 57, 98, 132, 160, 170, 176, 152, 107, 70, 38, 29}
+	temp := [12]float64{-1, 1, 5.2, 10.1, 14.8, 18.2, 20.1, 19.6, 15.2, 9.9, 4.3, 0.2}
+	ws, err := weather.FromMonthly(weather.Site{LatDeg: roofgen.LatDeg, LonDeg: roofgen.LonDeg, Zone: zone}, ghi, temp)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ds := electric.Datasheet{PowerW: 410, VocV: 37.4, IscA: 13.9, VmpV: 31.3, ImpA: 13.1, TempCoeffVocPct: -0.27,
+		TempCoeffIscPct: 0.048, TempCoeffPmaxPct: -0.34, CellsSeries: 120, HalfCut: true, BypassDiodes: 3}
+	return Input{Site: site, Modules: mods, Weather: ws, Observer: sun.Observer{LatDeg: roofgen.LatDeg, LonDeg: roofgen.LonDeg},
+		Zone: zone, System: System{Module: ds, Inverter: testInverter, Albedo: 0.2}}
+}
+
+func ptrTo(x float64) *float64 { return &x }
+
+// BenchmarkPrepareLargeRoof is Prepare (sun, shade, irradiance, the shaded and the unshaded
+// year of module curves) on the invented hall roof, from 120 to 1,000 modules; curves/step is
+// the number of distinct module curves a step, the rest shared.
+func BenchmarkPrepareLargeRoof(b *testing.B) {
+	for _, n := range []int{120, 250, 430, 700, 1000} {
+		b.Run(fmt.Sprintf("modules=%d", n), func(b *testing.B) {
+			in := largeRoof(b, n)
+			b.ReportAllocs()
+			var m *Model
+			for b.Loop() {
+				var err error
+				if m, err = Prepare(context.Background(), in); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(len(in.Modules)), "modules")
+			b.ReportMetric(float64(m.Year.Curves())/float64(m.Year.Steps()), "curves/step")
 		})
 	}
 }
