@@ -113,6 +113,17 @@ type Year struct {
 // GOMAXPROCS goroutines while step fills the next batch; the result does not
 // depend on the number of goroutines.
 func NewYear(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (*Year, error) {
+	return newYear(m, nModules, steps, step, false)
+}
+
+// NewYearExact is NewYear with every curve built from the exact inputs, shared only between
+// modules whose inputs are equal to the bit: the reference the rounded sharing of NewYear is
+// held to (see IrradianceBits), at several times the cost on a large roof.
+func NewYearExact(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (*Year, error) {
+	return newYear(m, nModules, steps, step, true)
+}
+
+func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), exact bool) (*Year, error) {
 	if m == nil || nModules < 0 || steps < 0 || step == nil {
 		return nil, fmt.Errorf("electric: NewYear needs a module, a step function and non-negative counts")
 	}
@@ -130,6 +141,9 @@ func NewYear(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (
 	}
 	workers := runtime.GOMAXPROCS(0)
 	ws := make([]yearWorker, workers)
+	for w := range ws {
+		ws[w].exact = exact
+	}
 	var batches [2]yearBatch
 	var pending *yearBatch
 	cur := 0
@@ -305,6 +319,7 @@ type yearWorker struct {
 	seen   map[uint64]int32
 	repr   []int // local curve → module that defined it
 	unSeen map[[2]float64]float32
+	exact  bool // no rounding (NewYearExact)
 }
 
 // Curves are shared between modules that see the same light: NewYear rounds each cell's
@@ -363,8 +378,13 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	o := &b.out[j]
 	top := 0.0
 	for k := range n {
-		quantCells(qirr(k), irr(k))
-		w.qt[k] = quantTemp(temp[k])
+		if w.exact {
+			copy(qirr(k), irr(k))
+			w.qt[k] = temp[k]
+		} else {
+			quantCells(qirr(k), irr(k))
+			w.qt[k] = quantTemp(temp[k])
+		}
 		top = math.Max(top, m.topCurrent(qirr(k), w.qt[k]))
 	}
 	i0, hI := gridFor(top)
@@ -403,7 +423,10 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	// temperature.
 	clear(w.unSeen)
 	for k := range n {
-		key := [2]float64{quantIrr(un[k]), w.qt[k]}
+		key := [2]float64{un[k], w.qt[k]}
+		if !w.exact {
+			key[0] = quantIrr(key[0])
+		}
 		p, ok := w.unSeen[key]
 		if !ok {
 			p = float32(m.uniformMaxPower(key[0], key[1], &w.sc))
