@@ -184,7 +184,18 @@ func (t *treeReader) value(parent *jnode, idx, depth int) (*jnode, error) {
 			}
 		case '[':
 			n.kind = 'a'
+			features := depth == 1 && parent.kind == 'o' && parent.keys[idx] == "features"
 			for t.dec.More() {
+				if features && len(n.vals) == maxFeatures {
+					// Far beyond any site: count the rest without keeping them, so that the
+					// message can say how many there are.
+					count, err := t.skipRest()
+					if err != nil {
+						return nil, err
+					}
+					return nil, &limitError{off: n.off, ptr: n.pointer(),
+						msg: fmt.Sprintf("%d features; a site map has at most %d", maxFeatures+count, maxFeatures)}
+				}
 				c, err := t.value(n, len(n.vals), depth+1)
 				if err != nil {
 					return nil, err
@@ -210,6 +221,20 @@ func (t *treeReader) value(parent *jnode, idx, depth int) (*jnode, error) {
 		n.kind = 'z'
 	}
 	return n, nil
+}
+
+// skipRest reads the remaining values of the array being read, up to its closing bracket
+// (left unread), and returns how many there were.
+func (t *treeReader) skipRest() (int, error) {
+	count := 0
+	for t.dec.More() {
+		var skip json.RawMessage
+		if err := t.dec.Decode(&skip); err != nil {
+			return 0, err
+		}
+		count++
+	}
+	return count, nil
 }
 
 // duplicate reports whether object n already has a member named k. Small objects compare
