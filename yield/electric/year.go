@@ -336,24 +336,25 @@ const (
 	TempStepC      = 0.1
 )
 
-// quantIrr rounds g ≥ 0 to IrradianceBits significant bits (round half up on the mantissa).
-func quantIrr(g float64) float64 {
+// roundIrr rounds g ≥ 0 to IrradianceBits significant bits (round half up on the mantissa).
+func roundIrr(g float64) float64 {
 	const drop = 52 - IrradianceBits
 	b := math.Float64bits(g)
 	b = (b + 1<<(drop-1)) &^ (1<<drop - 1)
 	return math.Float64frombits(b)
 }
 
-// quantTemp rounds a temperature to TempStepC.
-func quantTemp(t float64) float64 { return math.Round(t/TempStepC) * TempStepC }
+// roundTemp rounds a temperature to TempStepC.
+func roundTemp(t float64) float64 { return math.Round(t/TempStepC) * TempStepC }
 
-// quantCells writes the rounded cell irradiances of irr into q. Cells of a module mostly share
-// a few values (lit, or shaded by one object), so the last rounding is reused.
-func quantCells(q, irr []float64) {
+// roundCells writes the rounded cell irradiances of irr into q. The cells of one module
+// usually take only two or three distinct values (lit, or shaded by one object), so the
+// previous rounding is reused while the value repeats.
+func roundCells(q, irr []float64) {
 	last, lastQ := math.NaN(), 0.0
 	for i, g := range irr {
 		if g != last {
-			last, lastQ = g, quantIrr(g)
+			last, lastQ = g, roundIrr(g)
 		}
 		q[i] = lastQ
 	}
@@ -382,8 +383,8 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 			copy(qirr(k), irr(k))
 			w.qt[k] = temp[k]
 		} else {
-			quantCells(qirr(k), irr(k))
-			w.qt[k] = quantTemp(temp[k])
+			roundCells(qirr(k), irr(k))
+			w.qt[k] = roundTemp(temp[k])
 		}
 		top = math.Max(top, m.topCurrent(qirr(k), w.qt[k]))
 	}
@@ -425,7 +426,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	for k := range n {
 		key := [2]float64{un[k], w.qt[k]}
 		if !w.exact {
-			key[0] = quantIrr(key[0])
+			key[0] = roundIrr(key[0])
 		}
 		p, ok := w.unSeen[key]
 		if !ok {
