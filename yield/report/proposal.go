@@ -107,8 +107,8 @@ func (pr *Proposal) Charts() []Chart {
 		cs = append(cs, Chart{"losses", LossChart(s.AnnualACkWh, s.Losses), wide, h})
 	}
 	if len(s.Layouts) > 0 {
-		h := vg.Length(math.Min(12, 4+1.1*float64(len(s.Layouts)))) * vg.Centimeter
-		cs = append(cs, Chart{"layouts", LayoutChart(s.Layouts), wide, h})
+		h := vg.Length(math.Min(16, 9+1.0*float64(len(s.Layouts)))) * vg.Centimeter
+		cs = append(cs, Chart{"layouts", LayoutAdviceChart(s, pr.Plan), wide, h})
 	}
 	return cs
 }
