@@ -9,30 +9,53 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
-// TestPerezCoefficients holds the coefficient table against a copy written out here from
-// the higher-precision table distributed by the authors of Perez et al. (1990), Solar
-// Energy 44(5):271–289 (the paper prints three decimals). Circulating copies carry typos
-// in bin 4 F23 (positive sign) and bin 7 F22 (−1.27234): the rows for those bins are
-// also checked against the paper's three-decimal values to catch them.
+// TestPerezCoefficients checks the coefficient table through the model's output, not
+// against a copy of itself. Each of the eight clearness bins is entered at two zenith angles
+// (40° and 70°, different brightness Δ), and F1 and F2 are read back from the circumsolar and
+// horizon components (F1 = Circumsolar·b/(DHI·a), F2 = Horizon/(DHI·sin β)), together with the
+// sky diffuse on a plane tilted 30° with the sun 25° off its normal. The wanted values are hand
+// calculations from the equations of Perez et al. (1990), Solar Energy 44(5):271–289 (ε, Δ,
+// F1 = max(0, F11 + F12Δ + F13Z), F2 = F21 + F22Δ + F23Z) with the authors' seven-decimal
+// coefficients, I0 1367 W/m² and the Kasten & Young (1989) air mass: regression values, to
+// 1e-6 in F and 1e-3 W/m² in the sky diffuse. A wrong digit in the table moves at least one
+// of them. The paper's own three-decimal values guard the two known typos below.
 func TestPerezCoefficients(t *testing.T) {
-	want := [8][6]float64{
-		{-0.0083117, 0.5877285, -0.0620636, -0.0596012, 0.0721249, -0.0220216},
-		{0.1299457, 0.6825954, -0.1513752, -0.0189325, 0.0659650, -0.0288748},
-		{0.3296958, 0.4868735, -0.2210958, 0.0554140, -0.0639588, -0.0260542},
-		{0.5682053, 0.1874525, -0.2951290, 0.1088631, -0.1519229, -0.0139754},
-		{0.8730280, -0.3920403, -0.3616149, 0.2255647, -0.4620442, 0.0012448},
-		{1.1326077, -1.2367284, -0.4118494, 0.2877813, -0.8230357, 0.0558651},
-		{1.0601591, -1.5999137, -0.3589221, 0.2642124, -1.1272340, 0.1310694},
-		{0.6777470, -0.3272588, -0.2504286, 0.1561313, -1.3765031, 0.2506212},
+	tests := []struct {
+		name                  string
+		zenith, dhi, dni      float64
+		wantF1, wantF2, wantD float64
+	}{
+		{"bin 1, Z 40", 40, 300, 12.2, 0.116581, -0.054331, 280.5008}, // ε 1.030, Δ 0.2862
+		{"bin 2, Z 40", 40, 280, 56.9, 0.206616, -0.021469, 272.7061}, // ε 1.150, Δ 0.2671
+		{"bin 3, Z 40", 40, 250, 121.9, 0.291471, 0.021969, 254.2227}, // ε 1.360, Δ 0.2385
+		{"bin 4, Z 40", 40, 200, 195.0, 0.397935, 0.070117, 213.5180}, // ε 1.720, Δ 0.1908
+		{"bin 5, Z 40", 40, 150, 278.3, 0.564468, 0.160310, 173.1501}, // ε 2.370, Δ 0.1431
+		{"bin 6, Z 40", 40, 120, 422.5, 0.703490, 0.232554, 147.0269}, // ε 3.600, Δ 0.1145
+		{"bin 7, Z 40", 40, 100, 582.3, 0.656940, 0.248169, 122.1390}, // ε 5.300, Δ 0.0954
+		{"bin 8, Z 40", 40, 80, 758.4, 0.477936, 0.226035, 93.2445},   // ε 8.000, Δ 0.0763
+		{"bin 1, Z 70", 70, 150, 13.0, 0.103090, -0.063530, 161.7358}, // ε 1.030, Δ 0.3186
+		{"bin 2, Z 70", 70, 140, 60.9, 0.147957, -0.034597, 163.7630}, // ε 1.150, Δ 0.2973
+		{"bin 3, Z 70", 70, 120, 125.2, 0.183655, 0.007283, 150.2356}, // ε 1.360, Δ 0.2548
+		{"bin 4, Z 70", 70, 100, 208.7, 0.247447, 0.059525, 138.7606}, // ε 1.720, Δ 0.2124
+		{"bin 5, Z 70", 70, 70, 278.0, 0.372951, 0.158397, 115.6759},  // ε 2.370, Δ 0.1487
+		{"bin 6, Z 70", 70, 50, 376.8, 0.498115, 0.268638, 96.1261},   // ε 3.600, Δ 0.1062
+		{"bin 7, Z 70", 70, 40, 498.5, 0.485741, 0.328586, 77.2501},   // ε 5.300, Δ 0.0849
+		{"bin 8, Z 70", 70, 30, 608.7, 0.350940, 0.374623, 51.6851},   // ε 8.001, Δ 0.0637
 	}
-	names := [6]string{"F11", "F12", "F13", "F21", "F22", "F23"}
-	for bin := range want {
-		for k := range want[bin] {
-			got := perezCoeffs[bin][k]
-			if !scalar.EqualWithinAbs(got, want[bin][k], 5e-8) { // table has 7 decimals
-				t.Errorf("bin %d %s = %v, want %v", bin+1, names[k], got, want[bin][k])
+	const tilt, incid = 30.0, 25.0
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			s := Sky{DHI: tc.dhi, DNI: tc.dni, GHI: tc.dhi + tc.dni*math.Cos(tc.zenith*deg), ZenithDeg: tc.zenith, DNIExtra: 1367}
+			c := Transpose(Perez, s, incid, tilt)
+			f1 := c.Circumsolar * math.Cos(tc.zenith*deg) / (tc.dhi * math.Cos(incid*deg))
+			f2 := c.Horizon / (tc.dhi * math.Sin(tilt*deg))
+			if !scalar.EqualWithinAbs(f1, tc.wantF1, 1e-6) || !scalar.EqualWithinAbs(f2, tc.wantF2, 1e-6) {
+				t.Errorf("F1 %.6f F2 %.6f, want %.6f %.6f (hand calculation)", f1, f2, tc.wantF1, tc.wantF2)
 			}
-		}
+			if !scalar.EqualWithinAbs(c.SkyDiffuse(), tc.wantD, 1e-3) {
+				t.Errorf("sky diffuse %.4f, want %.4f W/m² (hand calculation)", c.SkyDiffuse(), tc.wantD)
+			}
+		})
 	}
 	typos := []struct {
 		name      string
