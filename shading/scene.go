@@ -22,18 +22,15 @@ func (e *SceneError) Unwrap() error { return e.Err }
 // BadInput reports whether the error comes from the user's drawing (always).
 func (e *SceneError) BadInput() bool { return true }
 
-// DefaultGrid is the cell grid used when Options.Grid is zero: six columns of ten cells, the
-// usual arrangement of a 60-cell module (common practice).
-var DefaultGrid = geo.CellGrid{Cols: 6, Rows: 10}
-
 // rayOffsetM lifts every ray origin off the module along its normal so that the module's own
 // roof face, which the module lies on, never registers as a hit through rounding.
 const rayOffsetM = 0.01
 
-// Options tunes a Scene. The zero value uses DefaultGrid, a flat far horizon, one worker per
+// Options tunes a Scene. The zero value uses geo.DefaultGrid (the one default cell grid of
+// the project, also the module fill's), a flat far horizon, one worker per
 // available CPU and the fast path.
 type Options struct {
-	Grid       geo.CellGrid // cells per module; zero means DefaultGrid
+	Grid       geo.CellGrid // cells per module; zero means geo.DefaultGrid
 	Horizon    *Horizon     // far horizon; nil means flat at elevation 0
 	Workers    int          // parallel modules; 0 means GOMAXPROCS
 	BruteForce bool         // one exact ray per cell per step against every object (the reference)
@@ -98,7 +95,7 @@ func NewScene(site *geo.Site, mods []geo.Module, opt Options) (*Scene, error) {
 	sc := &Scene{mods: append([]geo.Module(nil), mods...), grid: opt.Grid, horizon: opt.Horizon,
 		workers: opt.Workers, brute: opt.BruteForce}
 	if sc.grid == (geo.CellGrid{}) {
-		sc.grid = DefaultGrid
+		sc.grid = geo.DefaultGrid
 	}
 	if sc.grid.Cols <= 0 || sc.grid.Rows <= 0 || sc.grid.Len() > 1<<16 {
 		return nil, &SceneError{fmt.Errorf("%w: cell grid %d×%d", ErrBadScene, sc.grid.Cols, sc.grid.Rows)}

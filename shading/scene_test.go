@@ -45,7 +45,7 @@ func TestNewSceneRejects(t *testing.T) {
 }
 
 // The zero values work: no site, no modules, no steps give an empty result; zero Options
-// use DefaultGrid.
+// use geo.DefaultGrid, the fill's default too.
 func TestZeroValues(t *testing.T) {
 	sc, err := NewScene(nil, nil, Options{})
 	if err != nil {
@@ -55,7 +55,7 @@ func TestZeroValues(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !scalar.EqualWithinAbs(float64(r.Steps()+sc.Modules()), 0, 0) || sc.Grid() != DefaultGrid { // documented defaults
+	if !scalar.EqualWithinAbs(float64(r.Steps()+sc.Modules()), 0, 0) || sc.Grid() != geo.DefaultGrid { // documented defaults
 		t.Errorf("steps %d modules %d grid %v", r.Steps(), sc.Modules(), sc.Grid())
 	}
 	sc, err = NewScene(nil, []geo.Module{flatModule("M", geo.Vec3{}, 1, 1)}, Options{})

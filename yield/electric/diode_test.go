@@ -3,6 +3,7 @@ package electric
 import (
 	"errors"
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -206,5 +207,26 @@ func TestDatasheetValidate(t *testing.T) {
 	err := mod(func(d *Datasheet) { d.VmpV = 41; d.PowerW = 41 * 12.9 }).Validate()
 	if err == nil || err.Error() != "module.vmp_v: 41 must be below voc_v 37.1" {
 		t.Errorf("message %q", err)
+	}
+}
+
+// TestDatasheetProblems: every problem is reported, once, under its own key, and a check
+// relating two fields stays quiet when one of them is already wrong.
+func TestDatasheetProblems(t *testing.T) {
+	d := testDatasheet
+	d.IscA = -1              // wrong on its own: imp/isc and fill factor checks stay quiet
+	d.TempCoeffPmaxPct = 0.3 // positive
+	d.CellsSeries = 62       // not a multiple of 6
+	d.BypassDiodes = 0
+	var got []string
+	for _, p := range d.Problems() {
+		got = append(got, p.Field)
+	}
+	want := []string{"module.isc_a", "module.temp_coeff_pmax_pct", "module.cells_series", "module.bypass_diodes"}
+	if strings.Join(got, " ") != strings.Join(want, " ") {
+		t.Errorf("fields %v, want %v", got, want)
+	}
+	if len(testDatasheet.Problems()) != 0 {
+		t.Errorf("valid datasheet: %v", testDatasheet.Problems())
 	}
 }

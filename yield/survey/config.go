@@ -9,6 +9,7 @@ import (
 	"sunstring/geo"
 	"time"
 
+	"sunstring/yield/electric"
 	"sunstring/yield/irradiance"
 )
 
@@ -254,27 +255,22 @@ func (s *Config) Validate() Errors {
 	}
 	rng("climate.albedo", c.Albedo, 0, 1, "")
 	m := s.Module
-	positive("module.power_w", m.PowerW, " W")
-	positive("module.voc_v", m.VocV, " V")
-	positive("module.isc_a", m.IscA, " A")
-	positive("module.vmp_v", m.VmpV, " V")
-	positive("module.imp_a", m.ImpA, " A")
-	if m.VmpV >= m.VocV && m.VocV > 0 {
-		bad("module.vmp_v", "%g must be below voc_v (%g)", m.VmpV, m.VocV)
+	// The datasheet's values are checked once, by electric.Datasheet.Problems, whose errors
+	// carry the site file's keys; here only what the file's typing adds: whole numbers.
+	wholeOK := func(key string, x float64) bool {
+		if !finite(key, x) {
+			return false
+		}
+		if x != math.Trunc(x) {
+			bad(key, "%g must be a whole number", x)
+			return false
+		}
+		return true
 	}
-	if m.ImpA >= m.IscA && m.IscA > 0 {
-		bad("module.imp_a", "%g must be below isc_a (%g)", m.ImpA, m.IscA)
-	}
-	if m.VmpV > 0 && m.ImpA > 0 && m.PowerW > 0 && math.Abs(m.VmpV*m.ImpA-m.PowerW) > 0.03*m.PowerW {
-		bad("module.power_w", "%g W disagrees with vmp_v × imp_a = %.1f W by more than 3 %%", m.PowerW, m.VmpV*m.ImpA)
-	}
-	rng("module.temp_coeff_voc_pct", m.TempCoeffVocPct, -1, 0, " %/K")
-	rng("module.temp_coeff_isc_pct", m.TempCoeffIscPct, -0.1, 0.5, " %/K")
-	rng("module.temp_coeff_pmax_pct", m.TempCoeffPmaxPct, -1, 0, " %/K")
-	whole("module.cells_series", m.CellsSeries, 12, 216)
-	whole("module.bypass_diodes", m.BypassDiodes, 1, 6)
-	if m.HalfCut && int(m.CellsSeries)%2 != 0 {
-		bad("module.cells_series", "%g half-cells cannot form two equal halves", m.CellsSeries)
+	if wholeOK("module.cells_series", m.CellsSeries) && wholeOK("module.bypass_diodes", m.BypassDiodes) {
+		for _, e := range s.Datasheet().Problems() {
+			bad(e.Field, "%s", e.Msg)
+		}
 	}
 	rng("module.length_m", m.LengthM, 0.3, 3, " m")
 	rng("module.width_m", m.WidthM, 0.2, 2, " m")
@@ -406,4 +402,15 @@ func (s *Config) Path(p string) string {
 		return p
 	}
 	return filepath.Join(s.Dir, p)
+}
+
+// Datasheet returns the module's datasheet values as the electrical model takes them.
+// Counts given as fractions are truncated; Validate reports them.
+func (s *Config) Datasheet() electric.Datasheet {
+	m := s.Module
+	return electric.Datasheet{
+		PowerW: m.PowerW, VocV: m.VocV, IscA: m.IscA, VmpV: m.VmpV, ImpA: m.ImpA,
+		TempCoeffVocPct: m.TempCoeffVocPct, TempCoeffIscPct: m.TempCoeffIscPct, TempCoeffPmaxPct: m.TempCoeffPmaxPct,
+		CellsSeries: int(m.CellsSeries), BypassDiodes: int(m.BypassDiodes), HalfCut: m.HalfCut,
+	}
 }

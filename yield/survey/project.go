@@ -81,12 +81,7 @@ func Load(cfg *Config, read ReadFunc) (*Project, error) {
 			return nil, err
 		}
 	}
-	m := cfg.Module
-	p.Datasheet = electric.Datasheet{
-		PowerW: m.PowerW, VocV: m.VocV, IscA: m.IscA, VmpV: m.VmpV, ImpA: m.ImpA,
-		TempCoeffVocPct: m.TempCoeffVocPct, TempCoeffIscPct: m.TempCoeffIscPct, TempCoeffPmaxPct: m.TempCoeffPmaxPct,
-		CellsSeries: int(m.CellsSeries), BypassDiodes: int(m.BypassDiodes), HalfCut: m.HalfCut,
-	}
+	p.Datasheet = cfg.Datasheet()
 	if err := p.Datasheet.Validate(); err != nil {
 		return nil, badInput{fmt.Errorf("%s: module: %w", path, err)}
 	}
@@ -109,7 +104,7 @@ func Load(cfg *Config, read ReadFunc) (*Project, error) {
 		return nil, badInput{fmt.Errorf("%s: fill.orientation: %w", path, err)}
 	}
 	mods, notes, err := geo.Fill(site, geo.FillOptions{
-		LengthM: m.LengthM, WidthM: m.WidthM, Grid: geo.CellGrid{Cols: cols, Rows: rows},
+		LengthM: cfg.Module.LengthM, WidthM: cfg.Module.WidthM, Grid: geo.CellGrid{Cols: cols, Rows: rows},
 		Orientation: orient, SetbackM: cfg.Fill.SetbackM, GapM: cfg.Fill.GapM,
 		ObstacleClearanceM: cfg.Fill.ClearanceM, MinModules: int(cfg.Fill.MinModules),
 	})
