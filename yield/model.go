@@ -88,6 +88,15 @@ type Model struct {
 	// StepPOA is each sun-up step's plane-of-array irradiance, W/m², the mean over the
 	// modules with shade and before incidence-angle and soiling losses.
 	StepPOA []float64
+	// StepSunElevDeg and StepSunAzDeg are the sun's elevation and azimuth (clockwise from
+	// north), degrees, at each sun-up step as the model took it: the interval's midpoint, or
+	// for sunrise and sunset intervals the midpoint of their sunlit part.
+	StepSunElevDeg, StepSunAzDeg []float64
+	// ModulePOAUnshaded, ModulePOA and ModuleTempC are, for step s and module k at index
+	// s·len(Modules)+k, the plane-of-array irradiance without and with shade (W/m², before
+	// incidence-angle and soiling losses) and the cell temperature (°C), for an hour-by-hour
+	// audit.
+	ModulePOAUnshaded, ModulePOA, ModuleTempC []float32
 	// NightHours is the number of records with the sun down; MonthNightHours splits them by
 	// local month (0-based), for spreading the inverter's night consumption.
 	NightHours      int

@@ -195,6 +195,15 @@ func (p *prep) shadedYear() error {
 	p.beamSum, p.beamLit = make([]float64, n), make([]float64, n)
 	m.StepPOA = make([]float64, steps)
 	p.unIrr, p.unTemp = make([]float32, steps*n), make([]float32, steps*n)
+	m.StepSunElevDeg = make([]float64, steps)
+	m.StepSunAzDeg = make([]float64, steps)
+	for s, st := range p.ups {
+		m.StepSunElevDeg[s] = 90 - st.pos.Zenith.Degrees()
+		m.StepSunAzDeg[s] = st.pos.Azimuth.Degrees()
+	}
+	m.ModulePOAUnshaded = make([]float32, steps*n)
+	m.ModulePOA = make([]float32, steps*n)
+	m.ModuleTempC = make([]float32, steps*n)
 	cache := map[[2]float64]planeComp{}
 	year, err := p.newYear(func(s int, dst *electric.StepInput) {
 		if in.Progress != nil && s%128 == 0 {
@@ -245,6 +254,9 @@ func (p *prep) shadedYear() error {
 			p.unTemp[s*n+i] = float32(in.System.Mounting.CellTemp(unsh, r.AirTempC, r.WindMS))
 
 			m.StepPOA[s] += shaded / float64(n)
+			m.ModulePOAUnshaded[s*n+i] = float32(unsh)
+			m.ModulePOA[s*n+i] = float32(shaded)
+			m.ModuleTempC[s*n+i] = float32(dst.TempC[i])
 			dst.Hours = hours
 			ms := &m.Stats[i]
 			ms.POAUnshadedKWhM2 += unsh * hours / 1000

@@ -83,6 +83,8 @@ type YearResult struct {
 	// inverter (AC stage only). They are the reference for shade loss.
 	UnshadedDCWh, UnshadedACWh float64
 	StepACWh                   []float64 // per step
+	// StepDCWh is the DC energy at the operating points per step, before DCKeep.
+	StepDCWh []float64
 }
 
 // Year holds, for every time step, the I-V curve of every module, computed
@@ -544,7 +546,7 @@ func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCa
 	}
 	opt.ModuleLevelEff = eff
 	parts := y.parts(l, inv, opt, c)
-	res := YearResult{StepACWh: make([]float64, y.steps)}
+	res := YearResult{StepACWh: make([]float64, y.steps), StepDCWh: make([]float64, y.steps)}
 	for _, pt := range parts {
 		res.GlobalDCWh += pt.globalWh
 		res.WindowLossWh += pt.windowWh
@@ -573,6 +575,7 @@ func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCa
 			dcV = 0
 		}
 		res.DCWh += dc * h
+		res.StepDCWh[s] = dc * h
 		dc *= keep
 		unDC *= keep
 		ac, clip := inv.ACPowerAt(dc, dcV)

@@ -96,7 +96,7 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	}
 	files[report.TechnicalFile] = pdf
 	if opt.Hourly && len(ls) > 0 {
-		b, err := report.HourlyCSV(hourlyRows(m, ls[0]))
+		b, err := report.HourlyCSV(hourlyTable(m, ls[0]))
 		if err != nil {
 			return nil, fmt.Errorf("hourly.csv: %w", err)
 		}
@@ -205,38 +205,95 @@ func (p *Project) equipment() report.Equipment {
 	}
 }
 
-// hourlyRows takes, for each weather record, the weather itself, the mean sunlit share of the
-// modules (Model.Shade) and the best layout's AC energy per sun-up step
-// (electric.YearResult.StepACWh, mapped to records by Model.StepRecord) as mean power.
-func hourlyRows(m *yield.Model, best RankedLayout) []report.HourlyRow {
+// hourlyTable takes, for each weather record, the weather itself, the sun as the model took
+// it, the mean sunlit share of the modules (Model.Shade), each face's unshaded and each
+// string's shaded plane-of-array irradiance, the layout's mean cell temperature and the best
+// layout's DC and AC energy per sun-up step (electric.YearResult.StepDCWh and StepACWh,
+// mapped to records by Model.StepRecord) as mean power.
+func hourlyTable(m *yield.Model, best RankedLayout) report.HourlyTable {
 	hours := 1.0
 	if m.In.Weather != nil && m.In.Weather.Interval > 0 {
 		hours = m.In.Weather.Interval.Hours()
 	}
-	rows := make([]report.HourlyRow, len(m.Records))
-	for i, r := range m.Records {
-		rows[i] = report.HourlyRow{EndUTC: r.End, GHI: r.GHI, DNI: r.DNI, DHI: r.DHI, AirTempC: r.AirTempC, BeamLitPct: math.NaN()}
+	n := len(m.In.Modules)
+	var t report.HourlyTable
+	// Faces in the order their modules come; each face's modules share one plane.
+	faceOf := make([]int, n)
+	faceIdx := map[string]int{}
+	for k, mod := range m.In.Modules {
+		i, ok := faceIdx[mod.Face]
+		if !ok {
+			i = len(t.Faces)
+			faceIdx[mod.Face] = i
+			t.Faces = append(t.Faces, mod.Face)
+		}
+		faceOf[k] = i
 	}
-	steps := best.Result.Year.StepACWh
+	var strs [][]int
+	var used []int
+	for a, in := range best.Result.Layout.Inputs {
+		for b, str := range in {
+			t.Strings = append(t.Strings, fmt.Sprintf("%d.%d", a+1, b+1))
+			strs = append(strs, str)
+			used = append(used, str...)
+		}
+	}
+	nan := math.NaN()
+	t.Rows = make([]report.HourlyRow, len(m.Records))
+	for i, r := range m.Records {
+		t.Rows[i] = report.HourlyRow{EndUTC: r.End, GHI: r.GHI, DNI: r.DNI, DHI: r.DHI, AirTempC: r.AirTempC,
+			SunElevDeg: nan, SunAzDeg: nan, BeamLitPct: nan, CellTempC: nan}
+	}
+	yr := best.Result.Year
+	faceCount := make([]int, len(t.Faces))
+	for _, f := range faceOf {
+		faceCount[f]++
+	}
 	for s, rec := range m.StepRecord {
-		if rec < 0 || rec >= len(rows) {
+		if rec < 0 || rec >= len(t.Rows) {
 			continue
 		}
-		if s < len(steps) {
-			rows[rec].ACW = steps[s] / hours
+		row := &t.Rows[rec]
+		if s < len(yr.StepACWh) {
+			row.ACW = yr.StepACWh[s] / hours
+		}
+		if s < len(yr.StepDCWh) {
+			row.DCW = yr.StepDCWh[s] / hours
 		}
 		if s < len(m.StepPOA) {
-			rows[rec].POA = m.StepPOA[s]
+			row.POA = m.StepPOA[s]
 		}
-		if m.Shade != nil && len(m.In.Modules) > 0 {
+		if s < len(m.StepSunElevDeg) {
+			row.SunElevDeg, row.SunAzDeg = m.StepSunElevDeg[s], m.StepSunAzDeg[s]
+		}
+		if m.Shade != nil && n > 0 {
 			lit := 0.0
 			for k := range m.In.Modules {
 				lit += m.Shade.LitFraction(k, s)
 			}
-			rows[rec].BeamLitPct = 100 * lit / float64(len(m.In.Modules))
+			row.BeamLitPct = 100 * lit / float64(n)
+		}
+		if (s+1)*n > len(m.ModulePOA) {
+			continue
+		}
+		row.FacePOA = make([]float64, len(t.Faces))
+		for k := range n {
+			row.FacePOA[faceOf[k]] += float64(m.ModulePOAUnshaded[s*n+k]) / float64(faceCount[faceOf[k]])
+		}
+		row.StringPOA = make([]float64, len(strs))
+		for j, str := range strs {
+			for _, k := range str {
+				row.StringPOA[j] += float64(m.ModulePOA[s*n+k]) / float64(len(str))
+			}
+		}
+		if len(used) > 0 {
+			row.CellTempC = 0
+			for _, k := range used {
+				row.CellTempC += float64(m.ModuleTempC[s*n+k]) / float64(len(used))
+			}
 		}
 	}
-	return rows
+	return t
 }
 
 // ringOf copies a ring of local east-north metres into plain pairs.
