@@ -189,16 +189,20 @@ func (c Cover) lines() (who, when string) {
 	if c.Address != "" {
 		a = append(a, c.Address)
 	}
+	by := ""
 	if c.PreparedBy != "" {
-		b = append(b, "prepared by "+c.PreparedBy)
+		by = "prepared by " + c.PreparedBy
 	}
 	if c.Date != "" {
-		b = append(b, "on "+c.Date)
+		by = strings.TrimSpace(by + " on " + c.Date)
+	}
+	if by != "" {
+		b = append(b, by)
 	}
 	if c.ValidUntil != "" {
 		b = append(b, "valid until "+c.ValidUntil)
 	}
-	return strings.Join(a, ", "), strings.Join(b, " ")
+	return strings.Join(a, ", "), strings.Join(b, ", ")
 }
 
 // date is the documents' metadata date: the proposal's Date, else the cover's date, else

@@ -14,8 +14,8 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 	}
 	b := p.bounds
 	checks = append(checks, report.Check{Severity: "info", Subject: "strings", Unit: "modules", Value: float64(b.MaxSeries), Limit: float64(b.MinSeries),
-		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %.0f °C cell); at most %d string(s) per input",
-			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), b.MaxParallel)})
+		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %.0f °C cell); at most %s per input",
+			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), report.Count(b.MaxParallel, "string", "strings"))})
 	// The roof-order layout's strings, which a survey always reports.
 	seq, _, err := p.roofOrder()
 	if err != nil {
@@ -29,8 +29,8 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 	}
 	if connected < len(p.Modules) {
 		checks = append(checks, report.Check{Severity: "warning", Subject: "inverter", Unit: "modules", Value: float64(len(p.Modules)), Limit: float64(connected),
-			Message: fmt.Sprintf("the inverter takes at most %d of the %d placed modules (%d input(s) × %d string(s) × %d modules); the rest stay unconnected unless the inverter changes",
-				connected, len(p.Modules), p.Inverter.Inputs, b.MaxParallel, b.MaxSeries)})
+			Message: fmt.Sprintf("the inverter takes at most %d of the %d placed modules (%s × %s × %s); the rest stay unconnected unless the inverter changes",
+				connected, len(p.Modules), report.Count(p.Inverter.Inputs, "input", "inputs"), report.Count(b.MaxParallel, "string", "strings"), report.Count(b.MaxSeries, "module", "modules"))})
 	}
 	checks = append(checks, p.electricalChecks(roofOrderName, lengths(seq))...)
 	for i, fl := range cfg.Layouts.Fixed {

@@ -36,6 +36,7 @@ type Config struct {
 	Layouts             Layouts  `mapstructure:"layouts"`
 	Losses              Losses   `mapstructure:"losses"`
 	Model               Model    `mapstructure:"model"`
+	Proposal            Proposal `mapstructure:"proposal"`
 
 	// Dir is the folder of the site file; relative paths resolve against it.
 	Dir string `mapstructure:"-"`
@@ -134,6 +135,16 @@ type Losses struct {
 type Model struct {
 	Sky string `mapstructure:"sky"` // perez | hay-davies | isotropic
 	IAM string `mapstructure:"iam"` // martin-ruiz | ashrae
+}
+
+// Proposal is whom the documents are for and who made them, printed on the first page and
+// in the footer; every key is optional. Date, the survey's date, also dates the documents.
+type Proposal struct {
+	Customer   string `mapstructure:"customer"`
+	Address    string `mapstructure:"address"`
+	PreparedBy string `mapstructure:"prepared_by"`
+	Date       string `mapstructure:"date"`        // YYYY-MM-DD
+	ValidUntil string `mapstructure:"valid_until"` // YYYY-MM-DD, not before Date
 }
 
 // Error is a problem with the site file; the command line turns it into exit status 2.
@@ -341,6 +352,25 @@ func (s *Config) Validate() Errors {
 	rng("losses.wiring_pct", l.WiringPct, 0, 20, " %")
 	rng("losses.mismatch_pct", l.MismatchPct, 0, 20, " %")
 	rng("losses.availability_pct", l.AvailabilityPct, 0, 50, " %")
+	var date time.Time
+	for _, d := range []struct {
+		key, v string
+		t      *time.Time
+	}{{"proposal.date", s.Proposal.Date, &date}, {"proposal.valid_until", s.Proposal.ValidUntil, nil}} {
+		if d.v == "" {
+			continue
+		}
+		t, err := time.Parse(time.DateOnly, d.v)
+		if err != nil {
+			bad(d.key, "%q is not a date written YYYY-MM-DD, such as 2026-05-04", d.v)
+			continue
+		}
+		if d.t != nil {
+			*d.t = t
+		} else if !date.IsZero() && t.Before(date) {
+			bad(d.key, "%s is before proposal.date (%s)", d.v, s.Proposal.Date)
+		}
+	}
 	switch strings.ToLower(s.Model.Sky) {
 	case "perez", "hay-davies", "isotropic":
 	default:

@@ -9,6 +9,7 @@ import (
 	"sunstring/yield"
 	"sunstring/yield/electric"
 	"sunstring/yield/layout"
+	"sunstring/yield/report"
 )
 
 // layouts evaluates the roof-order layout, the user's fixed layouts and (when layouts.search
@@ -235,8 +236,8 @@ func (p *Project) prepareLayouts() error {
 		minMods = min(n, capacity) - n/4
 	}
 	if n > 0 && len(layout.Shapes(n, minMods, p.Inverter.Inputs, b)) == 0 {
-		return badInput{fmt.Errorf("%s: no string layout takes the %d modules: strings of %d to %d modules (from inverter.max_dc_voltage_v, inverter.mppt_min_v and inverter.mppt_max_v at climate.low_temp_c and climate.high_temp_c), at most %d in parallel (inverter.max_input_current_a), %d input(s) (inverter.inputs); change the inverter, or allow layouts.leave_out",
-			cfg.File, n, b.MinSeries, b.MaxSeries, b.MaxParallel, p.Inverter.Inputs)}
+		return badInput{fmt.Errorf("%s: no string layout takes the %d modules: strings of %d to %d modules (from inverter.max_dc_voltage_v, inverter.mppt_min_v and inverter.mppt_max_v at climate.low_temp_c and climate.high_temp_c), at most %d in parallel (inverter.max_input_current_a), %s (inverter.inputs); change the inverter, or allow layouts.leave_out",
+			cfg.File, n, b.MinSeries, b.MaxSeries, b.MaxParallel, report.Count(p.Inverter.Inputs, "input", "inputs"))}
 	}
 	index := make(map[string]int, len(p.Modules))
 	for i, mod := range p.Modules {

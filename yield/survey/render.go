@@ -11,6 +11,7 @@ import (
 	"sunstring/yield"
 	"sunstring/yield/report"
 	"sunstring/yield/weather"
+	"time"
 
 	"github.com/paulmach/orb"
 )
@@ -20,6 +21,22 @@ type RenderOptions struct {
 	SVG    bool   // also the charts as SVG
 	Paper  string // proposal paper: "a4" (default) or "letter"
 	Hourly bool   // also hourly.csv
+	// Date dates the documents when the site file's proposal.date does not: the front end
+	// passes SOURCE_DATE_EPOCH's day or the run's. Zero leaves them dated 1 January 2000.
+	Date time.Time
+}
+
+// documentDate is the survey's date: the site file's proposal.date (validated), else the
+// given fallback's day in UTC.
+func documentDate(cfg *Config, fallback time.Time) time.Time {
+	if t, err := time.Parse(time.DateOnly, cfg.Proposal.Date); err == nil {
+		return t
+	}
+	if fallback.IsZero() {
+		return time.Time{}
+	}
+	y, m, d := fallback.UTC().Date()
+	return time.Date(y, m, d, 0, 0, 0, 0, time.UTC)
 }
 
 // Render makes every file of the report, by name (summary.json, modules.geojson,
@@ -69,7 +86,13 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	pr := &report.Proposal{Summary: rs, Plan: p.plan(s, ls), Paper: opt.Paper, Equipment: p.equipment()}
+	pc := p.Cfg.Proposal
+	pr := &report.Proposal{Summary: rs, Plan: p.plan(s, ls), Paper: opt.Paper, Equipment: p.equipment(),
+		Cover: report.Cover{Customer: pc.Customer, Address: pc.Address, PreparedBy: pc.PreparedBy, Date: pc.Date, ValidUntil: pc.ValidUntil},
+		Date:  documentDate(p.Cfg, opt.Date)}
+	if pr.Cover.Date == "" && !pr.Date.IsZero() {
+		pr.Cover.Date = pr.Date.Format(time.DateOnly)
+	}
 	if pr.SunPath, err = p.sunPath(m, s); err != nil {
 		return nil, err
 	}

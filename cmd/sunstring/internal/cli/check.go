@@ -3,6 +3,7 @@ package cli
 import (
 	"encoding/json"
 	"fmt"
+	"strings"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
@@ -17,8 +18,10 @@ func newCheckCmd() *cobra.Command {
 		Use:   "check SITE.yaml",
 		Short: "Validate the site file and the map, and print a site summary",
 		Long: `Validate the site file and the map it names, place the modules, and print each
-roof face (plan and sloped area, pitch, aspect, modules, kWp), the total, and every
-warning. Exit status 2 when something is wrong, with one message per problem.`,
+roof face (plan and sloped area, pitch, aspect, modules, kWp), the total, the placed
+modules' ids by face and row (<face>.<row>.<column>, row 1 at the eave; the ids the sky
+command, the fixed layouts and the report use), and every warning. Exit status 2 when
+something is wrong, with one message per problem.`,
 		Args: args(cobra.ExactArgs(1)),
 	}
 	bind := bindSiteFlags(c.Flags())
@@ -48,8 +51,13 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 				Warnings []string       `json:"warnings"`
 				Checks   []report.Check `json:"checks"`
 				Cautions []string       `json:"cautions"`
+				// ModuleIDs are the placed modules, in the fill's order.
+				ModuleIDs []string `json:"module_ids"`
 			}{Name: p.Cfg.Name, Modules: len(p.Modules), KWp: float64(len(p.Modules)) * kw, Warnings: warnings,
-				Checks: elec, Cautions: report.Cautions}
+				Checks: elec, Cautions: report.Cautions, ModuleIDs: []string{}}
+			for _, m := range p.Modules {
+				out.ModuleIDs = append(out.ModuleIDs, m.ID)
+			}
 			for _, f := range p.Faces() {
 				// Rounded as summary.json rounds them.
 				f.PlanAreaM2, f.SlopedAreaM2 = report.Round(f.PlanAreaM2, 2), report.Round(f.SlopedAreaM2, 2)
@@ -75,6 +83,12 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 		}
 		fmt.Fprintf(tw, "total\t\t\t\t\t%d\t%.2f\t\n", len(p.Modules), float64(len(p.Modules))*kw)
 		tw.Flush()
+		if len(p.Modules) > 0 {
+			fmt.Fprintln(w, "\nmodule ids (<face>.<row>.<column>; row 1 at the eave, column 1 at the left seen from below):")
+			for _, line := range moduleIDLines(p.Modules) {
+				fmt.Fprintln(w, "  "+line)
+			}
+		}
 		for _, s := range warnings {
 			fmt.Fprintln(w, "warning:", s)
 		}
@@ -89,4 +103,23 @@ warning. Exit status 2 when something is wrong, with one message per problem.`,
 		return bad
 	}
 	return c
+}
+
+// moduleIDLines lists the modules' ids, one line per face and row, in the fill's order.
+func moduleIDLines(ms []geo.Module) []string {
+	var lines []string
+	for i := 0; i < len(ms); {
+		j := i
+		var ids []string
+		for ; j < len(ms) && ms[j].Face == ms[i].Face && ms[j].Row == ms[i].Row; j++ {
+			ids = append(ids, ms[j].ID)
+		}
+		where := fmt.Sprintf("%s row %d", ms[i].Face, ms[i].Row)
+		if ms[i].Row == 0 {
+			where = ms[i].Face + ", drawn by hand"
+		}
+		lines = append(lines, where+": "+strings.Join(ids, " "))
+		i = j
+	}
+	return lines
 }

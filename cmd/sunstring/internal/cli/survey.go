@@ -4,6 +4,8 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"os"
+	"strconv"
 	"strings"
 	"time"
 
@@ -81,7 +83,11 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		}
 		prog.Done()
 		sum := res.Summary
-		files, err := res.Render(survey.RenderOptions{SVG: svg, Paper: paper, Hourly: hourly})
+		date, err := runDate()
+		if err != nil {
+			return err
+		}
+		files, err := res.Render(survey.RenderOptions{SVG: svg, Paper: paper, Hourly: hourly, Date: date})
 		if err != nil {
 			return err
 		}
@@ -116,4 +122,19 @@ func checkPaper(paper string) error {
 		return nil
 	}
 	return usageError{fmt.Errorf("--paper %q: use a4 or letter", paper)}
+}
+
+// runDate dates the documents when the site file gives no proposal.date: the day of
+// SOURCE_DATE_EPOCH (seconds since 1970, the reproducible-builds convention) when it is
+// set, else today's.
+func runDate() (time.Time, error) {
+	v, ok := os.LookupEnv("SOURCE_DATE_EPOCH")
+	if !ok || v == "" {
+		return time.Now(), nil
+	}
+	sec, err := strconv.ParseInt(v, 10, 64)
+	if err != nil || sec < 0 {
+		return time.Time{}, usageError{fmt.Errorf("SOURCE_DATE_EPOCH %q: give whole seconds since 1970-01-01 UTC", v)}
+	}
+	return time.Unix(sec, 0).UTC(), nil
 }

@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"reflect"
 	"strings"
+	"time"
 
 	"github.com/go-viper/mapstructure/v2"
 	"github.com/spf13/pflag"
@@ -75,6 +76,8 @@ var defaults = map[string]any{
 	"layouts.search":   true, "layouts.keep": 5.0, "layouts.cable_weight_kwh_per_m": 0.0,
 	"losses.soiling_pct": 2.0, "losses.wiring_pct": 1.0, "losses.mismatch_pct": 1.0, "losses.availability_pct": 0.5,
 	"model.sky": "perez", "model.iam": "martin-ruiz",
+	"proposal.customer": "", "proposal.address": "", "proposal.prepared_by": "", "proposal.date": "",
+	"proposal.valid_until": "",
 }
 
 // blame marks each error whose key took its value from the environment or a flag.
@@ -148,7 +151,7 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*survey.Co
 	err := v.Unmarshal(&s, func(c *mapstructure.DecoderConfig) {
 		c.ErrorUnused = true
 		c.WeaklyTypedInput = true
-		c.DecodeHook = mapstructure.ComposeDecodeHookFunc(c.DecodeHook, rejectLossyFloat)
+		c.DecodeHook = mapstructure.ComposeDecodeHookFunc(c.DecodeHook, rejectLossyFloat, dateAsText)
 	})
 	if err != nil {
 		return nil, blame(decodeErrors(path, err), from)
@@ -171,6 +174,19 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*survey.Co
 		return nil, blame(errs, from)
 	}
 	return &s, nil
+}
+
+// dateAsText turns a date YAML wrote without quotes (decoded as a time) back into the text
+// the user wrote, YYYY-MM-DD, for a text key such as proposal.date.
+func dateAsText(from, to reflect.Type, data any) (any, error) {
+	t, ok := data.(time.Time)
+	if !ok || to.Kind() != reflect.String {
+		return data, nil
+	}
+	if t.Hour() == 0 && t.Minute() == 0 && t.Second() == 0 && t.Nanosecond() == 0 {
+		return t.Format(time.DateOnly), nil
+	}
+	return t.Format(time.RFC3339), nil
 }
 
 // EnvName is the environment variable that sets a key: SUNSTRING_ and the key path

@@ -232,3 +232,37 @@ func TestDefaultsAgreeWithLibrary(t *testing.T) {
 		}
 	}
 }
+
+// TestProposalSection: the optional proposal keys decode as given (a YAML date unquoted or
+// quoted), and the dates are checked.
+func TestProposalSection(t *testing.T) {
+	tests := []struct {
+		name    string
+		section string
+		want    survey.Proposal
+		errKey  string // the key a bad value is reported under; empty: valid
+	}{
+		{"all keys, date unquoted", "proposal: {customer: Ms A. Example, address: '1 Example Lane', prepared_by: Sample Surveys, date: 2026-05-04, valid_until: 2026-07-31}",
+			survey.Proposal{Customer: "Ms A. Example", Address: "1 Example Lane", PreparedBy: "Sample Surveys", Date: "2026-05-04", ValidUntil: "2026-07-31"}, ""},
+		{"none", "", survey.Proposal{}, ""},
+		{"valid until before the date", "proposal: {date: '2026-05-04', valid_until: '2026-05-03'}", survey.Proposal{}, "proposal.valid_until"},
+		{"no such day", "proposal: {date: '2026-13-01'}", survey.Proposal{}, "proposal.date"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			s, err := Load(write(t, minimal+tc.section+"\n"), nil, nil)
+			if tc.errKey != "" {
+				if err == nil || !strings.Contains(err.Error(), tc.errKey) {
+					t.Errorf("error %v, want one naming %s", err, tc.errKey)
+				}
+				return
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			if s.Proposal != tc.want {
+				t.Errorf("proposal %+v, want %+v", s.Proposal, tc.want)
+			}
+		})
+	}
+}
