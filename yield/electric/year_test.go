@@ -478,3 +478,37 @@ func TestDCKeepBeforeClipping(t *testing.T) {
 		t.Error("DCKeep 1.5 accepted")
 	}
 }
+
+// TestModuleLevelDefaultEff tests the documented default directly: a zero ModuleLevelEff means
+// converters of 98.5 % (common practice for module-level DC converters), applied to the
+// modules' own maximum power, so the DC energy scales with it exactly; and StepDCWh adds up to
+// DCWh.
+func TestModuleLevelDefaultEff(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	y := shadeYear(t, m, 120, 40, 0.7, 3)
+	l := layout6x20()
+	eval := func(eff float64) YearResult {
+		r, err := y.Evaluate(l, bigInverter, EvalOptions{ModuleLevel: true, ModuleLevelEff: eff})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return r
+	}
+	def, ref, one := eval(0), eval(0.985), eval(1)
+	if def.DCWh != ref.DCWh || def.ACWh != ref.ACWh {
+		t.Errorf("zero efficiency gives %.3f Wh DC, 0.985 gives %.3f", def.DCWh, ref.DCWh)
+	}
+	if !scalar.EqualWithinRel(def.DCWh, 0.985*one.DCWh, 1e-9) {
+		t.Errorf("default DC %.3f Wh, want 0.985 × %.3f", def.DCWh, one.DCWh)
+	}
+	var sum float64
+	for _, e := range def.StepDCWh {
+		sum += e
+	}
+	if !scalar.EqualWithinRel(sum, def.DCWh, 1e-9) {
+		t.Errorf("StepDCWh adds to %.3f, DCWh %.3f", sum, def.DCWh)
+	}
+}
