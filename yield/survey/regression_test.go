@@ -8,6 +8,7 @@ import (
 	"os"
 	"path/filepath"
 	"testing"
+	"time"
 
 	"github.com/go-viper/mapstructure/v2"
 	"go.yaml.in/yaml/v3"
@@ -50,6 +51,7 @@ func loadExample(t *testing.T) *survey.Project {
 	if err := yaml.Unmarshal(raw, &doc); err != nil {
 		t.Fatal(err)
 	}
+	plainDates(doc)
 	cfg := survey.Defaults()
 	// efficiency_pct is a number or a list: the default's type must not steer the decoding.
 	if inv, ok := doc["inverter"].(map[string]any); ok && inv["efficiency_pct"] != nil {
@@ -71,6 +73,19 @@ func loadExample(t *testing.T) *survey.Project {
 		t.Fatal(err)
 	}
 	return p
+}
+
+// plainDates turns the dates YAML decodes as time.Time back into the text the file has, as
+// the site file's string fields expect.
+func plainDates(m map[string]any) {
+	for k, v := range m {
+		switch x := v.(type) {
+		case time.Time:
+			m[k] = x.Format(time.DateOnly)
+		case map[string]any:
+			plainDates(x)
+		}
+	}
 }
 
 // TestExampleRegression runs the example survey and holds its annual energy, specific
