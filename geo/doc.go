@@ -23,12 +23,13 @@
 //	                 then be given too and must agree with the corners)
 //	building Polygon id, roof_shape (gabled, hipped, skillion, flat), pitch_deg, eave_height_m,
 //	                 ridge_azimuth_deg: the roof faces and the walls (Building)
-//	block  Polygon   id, height_m (top, or the eaves of a gable roof), base_m (default 0),
-//	                 ridge_m and ridge_azimuth_deg (both or neither: a gable roof)
+//	block  Polygon   id, height_m (top, or the eaves of a pitched roof), base_m (default 0),
+//	                 ridge_m and ridge_azimuth_deg (both or neither: a pitched roof),
+//	                 roof_shape ("gabled" default, "hipped"), source
 //	tree   Point     id, height_m (top of crown), crown_radius_m, crown_base_m,
 //	                 crown_shape ("ellipsoid" default, "sphere", "cone"), base_m (default 0),
 //	                 leaf_off_transmittance [0, 1] (omit for evergreen), leaf_off_months
-//	                 [1..12] (default by hemisphere: DefaultLeafOffMonths)
+//	                 [1..12] (default by hemisphere: DefaultLeafOffMonths), source
 //	avoid  Polygon   id
 //	panel  Polygon   id (a hand-drawn module; its face then gets no automatic fill)
 //	module           ignored: written by ExportGeoJSON, so an export reads back
@@ -68,6 +69,12 @@
 // validation, its export and the obstacles it casts shade with. Site.Obstacles lists every
 // shade-casting body as a prism or a crown, whatever kind drew it; the shading package and the
 // plan work from that list alone.
+//
+// # Surroundings
+//
+// Site.AddSurroundings adds obstacles imported from beside the map (the osm subpackage reads
+// OpenStreetMap extracts) that lie within a radius of the roof faces, with their source, and
+// leaves out a block that holds the middle of a roof face: the site's own house, mapped too.
 //
 // geo knows nothing of the sun or of electricity.
 package geo

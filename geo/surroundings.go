@@ -16,9 +16,13 @@ const DefaultSurroundingsRadiusM = 100.0
 // Surroundings are obstacles read from a file beside the map (an OpenStreetMap extract or a
 // GeoJSON of blocks and trees), in the site's local metres, with the notes made on reading.
 type Surroundings struct {
-	Blocks   []Block
-	Trees    []Tree
+	Blocks []Block
+	Trees  []Tree
+	// Warnings are about the file as a whole; Assumed lists, by obstacle id, what the reader
+	// had to assume (heights the file does not give). Only the notes of the obstacles kept
+	// reach the site's warnings.
 	Warnings []string
+	Assumed  map[string][]string
 }
 
 // SurroundingsError is an imported obstacle that cannot join the site.
@@ -86,6 +90,7 @@ func (s *Site) AddSurroundings(imp *Surroundings, source string, radiusM float64
 		}
 		b.Source, b.Index = source, len(s.Blocks)
 		s.Blocks = append(s.Blocks, b)
+		s.assumed(imp, source, b.ID)
 	}
 	for _, t := range imp.Trees {
 		ring := orb.Ring{t.Trunk, t.Trunk}
@@ -99,8 +104,15 @@ func (s *Site) AddSurroundings(imp *Surroundings, source string, radiusM float64
 		}
 		t.Source, t.Index = source, len(s.Trees)
 		s.Trees = append(s.Trees, t)
+		s.assumed(imp, source, t.ID)
 	}
 	return nil
+}
+
+func (s *Site) assumed(imp *Surroundings, source, id string) {
+	for _, a := range imp.Assumed[id] {
+		s.Warnings = append(s.Warnings, fmt.Sprintf("%s: %s: %s", source, id, a))
+	}
 }
 
 // holdsFace reports whether the footprint holds a point inside a roof face, and which face.

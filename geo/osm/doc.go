@@ -25,8 +25,8 @@
 // deciduous tree's leaf-off light is for the surveyor to draw by hand).
 //
 // Heights are metres above the site's ground: the surroundings are taken as level with it.
-// Every height the extract does not give is listed as a warning naming the element, so that the
-// surveyor knows what to measure on site. Ids are the elements' own: "way/123", "node/45",
+// Every height the extract does not give (a height from storeys included) is listed as a warning
+// naming the element, so that the surveyor knows what to measure on site. Ids are the elements' own: "way/123", "node/45",
 // "relation/6" (with "#2", "#3" for a relation's further outer rings).
 //
 // The reading is strict: a file that is not OSM XML, an element whose attributes do not parse,

@@ -210,8 +210,13 @@ func (rd *reader) lineOf(id string) int {
 	return rd.line[id]
 }
 
+// warn notes what had to be assumed about an element; it reaches the surveyor only when the
+// element is used.
 func (rd *reader) warn(id, msg string) {
-	rd.out.Warnings = append(rd.out.Warnings, fmt.Sprintf("%s: %s: %s", rd.opt.File, id, msg))
+	if rd.out.Assumed == nil {
+		rd.out.Assumed = map[string][]string{}
+	}
+	rd.out.Assumed[id] = append(rd.out.Assumed[id], msg)
 }
 
 func (rd *reader) node(n *posm.Node, k int) {
@@ -376,6 +381,7 @@ func (rd *reader) building(id string, ts posm.Tags, nds posm.WayNodes, line int)
 		// building:levels counts the storeys from the ground, under the roof (Simple 3D
 		// Buildings), also when min_height or building:min_level lift the bottom.
 		height = levels*storey + roofH
+		rd.warn(id, fmt.Sprintf("no height: %g storeys of %g m and the roof, %.1f m in all (measure it on site)", levels, storey, height))
 	default:
 		height = base + DefaultLevels*storey + roofH
 		rd.warn(id, fmt.Sprintf("no height or building:levels: assumed %d storeys of %g m and the roof, %.1f m in all (measure it on site)", DefaultLevels, storey, height))

@@ -83,17 +83,26 @@ func TestReadStreet(t *testing.T) {
 		t.Errorf("hipped: way/600 %v, way/200 %v", hip.Hipped, n.Hipped)
 	}
 	// Every assumed height is named.
-	w := strings.Join(s.Warnings, "\n")
+	var notes []string
+	for id, as := range s.Assumed {
+		for _, a := range as {
+			notes = append(notes, id+": "+a)
+		}
+	}
+	w := strings.Join(notes, "\n")
 	for _, want := range []string{
-		"street.osm: way/400: no height or building:levels: assumed 2 storeys of 3 m",
-		"street.osm: node/301: a tree without height: assumed 10 m",
-		"street.osm: node/301: a tree without diameter_crown",
+		"way/400: no height or building:levels: assumed 2 storeys of 3 m",
+		"node/301: a tree without height: assumed 10 m",
+		"node/301: a tree without diameter_crown",
 	} {
 		if !strings.Contains(w, want) {
 			t.Errorf("warnings lack %q:\n%s", want, w)
 		}
 	}
-	for _, id := range []string{"way/200", "way/600", "node/300"} {
+	if !strings.Contains(w, "way/600: no height: 2 storeys of 3 m and the roof, 8.5 m in all") {
+		t.Errorf("warnings lack the height from levels of way/600:\n%s", w)
+	}
+	for _, id := range []string{"way/200", "node/300"} {
 		if strings.Contains(w, id+":") {
 			t.Errorf("a warning names %s, whose heights are all tagged:\n%s", id, w)
 		}
@@ -128,8 +137,13 @@ func TestAddStreet(t *testing.T) {
 	if strings.Join(got, " ") != want {
 		t.Errorf("imported blocks %v, want %s (way/100 is the house itself, way/700 is 300 m away)", got, want)
 	}
-	if w := strings.Join(site.Warnings, "\n"); !strings.Contains(w, `street.osm: way/100 is the site's own building (it holds roof face "S"); left out`) {
+	w := strings.Join(site.Warnings, "\n")
+	if !strings.Contains(w, `street.osm: way/100 is the site's own building (it holds roof face "S"); left out`) {
 		t.Errorf("no note on the own building:\n%s", w)
+	}
+	// The assumptions reach the site for what is kept, not for what is left out.
+	if !strings.Contains(w, "street.osm: way/400: no height or building:levels") || strings.Contains(w, "way/700:") {
+		t.Errorf("assumptions of kept and left-out buildings:\n%s", w)
 	}
 	// Reading the same extract twice keeps one of each.
 	before := len(site.Blocks) + len(site.Trees)

@@ -151,6 +151,8 @@ func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 	// Every obstacle is drawn by its shape, whatever kind (or file) it came from.
 	for _, ob := range p.Site.Obstacles() {
 		switch {
+		case ob.Kind == "building":
+			// Its roof faces show it; its walls would cover them.
 		case ob.Prism != nil:
 			pl.Blocks = append(pl.Blocks, report.Shape{ID: ob.ID, Ring: ringOf(ob.Prism.Footprint)})
 		case ob.Crown != nil:

@@ -64,7 +64,7 @@ x.rect(200, 15, -20, 25, -10, {"building": "house", "height": "9", "roof:height"
 x.node(8, -12, {"natural": "tree", "height": "12", "diameter_crown": "6"}, id=300)
 x.rect(400, -15, -12, -10, -8, {"building": "garage"})
 x.rect(600, -25, 5, -15, 12, {"building": "house", "building:levels": "2", "roof:shape": "hipped", "roof:height": "2.5 m"})
-x.rect(700, 300, 0, 310, 10, {"building": "yes", "height": "30"})
+x.rect(700, 300, 0, 310, 10, {"building": "yes"})
 x.node(-30, 20, {"natural": "tree"}, id=301)
 r1, r2 = x.node(-40, -30), x.node(40, -30)
 x.ways.append((800, [r1, r2], {"highway": "residential", "name": "Invented Lane"}))
