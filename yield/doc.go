@@ -1,7 +1,7 @@
 // Package yield turns a site model, its placed modules and a weather year into energy: it
 // finds the sun for every time step, asks the shading engine what each cell sees, transposes
 // the sky's light onto every module (Perez et al. 1990 by default), applies incidence-angle
-// losses (Martin & Ruiz 2001) and cell temperature (Faiman 2008), builds the year of module
+// losses (Martin & Ruiz 2001) and cell temperature by mounting (King, Boyson & Kratochvil 2004), builds the year of module
 // I-V curves once (package electric) and evaluates string layouts on it: annual and monthly
 // AC energy with a loss breakdown from plane-of-array irradiation to AC.
 //
