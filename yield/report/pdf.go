@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"math"
 	"strings"
 	"time"
 
@@ -93,6 +94,10 @@ func (d *pdfDoc) small(s string) {
 }
 
 func (d *pdfDoc) sub(s string) {
+	// A heading never ends a page: it goes with what follows.
+	if d.GetY() > d.h-margin-30 {
+		d.AddPage()
+	}
 	d.Ln(2)
 	d.SetFont(fontName, "B", 11)
 	d.colour(Ink)
@@ -125,22 +130,45 @@ func (d *pdfDoc) table(head []string, rows [][]string, widths []float64, align s
 	d.SetDrawColor(rgb(Muted))
 	d.SetLineWidth(0.2)
 	for _, r := range rows {
-		if d.GetY() > d.h-margin-12 {
-			d.AddPage()
-		}
 		band := len(r) > 0 && strings.HasPrefix(r[0], tableHead)
 		if band {
 			d.SetFont(fontName, "B", smallPt+0.5)
 		} else {
 			d.SetFont(fontName, "", smallPt+0.5)
 		}
+		// A cell too long for its column wraps; the row is as tall as its tallest cell.
+		cells := make([][]string, len(r))
+		n := 1
 		for i, c := range r {
 			if i == 0 {
 				c = strings.TrimPrefix(c, tableHead)
 			}
-			d.cell(widths[i]*cw, 5.5, c, "B", 0, string(align[i]), band)
+			cells[i] = d.SplitText(Printable(c), widths[i]*cw-2)
+			if len(cells[i]) == 0 {
+				cells[i] = []string{""}
+			}
+			n = max(n, len(cells[i]))
 		}
-		d.Ln(-1)
+		const lineH = 4.2
+		rowH := math.Max(5.5, float64(n)*lineH+1.3)
+		if d.GetY()+rowH > d.h-margin-8 {
+			d.AddPage()
+		}
+		x0, y0 := d.GetX(), d.GetY()
+		x := x0
+		for i, ls := range cells {
+			w := widths[i] * cw
+			if band {
+				d.Rect(x, y0, w, rowH, "F")
+			}
+			for k, l := range ls {
+				d.SetXY(x, y0+0.65+float64(k)*lineH)
+				d.CellFormat(w, lineH, l, "", 0, string(align[i]), false, 0, "")
+			}
+			x += w
+		}
+		d.Line(x0, y0+rowH, x, y0+rowH)
+		d.SetXY(x0, y0+rowH)
 	}
 	d.Ln(2)
 }
@@ -257,12 +285,26 @@ func (pr *Proposal) newDoc(title string) (*pdfDoc, error) {
 		second = when + " · " + second
 	}
 	f.SetFooterFunc(func() {
-		f.SetY(-margin + 2)
+		f.SetY(-margin + 1)
 		f.SetFont(fontName, "", 7.5)
 		f.SetTextColor(0x6b, 0x73, 0x78)
-		d.cell(0, 3.5, first, "", 2, "L", false)
+		page := fmt.Sprintf("%s · page %d of {nb}", title, f.PageNo())
+		// The page label goes beside the line it fits beside, else under both.
+		room := d.contentW() - f.GetStringWidth(page+"   ")
+		d.cell(0, 3.5, first, "", 0, "L", false)
+		if f.GetStringWidth(Printable(first)) <= room {
+			d.cell(0, 3.5, page, "", 1, "R", false)
+			page = ""
+		} else {
+			f.Ln(3.5)
+		}
 		d.cell(0, 3.5, second, "", 0, "L", false)
-		d.cell(0, 3.5, fmt.Sprintf("%s · page %d of {nb}", title, f.PageNo()), "", 0, "R", false)
+		if page != "" && f.GetStringWidth(Printable(second)) <= room {
+			d.cell(0, 3.5, page, "", 0, "R", false)
+		} else if page != "" {
+			f.Ln(3.5)
+			d.cell(0, 3.5, page, "", 0, "R", false)
+		}
 	})
 	return d, nil
 }

@@ -309,16 +309,22 @@ func (pr *Proposal) wiring(d *pdfDoc, charts map[string][]byte) {
 		d.para(fmt.Sprintf("Of the %d wirings compared this one gives the most energy, %s kWh a year more than the next.", len(s.Layouts),
 			Thousands(s.Layouts[1].BehindBestKWh, 0)))
 	}
+	// Module-level converters in one sentence: on every module, and on the few that need
+	// them when the survey evaluated that too.
+	var conv []string
 	for _, a := range s.Alternatives {
-		if len(a.ConvertersOn) > 0 || strings.Contains(a.Name, "converter") {
-			on := "each module"
-			if n := len(a.ConvertersOn); n > 0 && n < s.Modules {
-				on = fmt.Sprintf("the %s that shade holds back most", Count(n, "module", "modules"))
-			}
-			d.para(fmt.Sprintf("A small electronic converter behind %s would change the year's energy by %s kWh (%s); the installer's technical sheet compares this and the other options.",
-				on, signed(a.DifferenceKWh), Printable(a.Name)))
-			break
+		if len(a.ConvertersOn) == 0 && !strings.Contains(a.Name, "converter") {
+			continue
 		}
+		on := "each module"
+		if n := len(a.ConvertersOn); n > 0 && n < s.Modules {
+			on = fmt.Sprintf("only the %s that shade holds back most", Count(n, "module", "modules"))
+		}
+		conv = append(conv, fmt.Sprintf("behind %s, %s kWh a year", on, signed(a.DifferenceKWh)))
+	}
+	if len(conv) > 0 {
+		d.para("Small electronic converters on the modules would change the year's energy: " + strings.Join(conv, "; ") +
+			". The installer's technical sheet compares these and the other options.")
 	}
 }
 

@@ -23,9 +23,10 @@ func (pr *Proposal) TechnicalPDF() ([]byte, error) {
 	pr.checks(d)
 	if charts["plan"] != nil {
 		d.heading("Roof plan and strings", "Module ids are <face>.<row>.<column>: row 1 at the eave, column 1 at the left seen from below the eave; the drawings write row.column on each module and the face's id beside it. The first drawing colours each module by the sunlight it gets in a year, with the share lost to shade; the second shows the chosen strings in wiring order.")
-		d.image("plan", charts["plan"], 0.92)
+		// Both drawings on one page.
+		d.image("plan", charts["plan"], 0.74)
 		if charts["strings"] != nil {
-			d.image("strings", charts["strings"], 0.92)
+			d.image("strings", charts["strings"], 0.74)
 		}
 	}
 	pr.layouts(d, charts)
@@ -133,9 +134,6 @@ func (pr *Proposal) layouts(d *pdfDoc, charts map[string][]byte) {
 		if a.Chosen != "" {
 			t = fmt.Sprintf("Wire %q. %s", a.Chosen, a.Reason)
 		}
-		if len(a.Equivalent) > 0 {
-			t += " Equivalent: " + strings.Join(a.Equivalent, ", ") + "."
-		}
 		d.para(t)
 	}
 	for i, l := range s.Layouts {
@@ -190,8 +188,9 @@ func (pr *Proposal) alternatives(d *pdfDoc) {
 	d.table([]string{"Alternative", "AC energy (kWh)", "Against the estimate (kWh)"}, rows, []float64{0.5, 0.25, 0.25}, "LRR")
 	for _, a := range s.Alternatives {
 		t := a.Name + ": " + sentence(a.Note)
-		if len(a.ConvertersOn) > 0 {
-			t += fmt.Sprintf(" Converters on %s: %s.", Count(len(a.ConvertersOn), "module", "modules"), strings.Join(a.ConvertersOn, ", "))
+		// Which modules get one, unless it is all of them or the note already names them.
+		if n := len(a.ConvertersOn); n > 0 && n < s.Modules && !strings.Contains(a.Note, a.ConvertersOn[0]) {
+			t += fmt.Sprintf(" Converters on %s: %s.", Count(n, "module", "modules"), strings.Join(a.ConvertersOn, ", "))
 		}
 		d.small(t)
 	}
