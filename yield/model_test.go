@@ -12,6 +12,7 @@ import (
 	"sunstring/geo"
 	"sunstring/shading/sun"
 	"sunstring/yield/electric"
+	"sunstring/yield/irradiance"
 	"sunstring/yield/weather"
 )
 
@@ -346,6 +347,35 @@ func TestLowSunYear(t *testing.T) {
 	for i, wh := range m.Year.ModuleDCWh() {
 		if !(wh > 0) {
 			t.Errorf("module %d: DC %g Wh, want positive", i, wh)
+		}
+	}
+}
+
+// TestExtremeLegalWeather: records at the edges of what the weather readers accept (GHI, DNI
+// and DHI 1500 W/m² every hour, air at 70 °C or −70 °C, no wind), on the hottest mounting,
+// must give a year, not a failure: no internal limit of the curves is reachable from legal
+// input.
+func TestExtremeLegalWeather(t *testing.T) {
+	site, mods := testSite(t, 6)
+	mods = mods[len(mods)-8:]
+	for _, air := range []float64{70, -70} {
+		recs := make([]weather.Record, 8760)
+		start := time.Date(weather.TypicalYear, 1, 1, 1, 0, 0, 0, time.UTC)
+		for i := range recs {
+			recs[i] = weather.Record{End: start.Add(time.Duration(i) * time.Hour), GHI: 1500, DNI: 1500, DHI: 1500, AirTempC: air}
+		}
+		ws := &weather.Series{Interval: time.Hour, Records: recs, Source: weather.SourceFile}
+		m, err := Prepare(context.Background(), Input{
+			Site: site, Modules: mods, Weather: ws, Observer: sun.Observer{LatDeg: 47, LonDeg: 15},
+			System: System{Module: testModule, Inverter: testInverter, Albedo: 1, Mounting: irradiance.Flush},
+		})
+		if err != nil {
+			t.Fatalf("air %g °C: Prepare: %v", air, err)
+		}
+		for i, wh := range m.Year.ModuleDCWh() {
+			if !(wh >= 0) || math.IsInf(wh, 0) {
+				t.Errorf("air %g °C, module %d: DC %g Wh", air, i, wh)
+			}
 		}
 	}
 }

@@ -241,17 +241,22 @@ func (p *prep) shadedYear() error {
 				if lit != nil {
 					f = float64(lit[k]) / 255
 				}
-				ci[k] = soil * (direct*f + diffuse)
+				ci[k] = math.Min(soil*(direct*f+diffuse), electric.MaxIrradiance)
 			}
 			unsh := c.tc.Total()
 			shaded := dirRaw*litFrac + difRaw
 			withIAM := direct*litFrac + diffuse
-			dst.UnshadedIrr[i] = soil * (dirUn + difUn)
+			dst.UnshadedIrr[i] = math.Min(soil*(dirUn+difUn), electric.MaxIrradiance)
 			// Each module's cells are heated by the light the module itself receives, shade
 			// included.
-			dst.TempC[i] = in.System.Mounting.CellTemp(shaded, r.AirTempC, r.WindMS)
+			// No real sky puts more than about 1.4 kW/m² on a plane; inconsistent weather
+			// records (a file stamped an hour late: a bright hour's diffuse with the sun on the
+			// horizon) can make the Perez circumsolar part many times that. The light the cells
+			// and their temperature take is capped at electric.MaxIrradiance, so such a record
+			// gives a bright hour, not a failed survey.
+			dst.TempC[i] = in.System.Mounting.CellTemp(math.Min(shaded, electric.MaxIrradiance), r.AirTempC, r.WindMS)
 			p.unIrr[s*n+i] = float32(dst.UnshadedIrr[i])
-			p.unTemp[s*n+i] = float32(in.System.Mounting.CellTemp(unsh, r.AirTempC, r.WindMS))
+			p.unTemp[s*n+i] = float32(in.System.Mounting.CellTemp(math.Min(unsh, electric.MaxIrradiance), r.AirTempC, r.WindMS))
 
 			m.StepPOA[s] += shaded / float64(n)
 			m.ModulePOAUnshaded[s*n+i] = float32(unsh)

@@ -215,7 +215,7 @@ func ContinuousLeakageLimitmA(ratedKVA float64) float64 {
 // limits come from, for the installer.
 func Leakage(moduleAreaM2 float64, a LeakageAssumptions) (LeakageResult, error) {
 	if math.IsNaN(moduleAreaM2) || moduleAreaM2 < 0 || moduleAreaM2 > 1e5 {
-		return LeakageResult{}, badf("array_area_m2", "%g must lie in 0..100000", moduleAreaM2)
+		return LeakageResult{}, outOfModelf("array_area_m2", "%g must lie in 0..100000", moduleAreaM2)
 	}
 	def := func(v, d float64) float64 {
 		if v == 0 {
@@ -227,7 +227,7 @@ func Leakage(moduleAreaM2 float64, a LeakageAssumptions) (LeakageResult, error) 
 	vcm, f := def(a.CommonModeV, 115), def(a.GridHz, 50)
 	for _, x := range []float64{dry, wet, vcm, f} {
 		if math.IsNaN(x) || x < 0 || math.IsInf(x, 0) {
-			return LeakageResult{}, badf("leakage", "assumptions must be finite and non-negative")
+			return LeakageResult{}, outOfModelf("leakage", "assumptions must be finite and non-negative")
 		}
 	}
 	r := LeakageResult{CapDryNF: dry * moduleAreaM2, CapWetNF: wet * moduleAreaM2}

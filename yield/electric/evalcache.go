@@ -107,10 +107,10 @@ func (y *Year) checkConverters(l Layout, conv []int) error {
 	}
 	for _, k := range conv {
 		if k < 0 || k >= y.n {
-			return badf("converters_on", "module %d out of range 0..%d", k, y.n-1)
+			return outOfModelf("converters_on", "module %d out of range 0..%d", k, y.n-1)
 		}
 		if used[k] {
-			return badf("converters_on", "module %d is in a string or listed twice", k)
+			return outOfModelf("converters_on", "module %d is in a string or listed twice", k)
 		}
 		used[k] = true
 	}

@@ -15,6 +15,16 @@ import (
 // (TestPartialShadeCurveAccuracy).
 const curvePoints = 64
 
+// MaxIrradiance is the highest effective cell irradiance the curves take, W/m²: above
+// anything a real sky gives a plane (about 1.4 kW/m² with cloud enhancement).
+const MaxIrradiance = 2000.0
+
+// MinCellTempC and MaxCellTempC bound the cell temperature the curves take, °C: the coldest
+// air a weather file may give (−70 °C) and the hottest cell the temperature models give at
+// MaxIrradiance, 70 °C air and no wind with the back insulated (70 + 2000·e^−2.81 = 190 °C):
+// the single-diode translation stays finite there, though no module survives it long.
+const MinCellTempC, MaxCellTempC = -70.0, 200.0
+
 // BypassDropV is the forward voltage of a bypass diode when it conducts
 // (V): a Schottky diode at several amperes; common practice 0.4–0.6 V.
 const BypassDropV = 0.5
@@ -154,12 +164,12 @@ func (m *Module) CheckCells(cellIrr []float64, tempC float64) error {
 		return outOfModelf("cell_irradiance", "%d values, want %d (cols×rows)", len(cellIrr), m.Cells())
 	}
 	for k, s := range cellIrr {
-		if !(s >= 0 && s <= 2000) { // false for NaN too
-			return outOfModelf(fmt.Sprintf("cell_irradiance[%d]", k), "%g W/m² must lie in 0..2000", s)
+		if !(s >= 0 && s <= MaxIrradiance) { // false for NaN too
+			return outOfModelf(fmt.Sprintf("cell_irradiance[%d]", k), "%g W/m² must lie in 0..%g", s, MaxIrradiance)
 		}
 	}
-	if math.IsNaN(tempC) || tempC < -60 || tempC > 120 {
-		return outOfModelf("cell_temp_c", "%g must lie in -60..120 °C", tempC)
+	if math.IsNaN(tempC) || tempC < MinCellTempC || tempC > MaxCellTempC {
+		return outOfModelf("cell_temp_c", "%g must lie in %g..%g °C", tempC, MinCellTempC, MaxCellTempC)
 	}
 	return nil
 }

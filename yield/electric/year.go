@@ -106,8 +106,8 @@ type Year struct {
 }
 
 // NewYear calls step for s = 0..steps−1 and computes each module's curve at
-// every step. Irradiance must lie in 0..2000 W/m² and temperatures in
-// −60..120 °C; a bad value is reported with its step and module, wrapping
+// every step. Irradiance must lie in 0..MaxIrradiance and temperatures in
+// MinCellTempC..MaxCellTempC; a bad value is reported with its step and module, wrapping
 // ErrOutOfModel (the caller's fault, not the user's).
 //
 // step is called in step order from the calling goroutine. NewYear copies
@@ -213,8 +213,8 @@ func checkStep(m *Module, in *StepInput, s, nModules int) (float64, error) {
 		if err := m.CheckCells(in.CellIrr[k], in.TempC[k]); err != nil {
 			return 0, fmt.Errorf("step %d, module %d: %w", s, k, err)
 		}
-		if u := in.UnshadedIrr[k]; math.IsNaN(u) || u < 0 || u > 2000 {
-			return 0, outOfModelf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..2000", u)
+		if u := in.UnshadedIrr[k]; math.IsNaN(u) || u < 0 || u > MaxIrradiance {
+			return 0, outOfModelf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..%g", u, MaxIrradiance)
 		}
 	}
 	return h, nil
@@ -532,7 +532,7 @@ func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCa
 		eff = 0.985
 	}
 	if (opt.ModuleLevel || len(opt.ConvertersOn) > 0) && !(eff > 0 && eff <= 1) {
-		return YearResult{}, badf("module_level_eff", "%g must lie in (0, 1]", opt.ModuleLevelEff)
+		return YearResult{}, outOfModelf("module_level_eff", "%g must lie in (0, 1]", opt.ModuleLevelEff)
 	}
 	if err := y.checkConverters(l, opt.ConvertersOn); err != nil {
 		return YearResult{}, err
@@ -542,7 +542,7 @@ func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCa
 		keep = 1
 	}
 	if !(keep > 0 && keep <= 1) {
-		return YearResult{}, badf("dc_keep", "%g must lie in (0, 1]", opt.DCKeep)
+		return YearResult{}, outOfModelf("dc_keep", "%g must lie in (0, 1]", opt.DCKeep)
 	}
 	opt.ModuleLevelEff = eff
 	parts := y.parts(l, inv, opt, c)
