@@ -2,6 +2,7 @@ package survey
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"fmt"
 	"math"
@@ -21,6 +22,9 @@ type RenderOptions struct {
 	SVG    bool   // also the charts as SVG
 	Paper  string // proposal paper: "a4" (default) or "letter"
 	Hourly bool   // also hourly.csv
+	// Context, when set, stops rendering between files once it is done; Render then returns
+	// its error.
+	Context context.Context
 	// Date dates the documents when the site file's proposal.date does not: the front end
 	// passes SOURCE_DATE_EPOCH's day or the run's. Zero leaves them dated 1 January 2000.
 	Date time.Time
@@ -44,6 +48,10 @@ func documentDate(cfg *Config, fallback time.Time) time.Time {
 // decides where the files go.
 func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	p, m, s, ls := r.Project, r.Model, r.Summary, r.Layouts
+	ctx := opt.Context
+	if ctx == nil {
+		ctx = context.Background()
+	}
 	files := map[string][]byte{}
 	js, err := s.JSON()
 	if err != nil {
@@ -101,6 +109,9 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 		formats = append(formats, report.SVG)
 	}
 	for _, c := range pr.Charts() {
+		if err := ctx.Err(); err != nil {
+			return nil, fmt.Errorf("survey: rendering: %w", err)
+		}
 		for _, f := range formats {
 			b, err := report.Render(c.Plot, c.W, c.H, f)
 			if err != nil {
@@ -109,11 +120,17 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 			files[c.Name+f.Ext()] = b
 		}
 	}
+	if err := ctx.Err(); err != nil {
+		return nil, fmt.Errorf("survey: rendering: %w", err)
+	}
 	pdf, err := pr.PDF()
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", report.ProposalFile, err)
 	}
 	files[report.ProposalFile] = pdf
+	if err := ctx.Err(); err != nil {
+		return nil, fmt.Errorf("survey: rendering: %w", err)
+	}
 	if pdf, err = pr.TechnicalPDF(); err != nil {
 		return nil, fmt.Errorf("%s: %w", report.TechnicalFile, err)
 	}

@@ -2,6 +2,7 @@ package cli
 
 import (
 	"bytes"
+	"context"
 	"crypto/sha256"
 	"encoding/json"
 	"fmt"
@@ -448,7 +449,7 @@ func TestStaleTemporaryFolders(t *testing.T) {
 	if err := os.Chtimes(old, past, past); err != nil {
 		t.Fatal(err)
 	}
-	if err := (outputSet{"a.txt": []byte("x")}).commit(filepath.Join(parent, "out")); err != nil {
+	if err := (outputSet{"a.txt": []byte("x")}).commit(context.Background(), filepath.Join(parent, "out")); err != nil {
 		t.Fatal(err)
 	}
 	if _, err := os.Stat(old); err == nil {

@@ -1,11 +1,15 @@
 package cli
 
 import (
+	"bytes"
+	"context"
+	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
 	"runtime"
 	"strings"
+	"syscall"
 	"testing"
 )
 
@@ -67,4 +71,70 @@ func firstLine(s string) string {
 		return s[:i]
 	}
 	return s
+}
+
+// TestInputNotRegular: a named pipe or a device given as the map or the site file is refused at
+// once (reading a pipe would block, and Ctrl-C with it; /dev/zero never ends), with the path
+// named and exit status 2.
+func TestInputNotRegular(t *testing.T) {
+	dir := t.TempDir()
+	fifo := filepath.Join(dir, "roof.geojson")
+	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	site, err := os.ReadFile(exampleSite)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(dir, "site.yaml"), site, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	zero := filepath.Join(dir, "zero")
+	if err := os.WriteFile(zero, bytes.ReplaceAll(site, []byte("map: roof.geojson"), []byte("map: /dev/zero")), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name string
+		args []string
+		want string
+	}{
+		{"map is a named pipe", []string{"check", filepath.Join(dir, "site.yaml")}, fifo + ": the map is a named pipe; give a regular file"},
+		{"map is a device", []string{"check", zero}, "/dev/zero: the map is a device; give a regular file"},
+		{"site file is a named pipe", []string{"check", fifo}, fifo + ": the site file is a named pipe"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			_, errs, code := run(t, c.args...)
+			if code != 2 || !strings.Contains(errs, c.want) {
+				t.Errorf("exit %d, %q: want 2 and %q", code, firstLine(errs), c.want)
+			}
+		})
+	}
+}
+
+// TestNegativeTimeout: a negative --timeout is a usage error (exit 2), not "no limit".
+func TestNegativeTimeout(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "out")
+	_, errs, code := run(t, "survey", exampleSite, "-o", out, "--timeout", "-1s")
+	if code != 2 || !strings.Contains(errs, "--timeout -1s") {
+		t.Errorf("exit %d, %q: want 2 and a message naming --timeout", code, errs)
+	}
+}
+
+// TestCancelledCommitWritesNothing: a run cancelled after rendering (Ctrl-C or --timeout while
+// the files are written) leaves no report and no earlier report changed.
+func TestCancelledCommitWritesNothing(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "out")
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	err := outputSet{"a.txt": []byte("x")}.commit(ctx, out)
+	if !errors.Is(err, context.Canceled) {
+		t.Errorf("error %v, want context.Canceled", err)
+	}
+	if _, err := os.Stat(out); err == nil {
+		t.Error("a cancelled commit wrote the output folder")
+	}
+	entries, _ := os.ReadDir(filepath.Dir(out))
+	if len(entries) != 0 {
+		t.Errorf("left behind: %v", entries)
+	}
 }

@@ -1,6 +1,7 @@
 package cli
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"os"
@@ -18,8 +19,9 @@ type outputSet map[string][]byte
 
 // commit writes the files into a new folder beside dir and swaps it into place: a failed run
 // leaves an earlier report untouched, and a reader never sees a half-written one. An existing
-// dir is replaced only when it is empty or an earlier sunstring report.
-func (o outputSet) commit(dir string) error {
+// dir is replaced only when it is empty or an earlier sunstring report. When ctx is done
+// before the folder is swapped into place, nothing is written and ctx's error is returned.
+func (o outputSet) commit(ctx context.Context, dir string) error {
 	dir = filepath.Clean(dir)
 	if st, err := os.Stat(dir); err == nil {
 		if !st.IsDir() {
@@ -63,9 +65,15 @@ func (o outputSet) commit(dir string) error {
 		if err := writeSynced(p, b); err != nil {
 			return fmt.Errorf("output %s: %w", n, err)
 		}
+		if err := ctx.Err(); err != nil {
+			return err
+		}
 	}
 	if err := os.Chmod(tmp, 0o755); err != nil {
 		return fmt.Errorf("output folder %s: %w", dir, err)
+	}
+	if err := ctx.Err(); err != nil {
+		return err
 	}
 	old := ""
 	if _, err := os.Stat(dir); err == nil {

@@ -56,6 +56,9 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		if err := checkPaper(paper); err != nil {
 			return err
 		}
+		if timeout < 0 {
+			return usageError{fmt.Errorf("--timeout %s: give a positive duration such as 90s or 5m, or 0 for no limit", timeout)}
+		}
 		ctx := c.Context()
 		if timeout > 0 {
 			var cancel func()
@@ -87,11 +90,12 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		if err != nil {
 			return err
 		}
-		files, err := res.Render(survey.RenderOptions{SVG: svg, Paper: paper, Hourly: hourly, Date: date})
+		files, err := res.Render(survey.RenderOptions{SVG: svg, Paper: paper, Hourly: hourly, Date: date, Context: ctx})
 		if err != nil {
 			return err
 		}
-		if err := outputSet(files).commit(out); err != nil {
+		// A run cancelled while rendering or writing writes nothing.
+		if err := outputSet(files).commit(ctx, out); err != nil {
 			return err
 		}
 		w := c.OutOrStdout()
