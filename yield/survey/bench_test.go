@@ -1,0 +1,101 @@
+package survey_test
+
+import (
+	"context"
+	"fmt"
+	"os"
+	"runtime"
+	"testing"
+
+	"sunstring/yield/internal/roofgen"
+	"sunstring/yield/survey"
+)
+
+// exampleConfig is examples/sample-house/site.yaml in Go.
+func exampleConfig() *survey.Config {
+	cfg := survey.Defaults()
+	lat, lon := 47.05, 15.43
+	cfg.Name, cfg.Map, cfg.Timezone, cfg.Latitude, cfg.Longitude = "Sample house (invented)", "roof.geojson", "Europe/Vienna", &lat, &lon
+	cfg.Climate = survey.Climate{MonthlyGHI: []float64{36, 57, 98, 132, 160, 170, 176, 152, 107, 70, 38, 29},
+		MonthlyT: []float64{-1.0, 1.0, 5.2, 10.1, 14.8, 18.2, 20.1, 19.6, 15.2, 9.9, 4.3, 0.2}, LowTempC: -16, HighTempC: 34, Albedo: 0.2}
+	cfg.Module = survey.Module{PowerW: 410, VocV: 37.4, IscA: 13.9, VmpV: 31.3, ImpA: 13.1,
+		TempCoeffVocPct: -0.27, TempCoeffIscPct: 0.048, TempCoeffPmaxPct: -0.34, CellsSeries: 120, HalfCut: true, BypassDiodes: 3,
+		LengthM: 1.72, WidthM: 1.134, MaxSystemVoltage: 1000, Mounting: "rails"}
+	cfg.Inverter = survey.Inverter{ACPowerW: 6000, MaxDCVoltageV: 600, MPPTMinV: 90, MPPTMaxV: 560, Inputs: 2, MaxInputCurrentA: 16,
+		EfficiencyPct: []any{[]any{0.05, 92.0}, []any{0.1, 94.8}, []any{0.2, 96.4}, []any{0.3, 96.9}, []any{0.5, 97.2}, []any{1.0, 96.8}},
+		NightW:        1, Transformerless: true}
+	cfg.Fill.Orientation, cfg.Fill.SetbackM = "best", 0.4
+	return cfg
+}
+
+// hallConfig is the site file yield/internal/roofgen writes for the hall roof, in Go.
+func hallConfig(inputs int) *survey.Config {
+	cfg := exampleConfig()
+	lat, lon := roofgen.LatDeg, roofgen.LonDeg
+	cfg.Name, cfg.Latitude, cfg.Longitude = "Large hall roof (invented)", &lat, &lon
+	cfg.Inverter = survey.Inverter{ACPowerW: 150000, MaxDCVoltageV: 1000, MPPTMinV: 200, MPPTMaxV: 850, Inputs: float64(inputs),
+		MaxInputCurrentA: 30, EfficiencyPct: []any{[]any{0.05, 93.0}, []any{0.1, 95.5}, []any{0.2, 97.0}, []any{0.3, 97.6}, []any{0.5, 98.0}, []any{1.0, 97.7}},
+		NightW: 5, Transformerless: true}
+	cfg.Fill.Orientation = "portrait"
+	return cfg
+}
+
+// benchSurvey runs the whole survey (load, fill, weather, sun, shade, curves, layouts,
+// summary, every report file rendered in memory) of cfg with the map in memory, and reports
+// the heap's peak as seen by the runtime (sys-MB: memory obtained from the system).
+func benchSurvey(b *testing.B, cfg *survey.Config, mapData []byte) {
+	if errs := cfg.Validate(); len(errs) > 0 {
+		b.Fatal(errs)
+	}
+	read := func(path, what string) ([]byte, error) {
+		if path == cfg.Path(cfg.Map) {
+			return mapData, nil
+		}
+		return nil, fmt.Errorf("%s: no such %s", path, what)
+	}
+	b.ReportAllocs()
+	var modules int
+	for b.Loop() {
+		p, err := survey.Load(cfg, read)
+		if err != nil {
+			b.Fatal(err)
+		}
+		res, err := p.Run(context.Background(), survey.Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := res.Render(survey.RenderOptions{}); err != nil {
+			b.Fatal(err)
+		}
+		modules = res.Summary.Modules
+	}
+	var ms runtime.MemStats
+	runtime.ReadMemStats(&ms)
+	b.ReportMetric(float64(modules), "modules")
+	b.ReportMetric(float64(ms.Sys)/(1<<20), "sys-MB")
+}
+
+// BenchmarkSurvey is the whole survey of the example house and of the large hall roof (437
+// modules, 20 rooftop units, trees, a 10-input inverter with two strings an input), to be
+// compared in the same run: go test -run '^$' -bench 'Survey$' -benchtime 1x ./yield/survey
+func BenchmarkSurvey(b *testing.B) {
+	example, err := os.ReadFile("../../examples/sample-house/roof.geojson")
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.Run("site=example", func(b *testing.B) { benchSurvey(b, exampleConfig(), example) })
+	b.Run("site=hall", func(b *testing.B) { benchSurvey(b, hallConfig(10), roofgen.Map(roofgen.Options{})) })
+}
+
+// BenchmarkSurveyGrowth is the whole survey of hall roofs of about 120 to 1,000 modules (the
+// same density of rooftop units), with an inverter of as many inputs as two strings of up to
+// 23 modules an input need.
+func BenchmarkSurveyGrowth(b *testing.B) {
+	for _, n := range []int{120, 250, 430, 700, 1000} {
+		b.Run(fmt.Sprintf("modules=%d", n), func(b *testing.B) {
+			cfg := hallConfig(min(12, (n+45)/46))
+			cfg.Inverter.ACPowerW = 410 * float64(n) * 0.85
+			benchSurvey(b, cfg, roofgen.Map(roofgen.Options{Modules: n}))
+		})
+	}
+}
