@@ -225,9 +225,10 @@ func extent(r [][2]float64) (w, h float64) {
 	return x1 - x0, y1 - y0
 }
 
-// frameOf takes the faces and modules, then every block and tree crown within reachM of
-// them, so that what casts shade on the roof is drawn whole.
-func frameOf(pl *Plan) framed {
+// frameOf takes the faces and modules, then every block and tree crown within reach of
+// them (reachM; 0: only those standing on the roof's own extent), so that what casts shade
+// on the roof is drawn whole.
+func frameOf(pl *Plan, reach float64) framed {
 	f := framed{minX: math.Inf(1), minY: math.Inf(1), maxX: math.Inf(-1), maxY: math.Inf(-1)}
 	grow := func(x, y float64) {
 		f.minX, f.maxX = math.Min(f.minX, x), math.Max(f.maxX, x)
@@ -255,7 +256,13 @@ func frameOf(pl *Plan) framed {
 	for _, b := range pl.Blocks {
 		near := false
 		for _, q := range b.Ring {
-			near = near || dist(q[0], q[1]) <= reachM
+			near = near || dist(q[0], q[1]) <= reach
+		}
+		if reach == 0 {
+			// On the roof only: every corner within its extent.
+			for _, q := range b.Ring {
+				near = near && dist(q[0], q[1]) == 0
+			}
 		}
 		if !near {
 			f.left = append(f.left, b.ID)
@@ -266,7 +273,7 @@ func frameOf(pl *Plan) framed {
 		}
 	}
 	for _, t := range pl.Trees {
-		if dist(t.X, t.Y)-t.CrownRadiusM > reachM {
+		if d := dist(t.X, t.Y); (reach > 0 && d-t.CrownRadiusM > reach) || (reach == 0 && (d > 0 || t.CrownRadiusM > 0)) {
 			f.left = append(f.left, t.ID)
 			continue
 		}
@@ -293,9 +300,9 @@ func ringCentre(r [][2]float64) (x, y float64) {
 }
 
 // planBase draws the faces, blocks, avoid areas and trees with their ids, and returns the
-// frame, fitted to a w×h picture: the roof and every obstacle within reach.
-func planBase(pl *Plan, p *plot.Plot, w, h vg.Length) framed {
-	f := frameOf(pl)
+// frame, fitted to a w×h picture: the roof and every obstacle within reach (see frameOf).
+func planBase(pl *Plan, p *plot.Plot, w, h vg.Length, reach float64) framed {
+	f := frameOf(pl, reach)
 	f.fit(w, h, legendFrac)
 	skip := map[string]bool{}
 	for _, id := range f.left {
@@ -315,8 +322,8 @@ func planBase(pl *Plan, p *plot.Plot, w, h vg.Length) framed {
 	for _, fc := range pl.Faces {
 		addPolygon(p, ringXYs(fc.Ring), faceFill, Ink, vg.Points(0.8))
 	}
-	var bx, ax plotter.XYs
-	var bl, al []string
+	var bx, ax, vx plotter.XYs
+	var bl, al, vl []string
 	for _, b := range pl.Blocks {
 		if skip[b.ID] {
 			continue
@@ -338,14 +345,16 @@ func planBase(pl *Plan, p *plot.Plot, w, h vg.Length) framed {
 		if pg := addPolygon(p, ringXYs(a.Ring), white, Ink, vg.Points(0.6)); pg != nil {
 			pg.LineStyle.Dashes = avoidDashes
 		}
+		// The id under the area: kept free of modules, its edge is clear of them more often.
 		x, y := ringCentre(a.Ring)
 		_, ah := extent(a.Ring)
-		ax = append(ax, plotter.XY{X: x, Y: y + ah/2})
-		al = append(al, Printable(a.ID))
+		vx = append(vx, plotter.XY{X: x, Y: y - ah/2})
+		vl = append(vl, Printable(a.ID))
 	}
 	addLabels(p, tx, tl, 6.5, Ink, text.XCenter, text.YTop)
 	addLabels(p, bx, bl, 6, Ink, text.XCenter, text.YCenter)
 	addLabels(p, ax, al, 6, Ink, text.XCenter, text.YBottom)
+	addLabels(p, vx, vl, 5.5, Ink, text.XCenter, text.YTop)
 	return f
 }
 
@@ -392,10 +401,29 @@ func obstacleLegend(pl *Plan, p *plot.Plot, f framed, unconnected bool) {
 	if unconnected {
 		p.Legend.Add("placed, not connected", swatch(white, Ink, unconnectedDashes))
 	}
-	if len(pl.Blocks) > len(f.left) {
+	left := map[string]bool{}
+	for _, id := range f.left {
+		left[id] = true
+	}
+	drawn := func(ids []string) bool {
+		for _, id := range ids {
+			if !left[id] {
+				return true
+			}
+		}
+		return false
+	}
+	var blocks, trees []string
+	for _, b := range pl.Blocks {
+		blocks = append(blocks, b.ID)
+	}
+	for _, t := range pl.Trees {
+		trees = append(trees, t.ID)
+	}
+	if drawn(blocks) {
 		p.Legend.Add("chimney, dormer, building", swatch(blockFill, nil, nil))
 	}
-	if len(pl.Trees) > 0 {
+	if drawn(trees) {
 		p.Legend.Add("tree crown", swatch(treeFill, nil, nil))
 	}
 	if len(pl.Avoids) > 0 {
@@ -525,7 +553,7 @@ func leftOut(f framed) string {
 // only at that size). Unconnected modules are outlined, not filled.
 func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	p := plot.New()
-	f := planBase(pl, p, w, h)
+	f := planBase(pl, p, w, h, reachM)
 	styleTitle(p, "Roof plan: sunlight on each module in a year\nlabels: row.column of the face, and the share of its light lost to shade"+leftOut(f))
 	ref := 0.0
 	for _, m := range pl.Modules {
@@ -628,13 +656,15 @@ func moduleLabelSize(pl *Plan, f framed) (size float64, lines int) {
 	return 0, 0
 }
 
-// StringsChart draws the chosen layout: each string's modules in the string's colour
-// (StringColours), a line through them in wiring order and each module's position along the
-// string, the faces' ids and module ids, for a w×h picture.
+// StringsChart draws the chosen layout on the roof: each string's modules in the string's
+// colour (StringColours), a line through them in wiring order and each module's position
+// along the string, the faces' ids and module ids, for a w×h picture. It is framed on the
+// roof; only obstacles standing on it are drawn.
 func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	p := plot.New()
-	f := planBase(pl, p, w, h)
-	styleTitle(p, "Strings of the chosen layout, in wiring order\n"+WiringCaution+leftOut(f))
+	f := planBase(pl, p, w, h, 0)
+	// The wiring is on the roof: the drawing keeps to it (the plan shows what stands around).
+	styleTitle(p, "Strings of the chosen layout, in wiring order\n"+WiringCaution)
 	// The wiring mark sits in each module's lower half and its id in the upper half, both
 	// sized to the module as drawn.
 	short, long := moduleSides(pl)
