@@ -376,7 +376,7 @@ func (pr *Proposal) plainAssumptions(d *pdfDoc) {
 		Thousands(s.AnnualACkWh, 0), lo, hi, Thousands(s.AnnualACkWh*(1-hi/100), 0), Thousands(s.AnnualACkWh*(1+hi/100), 0), basis))
 	if len(s.Warnings) > 0 {
 		d.sub("Please note")
-		d.bullets(s.Warnings)
+		d.bullets(Lines(s.Warnings))
 	}
 	d.sub("Safety")
 	d.bullets(s.Cautions)

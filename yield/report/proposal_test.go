@@ -22,6 +22,7 @@ import (
 
 	"sunstring/shading"
 	"sunstring/shading/sun"
+	"sunstring/yield/finding"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden chart images in testdata/")
@@ -53,7 +54,7 @@ func fixture(source string) *Proposal {
 			{Name: "roof order", AnnualACkWh: 2301, ShadeLossPct: 5.9, BehindBestKWh: 44.6, Strings: [][]string{{"S.1.1", "S.1.2", "S.1.3", "S.2.1", "S.2.2", "S.2.3"}}, Inputs: []int{1}},
 		},
 		Faces:    []Face{{ID: "S", PitchDeg: 35, AspectDeg: 180, PlanAreaM2: 40, SlopedAreaM2: 48.8, Modules: 7, KWp: 2.8}},
-		Warnings: []string{"test warning"},
+		Warnings: []finding.Finding{{Severity: finding.Warning, Code: "test", Message: "test warning"}},
 		Checks: []Check{{Severity: "info", Subject: "searched 1, input 1", Unit: "V", Value: 124.6, Limit: 600,
 			Message: "3 modules in series: 124.6 V open circuit at -16 °C (inverter maximum 600 V)"}},
 		Alternatives: []Alternative{{Name: "module-level converters", AnnualACkWh: 2400, DifferenceKWh: 54.4, Note: "a converter on every module"}},

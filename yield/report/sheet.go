@@ -62,14 +62,14 @@ func (pr *Proposal) system(d *pdfDoc) {
 		var fr [][]string
 		for _, f := range s.Faces {
 			fr = append(fr, []string{f.ID, Thousands(f.PitchDeg, 0) + "°", Thousands(f.AspectDeg, 0) + "° " + compass(f.AspectDeg),
-				Thousands(f.SlopedAreaM2, 1) + " m²", fmt.Sprint(f.Modules), fmt.Sprint(on[f.ID]), Thousands(f.KWp, 2) + " kWp"})
+				Thousands(f.SlopedAreaM2, 1) + " m²", Thousands(f.AnnualPOAkWhM2, 0), fmt.Sprint(f.Modules), fmt.Sprint(on[f.ID]), Thousands(f.KWp, 2) + " kWp"})
 		}
-		d.table([]string{"Face", "Pitch", "Facing", "Area (sloped)", "Placed", "Connected", "Placed power"}, fr,
-			[]float64{0.12, 0.1, 0.16, 0.16, 0.12, 0.14, 0.2}, "LRRRRRR")
+		d.table([]string{"Face", "Pitch", "Facing", "Area (sloped)", "kWh/m² a year", "Placed", "Connected", "Placed power"}, fr,
+			[]float64{0.09, 0.09, 0.13, 0.14, 0.15, 0.1, 0.13, 0.17}, "LRRRRRRR")
 	}
 	if len(s.Warnings) > 0 {
 		d.sub("Please note")
-		d.bullets(s.Warnings)
+		d.bullets(Lines(s.Warnings))
 	}
 }
 

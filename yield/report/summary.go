@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"encoding/json"
 	"math"
+
+	"sunstring/yield/finding"
 )
 
 // Summary is the summary.json document. Field names and meanings are the contract stated in
@@ -35,9 +37,12 @@ type Summary struct {
 	ModuleResults        []ModuleResult `json:"module_results"`
 	Faces                []Face         `json:"faces"`
 	Checks               []Check        `json:"checks"`
-	Warnings             []string       `json:"warnings"`
-	Cautions             []string       `json:"cautions"`
-	Models               []string       `json:"models"`
+	// Warnings must be read before the proposal goes out; Notes are for the record. Each has
+	// its severity, a stable code, where (file and feature or key) and what to do.
+	Warnings []finding.Finding `json:"warnings"`
+	Notes    []finding.Finding `json:"notes"`
+	Cautions []string          `json:"cautions"`
+	Models   []string          `json:"models"`
 
 	// Surroundings lists the obstacles imported from the site file's surroundings files, each
 	// with its source; absent without such files.
@@ -152,6 +157,9 @@ type Face struct {
 	SlopedAreaM2 float64 `json:"sloped_area_m2"`
 	Modules      int     `json:"modules"`
 	KWp          float64 `json:"kwp"`
+	// AnnualPOAkWhM2 is the face's annual irradiation without shade, kWh/m², so that a poor
+	// face shows as one next to the best.
+	AnnualPOAkWhM2 float64 `json:"annual_poa_kwh_m2"`
 }
 
 // Surrounding is one imported obstacle: a building (a block) or a tree, its id in its source
@@ -165,7 +173,7 @@ type Surrounding struct {
 
 // Check is one electrical check of the reported layout.
 type Check struct {
-	Severity string  `json:"severity"` // error | warning | info
+	Severity string  `json:"severity"` // fail | warning | info (package finding's words)
 	Subject  string  `json:"subject"`
 	Message  string  `json:"message"`
 	Value    float64 `json:"value"`
@@ -189,7 +197,10 @@ var Cautions = []string{
 func (s *Summary) JSON() ([]byte, error) {
 	c := *s
 	if c.Warnings == nil {
-		c.Warnings = []string{}
+		c.Warnings = []finding.Finding{}
+	}
+	if c.Notes == nil {
+		c.Notes = []finding.Finding{}
 	}
 	if c.Checks == nil {
 		c.Checks = []Check{}
@@ -266,6 +277,7 @@ func roundAll(s Summary) Summary {
 		f.PitchDeg, f.AspectDeg = Round(f.PitchDeg, 1), Round(f.AspectDeg, 1)
 		f.PlanAreaM2, f.SlopedAreaM2 = Round(f.PlanAreaM2, 2), Round(f.SlopedAreaM2, 2)
 		f.KWp = Round(f.KWp, 3)
+		f.AnnualPOAkWhM2 = Round(f.AnnualPOAkWhM2, 1)
 	}
 	s.Alternatives = append([]Alternative(nil), s.Alternatives...)
 	for i := range s.Alternatives {
@@ -278,4 +290,16 @@ func roundAll(s Summary) Summary {
 		s.Checks[i].Limit = Round(s.Checks[i].Limit, 2)
 	}
 	return s
+}
+
+// Lines returns each finding's subject and message as one line, for lists in the proposal.
+func Lines(fs []finding.Finding) []string {
+	out := make([]string, len(fs))
+	for i, f := range fs {
+		out[i] = f.Message
+		if f.Subject != "" {
+			out[i] = f.Subject + ": " + f.Message
+		}
+	}
+	return out
 }

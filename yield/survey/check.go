@@ -2,6 +2,7 @@ package survey
 
 import (
 	"fmt"
+	"sunstring/yield/finding"
 	"sunstring/yield/report"
 )
 
@@ -36,7 +37,7 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 	for i, fl := range cfg.Layouts.Fixed {
 		cs := p.electricalChecks(fl.Name, lengths(p.fixed[i]))
 		for _, c := range cs {
-			if c.Severity == "error" && bad == nil {
+			if c.Severity == finding.Fail.String() && bad == nil {
 				bad = badInput{fmt.Errorf("%s: layouts.fixed[%d] (%q): %s", cfg.File, i, fl.Name, c.Message)}
 			}
 		}

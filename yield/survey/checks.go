@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"sunstring/yield/electric"
+	"sunstring/yield/finding"
 	"sunstring/yield/irradiance"
 	"sunstring/yield/report"
 )
@@ -39,7 +40,7 @@ func (p *Project) electricalChecks(name string, lens [][]int) []report.Check {
 		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "V", Value: voc, Limit: inv.MaxDCVoltageV,
 			Message: fmt.Sprintf("%s in series: %.1f V open circuit at %g °C (inverter maximum %.0f V)", report.Count(longest, "module", "modules"), voc, low, inv.MaxDCVoltageV)})
 		if ms := p.Cfg.Module.MaxSystemVoltage; ms > 0 && voc > ms {
-			out = append(out, report.Check{Severity: "error", Subject: subj, Unit: "V", Value: voc, Limit: ms,
+			out = append(out, report.Check{Severity: finding.Fail.String(), Subject: subj, Unit: "V", Value: voc, Limit: ms,
 				Message: fmt.Sprintf("%s reach %.1f V open circuit at %g °C, above the module's maximum system voltage %.0f V", report.Count(longest, "module", "modules"), voc, low, ms)})
 		}
 		vmp := float64(shortest) * electric.VmpAt(ds, hot)
@@ -78,7 +79,7 @@ func fromFinding(subject string, f electric.Finding) report.Check {
 	sev := "info"
 	switch f.Severity {
 	case electric.Error:
-		sev = "error"
+		sev = finding.Fail.String()
 	case electric.Warning:
 		sev = "warning"
 	}

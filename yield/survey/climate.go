@@ -3,11 +3,9 @@ package survey
 import (
 	"bytes"
 	"fmt"
-	"math"
 	"path/filepath"
 	"strings"
 	"sunstring/yield/weather"
-	"time"
 )
 
 // Weather returns the weather year the site file asks for, and what it is: a weather file, a
@@ -42,10 +40,16 @@ func (p *Project) Weather() (*weather.Series, error) {
 		}
 		// Annual figures need one whole year: a partial year would understate them and
 		// several years would add up to more than one.
-		if n := len(s.Records); s.Interval != time.Hour || n < 8760 || n > 8784 {
-			return nil, badInput{fmt.Errorf("%s: %d records of %v; a survey needs one whole year of hourly records (8760, or 8784 in a leap year)", wp, n, s.Interval)}
+		if err := s.CheckYear(wp); err != nil {
+			return nil, err
+		}
+		if err := s.CheckClearSky(wp, ws); err != nil {
+			return nil, err
 		}
 		s.Warnings = append(s.Warnings, s.CheckSite(ws)...)
+		if w := s.NoonWarning(wp, p.Observer); w != "" {
+			s.Warnings = append(s.Warnings, w)
+		}
 		return s, nil
 	case len(cfg.Climate.MonthlyGHI) == 12:
 		var g, t [12]float64
@@ -56,6 +60,9 @@ func (p *Project) Weather() (*weather.Series, error) {
 		} else {
 			t = weather.DefaultTemps(p.LatDeg)
 			note = "climate.monthly_temp_c is not given: the temperatures of a temperate mid-latitude climate are assumed (0 to 19.5 °C from the coldest to the warmest month); give the site's monthly mean temperatures, since cell temperature moves the yield by several percent"
+		}
+		if err := weather.CheckMonthly(ws, cfg.File+": climate", g, t); err != nil {
+			return nil, err
 		}
 		s, err := weather.FromMonthly(ws, g, t)
 		if err == nil && note != "" {
@@ -80,24 +87,6 @@ func (p *Project) NoModules() error {
 	}
 	return badInput{fmt.Errorf("%s: no module fits on any roof face (module %.2f × %.2f m, setback %.2f m): %s",
 		mapFile, p.Cfg.Module.LengthM, p.Cfg.Module.WidthM, p.Cfg.Fill.SetbackM, why)}
-}
-
-// zoneWarning flags a time zone whose standard offset is far from the site's longitude (15°
-// an hour): a likely wrong zone, which would shift every hour of a weather file. Zones
-// legitimately stray up to about 2 hours (common practice: western Europe, western China), so
-// only more than that is flagged.
-func zoneWarning(cfg *Config, lonDeg float64) string {
-	if cfg.Zone == nil {
-		return ""
-	}
-	_, jan := time.Date(weather.TypicalYear, 1, 15, 12, 0, 0, 0, cfg.Zone).Zone()
-	_, jul := time.Date(weather.TypicalYear, 7, 15, 12, 0, 0, 0, cfg.Zone).Zone()
-	std := float64(min(jan, jul)) / 3600
-	d := math.Mod(lonDeg/15-std+36, 24) - 12 // hours, wrapped to (−12, 12]
-	if math.Abs(d) > 2.5 {
-		return fmt.Sprintf("timezone %s (UTC%+.1f h standard) is %.1f hours from the site's longitude %.2f°; check the zone: a wrong one shifts every hour of a weather file", cfg.Timezone, std, d, lonDeg)
-	}
-	return ""
 }
 
 // IndicativeWarning is printed wherever an indicative clear-sky year stands in for a climate.

@@ -8,6 +8,7 @@ import (
 	"sunstring/shading"
 	"sunstring/shading/sun"
 	"sunstring/yield/electric"
+	"sunstring/yield/finding"
 	"sunstring/yield/layout"
 	"sunstring/yield/report"
 )
@@ -21,10 +22,15 @@ type ReadFunc func(path, what string) ([]byte, error)
 // Project is a loaded site: the site file, the map, the placed modules and the electrical
 // equipment. Load makes one; Run surveys it.
 type Project struct {
-	Cfg            *Config
-	Site           *geo.Site
-	Modules        []geo.Module
-	Notes          []string
+	Cfg     *Config
+	Site    *geo.Site
+	Modules []geo.Module
+	Notes   []string
+	// Findings are what Load found worth saying about the site file and the map: the map's
+	// warnings, blocks hidden below their roof, the module's size against its power, the
+	// inverter against the array, the time zone against the coordinates. A Fail among them
+	// stops Run; `check` prints them all.
+	Findings       finding.List
 	Datasheet      electric.Datasheet
 	Inverter       electric.Inverter
 	Observer       sun.Observer
@@ -112,8 +118,6 @@ func Load(cfg *Config, read ReadFunc) (*Project, error) {
 		return nil, err
 	}
 	p.Modules, p.Notes = mods, append(fitNotes, notes...)
-	if w := zoneWarning(cfg, lon); w != "" {
-		p.Notes = append(p.Notes, w)
-	}
+	p.Findings = p.loadFindings(mapPath, fitNotes, notes)
 	return p, nil
 }

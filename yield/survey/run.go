@@ -45,10 +45,14 @@ func (p *Project) Run(ctx context.Context, opt Options) (*Result, error) {
 	if err := p.prepareLayouts(); err != nil {
 		return nil, err
 	}
-	ws, err := p.Weather()
+	pf, err := p.Preflight()
 	if err != nil {
 		return nil, err
 	}
+	if err := pf.Findings.Err(); err != nil {
+		return nil, err
+	}
+	ws := pf.Weather
 	sky, _ := irradiance.ParseSkyModel(strings.ToLower(p.Cfg.Model.Sky))
 	mounting := p.Mounting()
 	iam := yield.IAMMartinRuiz
@@ -75,7 +79,7 @@ func (p *Project) Run(ctx context.Context, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	sum := p.summary(model, ws, layouts)
+	sum := p.summary(model, pf, layouts)
 	if sum.Alternatives, err = p.alternatives(model, layouts); err != nil {
 		return nil, err
 	}

@@ -4,14 +4,16 @@ import (
 	"cmp"
 	"fmt"
 	"slices"
+	"strconv"
 	"strings"
 	"sunstring/geo"
 	"sunstring/yield"
 	"sunstring/yield/electric"
+	"sunstring/yield/finding"
 	"sunstring/yield/irradiance"
 	"sunstring/yield/layout"
+	"sunstring/yield/plausible"
 	"sunstring/yield/report"
-	"sunstring/yield/weather"
 )
 
 // Faces summarizes each roof face with its modules and their power.
@@ -241,7 +243,9 @@ var mountingText = map[irradiance.Mounting]string{
 }
 
 // summary builds summary.json from the model and the ranked layouts (best first).
-func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout) *report.Summary {
+func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *report.Summary {
+	ws := pf.Weather
+	found := append(finding.List(nil), pf.Findings...)
 	kwp := float64(len(p.Modules)) * p.Datasheet.PowerW / 1000
 	s := &report.Summary{
 		Site:     report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
@@ -254,12 +258,6 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 	for _, mo := range ws.Monthly() {
 		s.Climate.AnnualGHIkWhM2 += mo.GHIKWhM2
 	}
-	if ws.Source == weather.Source("indicative") {
-		s.Warnings = append(s.Warnings, IndicativeWarning)
-	}
-	s.Warnings = append(s.Warnings, ws.Warnings...)
-	s.Warnings = append(s.Warnings, p.Site.Warnings...)
-	s.Warnings = append(s.Warnings, p.Notes...)
 	s.Faces = p.Faces()
 	for _, o := range p.Site.Obstacles() {
 		switch {
@@ -269,6 +267,11 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 		case o.Crown != nil && o.Crown.Source != "":
 			s.Surroundings = append(s.Surroundings, report.Surrounding{ID: o.ID, Kind: o.Kind, Source: o.Crown.Source,
 				HeightM: report.Round(o.Crown.HeightM, 2)})
+		}
+	}
+	for i := range s.Faces {
+		if i < len(pf.FaceKWhM2) {
+			s.Faces[i].AnnualPOAkWhM2 = pf.FaceKWhM2[i]
 		}
 	}
 	stringOf := map[string]string{}
@@ -281,8 +284,8 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 			connected += len(st)
 		}
 		if connected < len(p.Modules) {
-			s.Warnings = append(s.Warnings, fmt.Sprintf("the best layout leaves %d of the %d placed modules unconnected; the figures are for the %d connected ones",
-				len(p.Modules)-connected, len(p.Modules), connected))
+			found.Add(finding.Warning, "unconnected", p.Cfg.File+": inverter", "the best layout leaves %d of the %d placed modules unconnected; the figures are for the %d connected ones; choose an inverter with more inputs or a wider voltage window to connect them",
+				len(p.Modules)-connected, len(p.Modules), connected)
 			s.Modules = connected
 			kwp = float64(connected) * p.Datasheet.PowerW / 1000
 			s.DCkWp = kwp
@@ -331,6 +334,16 @@ func (p *Project) summary(m *yield.Model, ws *weather.Series, ls []RankedLayout)
 		}
 		s.EquivalenceMarginPct = EquivalenceMarginPct
 		s.LayoutAdvice = p.advice
+	}
+	if len(ls) > 0 {
+		found = append(found, plausible.Result("layout "+strconv.Quote(ls[0].Name), clippingPct(ls[0].Result), s.PerformanceRatio)...)
+	}
+	for _, f := range found.Sorted() {
+		if f.Severity == finding.Info {
+			s.Notes = append(s.Notes, f)
+		} else {
+			s.Warnings = append(s.Warnings, f)
+		}
 	}
 	for i, mod := range p.Modules {
 		st := m.Stats[i]

@@ -22,6 +22,10 @@ const (
 // stations (Aguiar et al. 1988; from memory): sunny and dull days come in short runs.
 const dayKtLag1 = 0.3
 
+// SyntheticNote is the remark every synthetic year carries among its Warnings: a note for the
+// record, not a problem.
+const SyntheticNote = "synthetic year from monthly values: monthly totals are kept, single days and hours are plausible, not measured"
+
 // maxMonthlyGHIKWhM2 bounds monthly input: the sunniest desert months stay near 280 kWh/m²
 // (common practice); more is a unit mistake (daily or annual values, or MJ).
 const maxMonthlyGHIKWhM2 = 400
@@ -131,7 +135,7 @@ func FromMonthly(s Site, ghiKWhM2, tempC [12]float64) (*Series, error) {
 		hourKt[i] = dayKt[day[i]]
 	}
 	fillTemps(ser, tempC, hourKt)
-	ser.Warnings = append(ser.Warnings, "synthetic year from monthly values: monthly totals are kept, single days and hours are plausible, not measured")
+	ser.Warnings = append(ser.Warnings, SyntheticNote)
 	return ser, nil
 }
 

@@ -32,7 +32,7 @@ func (s *Series) CheckYear(name string) error {
 		zone := fixedZone(s.TZOffsetHours)
 		start := s.Records[0].End.Add(-s.Interval).In(zone)
 		if want := OneYearRecords(start); n != want {
-			p.add(0, "", "%d hourly records (%s to %s); a survey needs exactly one year: 8760 records, or 8784 for a leap year whose dates include 29 February. A year from %s has %d hours: %s",
+			p.add(0, "", "%d hourly records (%s to %s); a survey needs one whole year: exactly 8760 records, or 8784 for a leap year whose dates include 29 February. A year from %s has %d hours: %s",
 				n, start.Format("2006-01-02 15:04"), s.Records[n-1].End.In(zone).Format("2006-01-02 15:04"),
 				start.Format("2 January 2006"), want, yearAdvice(n, want))
 		}

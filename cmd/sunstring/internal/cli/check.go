@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"sunstring/geo"
+	"sunstring/yield/finding"
 	"sunstring/yield/report"
 )
 
@@ -31,7 +32,10 @@ something is wrong, with one message per problem.`,
 		if err != nil {
 			return err
 		}
-		faces := geo.Summarize(p.Site, p.Modules)
+		pf, err := p.Preflight()
+		if err != nil {
+			return err
+		}
 		var elec []report.Check
 		var bad error
 		if len(p.Modules) == 0 {
@@ -39,35 +43,46 @@ something is wrong, with one message per problem.`,
 		} else if elec, bad, err = p.Checks(); err != nil {
 			return err
 		}
+		if err := pf.Findings.Err(); err != nil {
+			bad = err // a plausibility fail: the survey would refuse it too
+		}
+		// Every line worst first: what fails, then what to look at, then the record.
+		lines := checkLines(pf.Findings, elec)
 		kw := p.Datasheet.PowerW / 1000
-		warnings := append(append([]string{}, p.Site.Warnings...), p.Notes...)
 		w := c.OutOrStdout()
 		if asJSON {
 			out := struct {
-				Name     string         `json:"name"`
-				Faces    []report.Face  `json:"faces"`
-				Modules  int            `json:"modules"`
-				KWp      float64        `json:"dc_kwp"`
-				Warnings []string       `json:"warnings"`
-				Checks   []report.Check `json:"checks"`
-				Cautions []string       `json:"cautions"`
+				Name     string            `json:"name"`
+				Faces    []report.Face     `json:"faces"`
+				Modules  int               `json:"modules"`
+				KWp      float64           `json:"dc_kwp"`
+				Warnings []finding.Finding `json:"warnings"`
+				Notes    []finding.Finding `json:"notes"`
+				Checks   []report.Check    `json:"checks"`
+				Cautions []string          `json:"cautions"`
 				// ModuleIDs are the placed modules, in the fill's order.
 				ModuleIDs []string `json:"module_ids"`
-			}{Name: p.Cfg.Name, Modules: len(p.Modules), KWp: float64(len(p.Modules)) * kw, Warnings: warnings,
-				Checks: elec, Cautions: report.Cautions, ModuleIDs: []string{}}
+			}{Name: p.Cfg.Name, Modules: len(p.Modules), KWp: float64(len(p.Modules)) * kw,
+				Warnings: []finding.Finding{}, Notes: []finding.Finding{}, Checks: elec, Cautions: report.Cautions, ModuleIDs: []string{}}
 			for _, m := range p.Modules {
 				out.ModuleIDs = append(out.ModuleIDs, m.ID)
 			}
-			for _, f := range p.Faces() {
+			for _, f := range pf.Findings.Sorted() {
+				if f.Severity == finding.Info {
+					out.Notes = append(out.Notes, f)
+				} else {
+					out.Warnings = append(out.Warnings, f)
+				}
+			}
+			for i, f := range p.Faces() {
+				f.AnnualPOAkWhM2 = pf.FaceKWhM2[i]
 				// Rounded as summary.json rounds them.
 				f.PlanAreaM2, f.SlopedAreaM2 = report.Round(f.PlanAreaM2, 2), report.Round(f.SlopedAreaM2, 2)
 				f.PitchDeg, f.AspectDeg, f.KWp = report.Round(f.PitchDeg, 1), report.Round(f.AspectDeg, 1), report.Round(f.KWp, 3)
+				f.AnnualPOAkWhM2 = report.Round(f.AnnualPOAkWhM2, 1)
 				out.Faces = append(out.Faces, f)
 			}
 			out.KWp = report.Round(out.KWp, 3)
-			if out.Warnings == nil {
-				out.Warnings = []string{}
-			}
 			enc := json.NewEncoder(w)
 			enc.SetIndent("", "  ")
 			if err := enc.Encode(out); err != nil {
@@ -77,24 +92,22 @@ something is wrong, with one message per problem.`,
 		}
 		fmt.Fprintf(w, "%s — %.5f, %.5f (%s)\n\n", p.Cfg.Name, p.LatDeg, p.LonDeg, p.Cfg.Timezone)
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-		fmt.Fprintln(tw, "face\tplan m²\tsloped m²\tpitch °\taspect °\tmodules\tkWp\t")
-		for _, f := range faces {
-			fmt.Fprintf(tw, "%s\t%.1f\t%.1f\t%.1f\t%.0f\t%d\t%.2f\t\n", f.ID, f.PlanAreaM2, f.SlopedAreaM2, f.PitchDeg, f.AspectDeg, f.Modules, float64(f.Modules)*kw)
+		fmt.Fprintln(tw, "face\tplan m²\tsloped m²\tpitch °\taspect °\tkWh/m² a year\tmodules\tkWp\t")
+		for i, f := range p.Faces() {
+			fmt.Fprintf(tw, "%s\t%.1f\t%.1f\t%.1f\t%.0f\t%.0f\t%d\t%.2f\t\n", f.ID, f.PlanAreaM2, f.SlopedAreaM2, f.PitchDeg, f.AspectDeg, pf.FaceKWhM2[i], f.Modules, f.KWp)
 		}
-		fmt.Fprintf(tw, "total\t\t\t\t\t%d\t%.2f\t\n", len(p.Modules), float64(len(p.Modules))*kw)
+		fmt.Fprintf(tw, "total\t\t\t\t\t\t%d\t%.2f\t\n", len(p.Modules), float64(len(p.Modules))*kw)
 		tw.Flush()
+		fmt.Fprintln(w, "(kWh/m² a year: each face's irradiation without shade, from the climate the survey uses)")
 		if len(p.Modules) > 0 {
 			fmt.Fprintln(w, "\nmodule ids (<face>.<row>.<column>; row 1 at the eave, column 1 at the left seen from below):")
 			for _, line := range moduleIDLines(p.Modules) {
 				fmt.Fprintln(w, "  "+line)
 			}
 		}
-		for _, s := range warnings {
-			fmt.Fprintln(w, "warning:", s)
-		}
 		fmt.Fprintln(w)
-		for _, ck := range elec {
-			fmt.Fprintf(w, "%-7s %s: %s\n", ck.Severity, ck.Subject, ck.Message)
+		for _, l := range lines {
+			fmt.Fprintln(w, l)
 		}
 		fmt.Fprintln(w)
 		for _, ct := range report.Cautions {
@@ -122,4 +135,22 @@ func moduleIDLines(ms []geo.Module) []string {
 		i = j
 	}
 	return lines
+}
+
+// checkLines returns check's lines worst first, each starting with its severity: the
+// findings and the electrical checks merged, the order within a severity kept.
+func checkLines(fs finding.List, elec []report.Check) []string {
+	all := append(finding.List(nil), fs...)
+	for _, ck := range elec {
+		sev, err := finding.ParseSeverity(ck.Severity)
+		if err != nil {
+			sev = finding.Warning
+		}
+		all = append(all, finding.Finding{Severity: sev, Subject: ck.Subject, Message: ck.Message})
+	}
+	var out []string
+	for _, f := range all.Sorted() {
+		out = append(out, f.String())
+	}
+	return out
 }

@@ -283,6 +283,20 @@ func TestBadInputCatalogue(t *testing.T) {
 			if strings.Contains(errs, "goroutine ") || strings.Contains(errs, "panic") {
 				t.Errorf("stack trace in message:\n%s", errs)
 			}
+			if args[0] == "survey" {
+				// check must refuse whatever the survey refuses as bad input, with the same
+				// fragments: a surveyor who runs check first learns everything there.
+				cargs := append([]string{"check"}, args[1:len(args)-2]...)
+				_, cerrs, ccode := run(t, cargs...)
+				if ccode != 2 {
+					t.Errorf("check: exit %d, want 2 as the survey; stderr:\n%s", ccode, cerrs)
+				}
+				for _, w := range strings.Split(strings.TrimSpace(string(want)), "\n") {
+					if !strings.Contains(cerrs, w) {
+						t.Errorf("check's message lacks %q:\n%s", w, cerrs)
+					}
+				}
+			}
 			if _, err := os.Stat(out); err == nil {
 				t.Error("an output folder was created")
 			}

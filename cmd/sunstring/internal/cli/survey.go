@@ -109,8 +109,8 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		if len(best.Layouts) > 0 {
 			fmt.Fprintf(w, "best layout %q loses %.1f %% to shade\n", best.Layouts[0].Name, best.Layouts[0].ShadeLossPct)
 		}
-		for _, s := range best.Warnings {
-			fmt.Fprintln(c.ErrOrStderr(), "warning:", s)
+		for _, f := range best.Warnings {
+			fmt.Fprintln(c.ErrOrStderr(), f)
 		}
 		fmt.Fprintln(w, "caution: estimates only; local codes and a licensed installer have the final word on voltages, currents and layouts.")
 		fmt.Fprintf(w, "wrote %s\n", out)
