@@ -398,7 +398,7 @@ func decodeEfficiency(v any) ([][2]float64, string) {
 		return 0, false
 	}
 	if x, ok := num(v); ok {
-		if x <= 50 || x > 100 {
+		if !(x > 50 && x <= 100) { // written so that NaN (".nan" in YAML) fails too
 			return nil, fmt.Sprintf("%g %% is outside 50 to 100 %%", x)
 		}
 		return [][2]float64{{1, x / 100}}, ""
@@ -415,7 +415,7 @@ func decodeEfficiency(v any) ([][2]float64, string) {
 		}
 		lf, ok1 := num(pair[0])
 		e, ok2 := num(pair[1])
-		if !ok1 || !ok2 || lf <= 0 || lf > 1.2 || e <= 0 || e > 100 {
+		if !ok1 || !ok2 || !(lf > 0 && lf <= 1.2 && e > 0 && e <= 100) { // NaN fails too
 			return nil, fmt.Sprintf("point %d %v: load fraction must be in (0, 1.2], efficiency in (0, 100] %%", i+1, pair)
 		}
 		if len(out) > 0 && lf <= out[len(out)-1][0] {

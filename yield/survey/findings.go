@@ -32,7 +32,8 @@ func (p *Project) loadFindings(mapPath string, fitNotes, fillNotes []string) fin
 	m := cfg.Module
 	_, fs := plausible.Module(cfg.File+": module (power_w, length_m, width_m)", m.PowerW, m.LengthM, m.WidthM)
 	out = append(out, fs...)
-	if len(p.Modules) > 0 {
+	// With a module size that cannot be, the module count and so the DC/AC ratio mean nothing.
+	if len(p.Modules) > 0 && fs.Worst() < finding.Fail {
 		_, fs = plausible.DCAC(cfg.File+": inverter.ac_power_w", float64(len(p.Modules))*m.PowerW, cfg.Inverter.ACPowerW)
 		out = append(out, fs...)
 	}

@@ -1,0 +1,24 @@
+package report
+
+import (
+	"bytes"
+	"testing"
+)
+
+func TestProposalWithEmojiName(t *testing.T) {
+	pr := fixture("file")
+	pr.Summary.Site.Name = "Haus Sonnenschein ☀️ 🏠 — 日当たり"
+	pr.Summary.Faces[0].ID = "Süd 🌞"
+	for _, render := range []func() ([]byte, error){pr.PDF, pr.TechnicalPDF} {
+		b, err := render()
+		if err != nil {
+			t.Fatalf("PDF with emoji in the name: %v", err)
+		}
+		if !bytes.HasPrefix(b, []byte("%PDF")) {
+			t.Error("not a PDF")
+		}
+	}
+	if pr.Summary.Site.Name != "Haus Sonnenschein ☀️ 🏠 — 日当たり" {
+		t.Errorf("the summary's name was changed to %q", pr.Summary.Site.Name)
+	}
+}
