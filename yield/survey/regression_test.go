@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 	"time"
 
@@ -31,6 +32,14 @@ type regression struct {
 	PR            float64     `json:"performance_ratio"`
 	MonthlyACkWh  [12]float64 `json:"monthly_ac_kwh"`
 	Losses        []lossRow   `json:"losses"`
+	// Alternatives are the same layout with other hardware (a plain tracker, converters on
+	// every module at the documented 98.5 %, on the most shaded few).
+	Alternatives []altRow `json:"alternatives"`
+}
+
+type altRow struct {
+	Name        string  `json:"name"`
+	AnnualACkWh float64 `json:"annual_ac_kwh"`
 }
 
 type lossRow struct {
@@ -105,6 +114,13 @@ func TestExampleRegression(t *testing.T) {
 	for _, l := range s.Losses {
 		got.Losses = append(got.Losses, lossRow{l.Step, l.KWh})
 	}
+	for _, a := range s.Alternatives {
+		got.Alternatives = append(got.Alternatives, altRow{a.Name, a.AnnualACkWh})
+		// The documented converter efficiency, stated where the surveyor reads it.
+		if a.Name == "module-level converters" && !strings.Contains(a.Note, "98.5 %") {
+			t.Errorf("module-level alternative does not state the 98.5 %% converters: %q", a.Note)
+		}
+	}
 	file := filepath.Join("testdata", "regression.json")
 	if *update {
 		// Rounded well below the 0.1 % tolerance, so that the file reads easily.
@@ -117,6 +133,10 @@ func TestExampleRegression(t *testing.T) {
 		out.Losses = nil
 		for _, l := range got.Losses {
 			out.Losses = append(out.Losses, lossRow{l.Step, r(l.KWh, 2)})
+		}
+		out.Alternatives = nil
+		for _, a := range got.Alternatives {
+			out.Alternatives = append(out.Alternatives, altRow{a.Name, r(a.AnnualACkWh, 2)})
 		}
 		b, err := json.MarshalIndent(out, "", "  ")
 		if err != nil {
@@ -156,5 +176,15 @@ func TestExampleRegression(t *testing.T) {
 			continue
 		}
 		near("loss "+w.Step, got.Losses[i].KWh, w.KWh, 0.5)
+	}
+	if len(got.Alternatives) != len(want.Alternatives) {
+		t.Fatalf("%d alternatives, regression has %d", len(got.Alternatives), len(want.Alternatives))
+	}
+	for i, w := range want.Alternatives {
+		if got.Alternatives[i].Name != w.Name {
+			t.Errorf("alternative %d is %q, regression %q", i, got.Alternatives[i].Name, w.Name)
+			continue
+		}
+		near("alternative "+w.Name, got.Alternatives[i].AnnualACkWh, w.AnnualACkWh, 0.5)
 	}
 }
