@@ -554,7 +554,11 @@ func leftOut(f framed) string {
 func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	p := plot.New()
 	f := planBase(pl, p, w, h, reachM)
-	styleTitle(p, "Roof plan: sunlight on each module in a year\nlabels: row.column of the face, and the share of its light lost to shade"+leftOut(f))
+	labels := "labels: row.column of the face, and the share of its light lost to shade"
+	if _, lines := moduleLabelSize(pl, f); lines == 0 {
+		labels = "rows numbered beside each face, columns below it"
+	}
+	styleTitle(p, "Roof plan: sunlight on each module in a year\n"+labels+leftOut(f))
 	ref := 0.0
 	for _, m := range pl.Modules {
 		ref = math.Max(ref, m.UnshadedKWhM2)
@@ -596,6 +600,9 @@ func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 			for i, m := range pl.Modules {
 				ls[i] = Printable(m.Label())
 			}
+		}
+		if lines == 0 {
+			gridLabels(pl, p)
 		}
 		if lines > 0 {
 			l, err := plotter.NewLabels(plotter.XYLabels{XYs: xy, Labels: ls})
@@ -654,6 +661,75 @@ func moduleLabelSize(pl *Plan, f framed) (size float64, lines int) {
 		}
 	}
 	return 0, 0
+}
+
+// gridLabels numbers the rows beside each face's first column and the columns below its
+// eave row, for modules too small to carry their row.column.
+func gridLabels(pl *Plan, p *plot.Plot) {
+	type key struct {
+		face string
+		n    int
+	}
+	rowFirst, colFirst := map[key]int{}, map[key]int{}
+	rc := make([][2]int, len(pl.Modules))
+	var rows, cols []key
+	for i, m := range pl.Modules {
+		var r, c int
+		if _, err := fmt.Sscanf(m.Label(), "%d.%d", &r, &c); err != nil || m.Label() != fmt.Sprintf("%d.%d", r, c) {
+			continue // drawn by hand: no row and column
+		}
+		rc[i] = [2]int{r, c}
+		if j, ok := rowFirst[key{m.Face, r}]; !ok || c < rc[j][1] {
+			if !ok {
+				rows = append(rows, key{m.Face, r})
+			}
+			rowFirst[key{m.Face, r}] = i
+		}
+		if j, ok := colFirst[key{m.Face, c}]; !ok || r < rc[j][0] {
+			if !ok {
+				cols = append(cols, key{m.Face, c})
+			}
+			colFirst[key{m.Face, c}] = i
+		}
+	}
+	at := map[[3]string]int{}
+	for i, m := range pl.Modules {
+		if rc[i][0] > 0 {
+			at[[3]string{m.Face, fmt.Sprint(rc[i][0]), fmt.Sprint(rc[i][1])}] = i
+		}
+	}
+	// step is the centre-to-centre vector from module i to its neighbour dr rows and dc
+	// columns on (the module's own size when it has none).
+	step := func(i, dr, dc int) (float64, float64) {
+		m := pl.Modules[i]
+		x, y := centre(m.Corners)
+		if j, ok := at[[3]string{m.Face, fmt.Sprint(rc[i][0] + dr), fmt.Sprint(rc[i][1] + dc)}]; ok {
+			x2, y2 := centre(pl.Modules[j].Corners)
+			return x2 - x, y2 - y
+		}
+		w, h := extent(m.Corners[:])
+		if dc != 0 {
+			return w, 0
+		}
+		return 0, h
+	}
+	var xy plotter.XYs
+	var ls []string
+	for _, k := range rows {
+		i := rowFirst[k]
+		x, y := centre(pl.Modules[i].Corners)
+		dx, dy := step(i, 0, 1)
+		xy = append(xy, plotter.XY{X: x - 0.85*dx, Y: y - 0.85*dy})
+		ls = append(ls, fmt.Sprint(k.n))
+	}
+	for _, k := range cols {
+		i := colFirst[k]
+		x, y := centre(pl.Modules[i].Corners)
+		dx, dy := step(i, 1, 0)
+		xy = append(xy, plotter.XY{X: x - 0.8*dx, Y: y - 0.8*dy})
+		ls = append(ls, fmt.Sprint(k.n))
+	}
+	addLabels(p, xy, ls, 5, Ink, text.XCenter, text.YCenter)
 }
 
 // StringsChart draws the chosen layout on the roof: each string's modules in the string's
@@ -729,6 +805,8 @@ func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	}
 	if size, lines := moduleLabelSize(pl, f); lines > 0 {
 		addLabels(p, ix, il, math.Min(size, 5), Ink, text.XCenter, text.YCenter)
+	} else {
+		gridLabels(pl, p)
 	}
 	faceLabels(pl, p)
 	obstacleLegend(pl, p, f, unconnected)

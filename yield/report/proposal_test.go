@@ -370,3 +370,30 @@ func inkShare(img image.Image) float64 {
 	}
 	return float64(n) / float64(r.Dx()*r.Dy())
 }
+
+// TestPlanLabelsFallBackToRowsAndColumns: when a far obstacle shrinks the modules below a
+// readable label, the plan numbers rows and columns at the faces' edges instead, and says so.
+func TestPlanLabelsFallBackToRowsAndColumns(t *testing.T) {
+	tests := []struct {
+		name  string
+		treeX float64 // a tree this far east of the roof, m
+		want  string
+	}{
+		{"near obstacles: labels on the modules", -3, "row.column of the face"},
+		{"an obstacle 35 m away: rows and columns", 40, "rows numbered beside each face"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			pr := fixture("file")
+			pr.Plan.Trees = []TreeMark{{ID: "far", X: tc.treeX, Y: -20, CrownRadiusM: 3}}
+			pr.fillPlan()
+			p := PlanChart(pr.Plan, 16*vg.Centimeter, 13*vg.Centimeter)
+			if !strings.Contains(p.Title.Text, tc.want) {
+				t.Errorf("title %q, want it to say %q", p.Title.Text, tc.want)
+			}
+			if _, err := Render(p, 16*vg.Centimeter, 13*vg.Centimeter, PNG); err != nil {
+				t.Fatal(err)
+			}
+		})
+	}
+}
