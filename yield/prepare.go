@@ -284,6 +284,9 @@ func (p *prep) shadedYear() error {
 	if err != nil {
 		return fmt.Errorf("yield: module curves: %w", err)
 	}
+	if in.Progress != nil {
+		in.Progress("module curves", steps, steps)
+	}
 	m.Year = year
 	return nil
 }
@@ -309,6 +312,9 @@ func (p *prep) unshadedYear() error {
 	})
 	if err != nil {
 		return fmt.Errorf("yield: unshaded module curves: %w", err)
+	}
+	if in.Progress != nil {
+		in.Progress("unshaded reference", len(p.ups), len(p.ups))
 	}
 	return nil
 }
