@@ -86,7 +86,12 @@ func (pr *Proposal) checks(d *pdfDoc) {
 			if c.Severity != "info" {
 				sev = strings.ToUpper(c.Severity) + ": "
 			}
-			items = append(items, fmt.Sprintf("%s%s: %s", sev, c.Subject, strings.TrimSuffix(c.Message, ".")))
+			item := fmt.Sprintf("%s%s: %s", sev, c.Subject, strings.TrimSuffix(c.Message, "."))
+			if c.Detail != "" {
+				// The installer-facing detail: where the limit comes from, what is assumed.
+				item += ". " + strings.TrimSuffix(c.Detail, ".")
+			}
+			items = append(items, item)
 		}
 		d.bullets(items)
 	} else {
