@@ -77,6 +77,7 @@ type decoder struct {
 	data  []byte
 	probs Problems
 	warns []string
+	notes []string
 	proj  *ENU
 	lat0  float64        // the site origin's latitude, for hemisphere defaults
 	ids   map[string]int // feature index by id, for ids that kinds derive
@@ -120,6 +121,7 @@ func Decode(r io.Reader, opt DecodeOptions) (*Site, error) {
 		return nil, d.probs
 	}
 	d.site.Warnings = append(d.site.Warnings, d.warns...)
+	d.site.Notes = append(d.site.Notes, d.notes...)
 	return d.site, nil
 }
 
@@ -183,4 +185,21 @@ func (d *decoder) warn(f *rawFeature, msg string) {
 		id = fmt.Sprintf(" (id %q)", f.id)
 	}
 	d.warns = append(d.warns, fmt.Sprintf("%s: feature %d%s: %s", name, f.index, id, msg))
+}
+
+// note records a remark for the record (Site.Notes), located like a warning.
+func (d *decoder) note(f *rawFeature, msg string) {
+	name := d.opt.File
+	if name == "" {
+		name = "map"
+	}
+	if f == nil {
+		d.notes = append(d.notes, name+": "+msg)
+		return
+	}
+	id := ""
+	if f.id != "" {
+		id = fmt.Sprintf(" (id %q)", f.id)
+	}
+	d.notes = append(d.notes, fmt.Sprintf("%s: feature %d%s: %s", name, f.index, id, msg))
 }

@@ -2,6 +2,7 @@ package geo
 
 import (
 	"fmt"
+	"math"
 
 	"github.com/paulmach/orb"
 	"github.com/paulmach/orb/planar"
@@ -15,11 +16,49 @@ func (d *decoder) crossChecks(raws []*rawFeature) {
 		byIndex[f.index] = f
 	}
 	faces := d.site.Faces
+	for i := range d.site.Blocks {
+		b := &d.site.Blocks[i]
+		if b.AboveRoofM == 0 && b.HeightM != b.BaseM { // height_m given (a block from height_m is never flat at its base)
+			continue
+		}
+		roof := math.Inf(-1)
+		for _, p := range footprintSamples(b.Footprint) {
+			if k := faceAt(faces, p); k >= 0 {
+				roof = math.Max(roof, faces[k].HeightAt(p))
+			}
+		}
+		f := byIndex[b.Index]
+		if math.IsInf(roof, -1) {
+			d.fproblem(f, f.props.member("height_above_roof_m"), "height_above_roof_m", "the block stands on no roof face, so there is no roof to measure from; give height_m, its top above the ground")
+			continue
+		}
+		b.HeightM = roof + b.AboveRoofM
+	}
 	for j := range faces {
 		for i := range j {
-			if ringsOverlap(faces[i].Plan, faces[j].Plan, overlapTolM) {
-				f := byIndex[faces[j].Index]
-				d.fproblem(f, f.n.member("geometry"), "geometry", fmt.Sprintf("overlaps roof face %q (feature %d) in plan; faces may share edges but not cover each other", faces[i].ID, faces[i].Index))
+			// Measured, not only tested: outlines drawn along each other's edges share area
+			// without any corner inside the other.
+			accepted, msg, shared := d.faceOverlap(i, j)
+			if !shared && ringsOverlap(faces[i].Plan, faces[j].Plan, overlapTolM) {
+				accepted, msg = false, fmt.Sprintf("overlaps roof face %q (feature %d) in plan; faces may share edges but not cover each other", faces[i].ID, faces[i].Index)
+			} else if !shared {
+				continue
+			}
+			f := byIndex[faces[j].Index]
+			if accepted {
+				d.note(f, msg)
+			} else {
+				d.fproblem(f, f.n.member("geometry"), "geometry", msg)
+			}
+		}
+	}
+	// Hand-drawn panels are modules: two on one spot would count the same roof twice.
+	panels := d.site.Panels
+	for j := range panels {
+		for i := range j {
+			if area, _, width := overlapArea(panels[i].Outline, panels[j].Outline); width > overlapTolM || ringsOverlap(panels[i].Outline, panels[j].Outline, overlapTolM) {
+				f := byIndex[panels[j].Index]
+				d.fproblem(f, f.n.member("geometry"), "geometry", fmt.Sprintf("overlaps panel %q (feature %d) by %.2f m²; panels drawn by hand are modules and cannot overlap: move or delete one", panels[i].ID, panels[i].Index, area))
 			}
 		}
 	}

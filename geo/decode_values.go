@@ -71,3 +71,16 @@ func (d *decoder) source(f *rawFeature) string {
 	}
 	return ""
 }
+
+// flag reads an optional true/false property; absent or null is false.
+func (d *decoder) flag(f *rawFeature, name string) bool {
+	n := f.props.member(name)
+	if n == nil || n.kind == 'z' {
+		return false
+	}
+	if n.kind != 'b' {
+		d.fproblem(f, n, name, fmt.Sprintf("must be true or false, got %s", jsonText(nil, n)))
+		return false
+	}
+	return n.b
+}

@@ -278,6 +278,12 @@ func Fill(site *Site, opt FillOptions) (mods []Module, notes []string, err error
 	}
 	for i := range site.Faces {
 		f := &site.Faces[i]
+		if f.KeepEmpty {
+			if len(panelsOn[i]) > 0 {
+				notes = append(notes, fmt.Sprintf("face %q is marked keep_empty, but %d panel(s) are drawn on it; they are ignored", f.ID, len(panelsOn[i])))
+			}
+			continue // the surveyor's choice: no module, and nothing to warn about
+		}
 		fr := newFrame(f)
 		obstacles, names := faceObstacles(site, f, fr)
 		if ps := panelsOn[i]; len(ps) > 0 {

@@ -11,7 +11,7 @@ import (
 var blockKind = kind{
 	name:     "block",
 	geometry: "Polygon",
-	props:    []string{"id", "height_m", "base_m", "ridge_m", "ridge_azimuth_deg", "roof_shape", "source"},
+	props:    []string{"id", "height_m", "height_above_roof_m", "base_m", "ridge_m", "ridge_azimuth_deg", "roof_shape", "source"},
 	build:    (*decoder).block,
 	export: func(e *exporter, s *Site) []exportItem {
 		var out []exportItem
@@ -49,12 +49,36 @@ func (d *decoder) block(f *rawFeature) {
 		baseRule   = "base_m is the block's bottom above the site's ground, between -100 and 1000 m (default 0)"
 		ridgeRule  = "ridge_m is the ridge height of a gable-roofed block above ground, higher than height_m"
 		razRule    = "ridge_azimuth_deg is the ridge's direction clockwise from north, 0 to below 360"
+		aboveRule  = "height_above_roof_m is a chimney's top above the roof face it stands on, 0 to 100 m (instead of height_m)"
 	)
 	plan, pts, _, ok := d.ring3(f)
 	if !ok {
 		return
 	}
 	b := Block{ID: f.id, Index: f.index, Footprint: plan}
+	// A chimney is measured on the roof: its height above the roof may be given instead, and
+	// becomes a height above the ground once the faces are known (crossChecks).
+	above, hasAbove, okAbove := d.prop(f, "height_above_roof_m", 0, 100, false, aboveRule)
+	if hasAbove {
+		switch {
+		case !okAbove:
+			return
+		case f.props.member("height_m") != nil:
+			d.fproblem(f, f.props.member("height_above_roof_m"), "height_above_roof_m", "give height_m (the top above the ground) or height_above_roof_m (the top above the roof it stands on), not both")
+			return
+		case f.props.member("ridge_m") != nil:
+			d.fproblem(f, f.props.member("height_above_roof_m"), "height_above_roof_m", "is for flat-topped blocks such as chimneys; for a gable-roofed block give height_m and ridge_m above the ground")
+			return
+		}
+		base, _, okB := d.prop(f, "base_m", -100, 1000, false, baseRule)
+		if !okB {
+			return
+		}
+		b.BaseM, b.AboveRoofM, b.HeightM = base, above, base+above // HeightM is settled in crossChecks
+		b.Source = d.source(f)
+		d.site.Blocks = append(d.site.Blocks, b)
+		return
+	}
 	h, okH := d.need(f, "height_m", -100, 1000, false, heightRule)
 	base, hasBase, okB := d.prop(f, "base_m", -100, 1000, false, baseRule)
 	if !hasBase && f.rings[0][0].has3 {

@@ -11,7 +11,7 @@ import (
 var roofKind = kind{
 	name:     "roof",
 	geometry: "Polygon",
-	props:    []string{"id", "pitch_deg", "aspect_deg", "eave_height_m"},
+	props:    []string{"id", "pitch_deg", "aspect_deg", "eave_height_m", "keep_empty"},
 	build:    (*decoder).roof,
 	export: func(e *exporter, s *Site) []exportItem {
 		var out []exportItem
@@ -21,8 +21,12 @@ var roofKind = kind{
 				continue // written as its building
 			}
 			out = append(out, exportItem{index: f.Index, write: func(b *bytes.Buffer) error {
-				return e.feature(b, e.ring(f.Plan), kv{"kind", "roof"}, kv{"id", f.ID},
-					kv{"pitch_deg", round(f.PitchDeg)}, kv{"aspect_deg", round(f.AspectDeg)}, kv{"eave_height_m", round(f.EaveHeightM)})
+				ps := []kv{{"kind", "roof"}, {"id", f.ID},
+					{"pitch_deg", round(f.PitchDeg)}, {"aspect_deg", round(f.AspectDeg)}, {"eave_height_m", round(f.EaveHeightM)}}
+				if f.KeepEmpty {
+					ps = append(ps, kv{"keep_empty", true})
+				}
+				return e.feature(b, e.ring(f.Plan), ps...)
 			}})
 		}
 		return out
@@ -39,7 +43,7 @@ func (d *decoder) roof(f *rawFeature) {
 	if !ok {
 		return
 	}
-	face := Face{ID: f.id, Index: f.index, Plan: plan}
+	face := Face{ID: f.id, Index: f.index, Plan: plan, KeepEmpty: d.flag(f, "keep_empty")}
 	if !f.rings[0][0].has3 {
 		pitch, ok1 := d.need(f, "pitch_deg", 0, MaxPitchDeg, false, pitchRule)
 		aspect, ok2 := d.need(f, "aspect_deg", 0, 360, true, aspectRule)

@@ -20,6 +20,9 @@ type Site struct {
 	Panels    []Panel
 	// Warnings are problems that do not stop a survey (for the surveyor to read).
 	Warnings []string
+	// Notes are remarks for the record: what the reading settled by itself (a small overlap
+	// between faces trimmed).
+	Notes []string
 }
 
 // Face is a planar roof face.
@@ -41,6 +44,10 @@ type Face struct {
 
 	// Building is the id of the building whose roof the face is; empty for a face drawn by hand.
 	Building string
+
+	// KeepEmpty reports whether the surveyor wants no module on the face (map property
+	// keep_empty: true): it still shades and is still drawn, but Fill leaves it alone.
+	KeepEmpty bool
 }
 
 // Downhill returns the horizontal unit vector the face slopes toward.
@@ -84,6 +91,9 @@ type Block struct {
 	Footprint orb.Ring // counter-clockwise, closed, local metres
 	BaseM     float64  // bottom above ground
 	HeightM   float64  // top of the walls (the eaves, for a pitched block) above ground
+	// AboveRoofM is the height above the roof the surveyor gave (height_above_roof_m), 0 when
+	// HeightM was given; HeightM is then the roof's highest point under the footprint plus it.
+	AboveRoofM float64
 
 	// RidgeM is the ridge height above ground of a gable-roofed block; 0 means a flat top at
 	// HeightM. The ridge runs through the footprint's centroid in direction RidgeAzimuthDeg

@@ -19,6 +19,9 @@ func (p *Project) loadFindings(mapPath string, fitNotes, fillNotes []string) fin
 	for _, w := range p.Site.Warnings {
 		out = append(out, finding.Finding{Severity: finding.Warning, Code: "map", Message: w})
 	}
+	for _, n := range p.Site.Notes {
+		out = append(out, finding.Finding{Severity: finding.Info, Code: "map_note", Message: n})
+	}
 	for _, pr := range p.Site.SunkBlocks() {
 		pr.File = mapPath
 		out = append(out, finding.Finding{Severity: finding.Warning, Code: "block_below_roof", Message: pr.String()})
