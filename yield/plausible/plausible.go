@@ -161,7 +161,7 @@ func PoorFaces(faces []FaceIrradiation) (out finding.List) {
 			continue
 		}
 		out.Add(finding.Warning, "poor_face", f.Subject,
-			"face %q receives %.0f kWh/m² a year, %.0f %% less than face %q (%.0f kWh/m²); its %d modules earn %.0f %% less each. Keep it empty (keep_empty: true on the face) unless the customer wants the extra energy at that price",
+			"face %q receives %.0f kWh/m² a year, %.0f %% less than face %q (%.0f kWh/m²); its %d module(s) earn about %.0f %% less each. Keep it empty (keep_empty: true on its roof feature) unless the customer wants the extra energy at that price",
 			f.ID, f.KWhM2, (1-share)*100, b.ID, b.KWhM2, f.Modules, (1-share)*100)
 	}
 	return out
