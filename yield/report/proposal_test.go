@@ -397,3 +397,31 @@ func TestPlanLabelsFallBackToRowsAndColumns(t *testing.T) {
 		})
 	}
 }
+
+// TestLongLayoutNameWraps: a layout name longer than its column wraps inside it instead of
+// running over the next columns (pdftotext then runs the two together, "3 + 3over"), and a
+// one-input inverter reads "1 MPPT input".
+func TestLongLayoutNameWraps(t *testing.T) {
+	pr := fixture("file")
+	pr.Summary.Layouts[0].Name = "strings of 3 and 3, shaded modules spread over one input's strings, strings in parallel"
+	pr.Equipment.InverterInputs = 1
+	pr.Equipment.BypassDiodes = 1
+	b, err := pr.TechnicalPDF()
+	if err != nil {
+		t.Fatal(err)
+	}
+	txt := pdfText(t, b)
+	if !regexp.MustCompile(`(?m)^ *1 strings of 3 and 3,.* 3 ?\+ ?3 +2,346`).MatchString(txt) {
+		t.Errorf("the strings column \"3 + 3\" is run together with the layout's name")
+	}
+	for _, want := range []string{"1 MPPT input,", "1 bypass diode\n"} {
+		if !strings.Contains(txt, want) {
+			t.Errorf("%q missing from the technical sheet", want)
+		}
+	}
+	for _, bad := range []string{"1 MPPT inputs", "1 bypass diodes"} {
+		if strings.Contains(txt, bad) {
+			t.Errorf("the technical sheet holds %q", bad)
+		}
+	}
+}
