@@ -29,6 +29,10 @@
 // naming the element, so that the surveyor knows what to measure on site. Ids are the elements' own: "way/123", "node/45",
 // "relation/6" (with "#2", "#3" for a relation's further outer rings).
 //
+// ReadGeoJSON reads the same from GeoJSON whose features carry the elements' tags as
+// properties, as converters of OpenStreetMap data write it; HasKinds tells such a file from a
+// GeoJSON of sunstring's own block and tree features, which geo.Decode reads.
+//
 // The reading is strict: a file that is not OSM XML, an element whose attributes do not parse,
 // a building way that is not closed or whose nodes are missing, a tag value that is not a
 // number where one is needed, is refused with the file, line and element. An OSM PBF file is

@@ -72,6 +72,8 @@ type reader struct {
 	probs  geo.Problems
 	out    geo.Surroundings
 	nodes  map[posm.NodeID]*posm.Node
+	// feature is the feature index of each id read from GeoJSON, for messages.
+	feature map[string]int
 }
 
 // Read reads an OSM XML extract and returns its buildings as blocks and its trees as trees, in
@@ -196,6 +198,10 @@ func (rd *reader) fail(line int, msg string) geo.Problems {
 
 // problem records a problem with an element.
 func (rd *reader) problem(id, field, msg string) {
+	if i, ok := rd.feature[id]; ok {
+		rd.probs = append(rd.probs, geo.Problem{File: rd.opt.File, Index: i, ID: id, Field: field, Msg: msg})
+		return
+	}
 	if field != "" {
 		msg = field + ": " + msg
 	}
@@ -234,7 +240,7 @@ func (rd *reader) node(n *posm.Node, k int) {
 	}
 	rd.nodes[n.ID] = n
 	if n.Tags.Find("natural") == "tree" {
-		rd.tree(id, n)
+		rd.tree(id, n.Tags, n.Lon, n.Lat)
 	}
 }
 
@@ -280,9 +286,9 @@ func (rd *reader) count(id string, ts posm.Tags, key string, lo, hi float64, wha
 var compass = map[string]float64{"N": 0, "NNE": 22.5, "NE": 45, "ENE": 67.5, "E": 90, "ESE": 112.5, "SE": 135, "SSE": 157.5,
 	"S": 180, "SSW": 202.5, "SW": 225, "WSW": 247.5, "W": 270, "WNW": 292.5, "NW": 315, "NNW": 337.5}
 
-func (rd *reader) tree(id string, n *posm.Node) {
-	h, hasH, okH := rd.metres(id, n.Tags, "height")
-	d, hasD, okD := rd.metres(id, n.Tags, "diameter_crown")
+func (rd *reader) tree(id string, ts posm.Tags, lon, lat float64) {
+	h, hasH, okH := rd.metres(id, ts, "height")
+	d, hasD, okD := rd.metres(id, ts, "diameter_crown")
 	if !okH || !okD {
 		return
 	}
@@ -294,12 +300,12 @@ func (rd *reader) tree(id string, n *posm.Node) {
 		d = DefaultCrownFraction * h
 		rd.warn(id, fmt.Sprintf("a tree without diameter_crown: assumed %g m, %g of its height (measure it on site)", d, DefaultCrownFraction))
 	}
-	trunk := rd.proj.Forward(n.Lon, n.Lat, rd.proj.HeightM).Plan()
+	trunk := rd.proj.Forward(lon, lat, rd.proj.HeightM).Plan()
 	rd.out.Trees = append(rd.out.Trees, geo.Tree{ID: id, Trunk: trunk, HeightM: h, CrownRadiusM: d / 2,
 		CrownBaseM: math.Max(0, h-d), Shape: geo.CrownEllipsoid})
 }
 
-// building turns one outline and its tags into a block.
+// building turns one way and its tags into a block.
 func (rd *reader) building(id string, ts posm.Tags, nds posm.WayNodes, line int) {
 	if line > 0 {
 		rd.line[id] = line
@@ -308,14 +314,24 @@ func (rd *reader) building(id string, ts posm.Tags, nds posm.WayNodes, line int)
 		rd.problem(id, "", fmt.Sprintf("a building outline must be closed (its last node the first) with at least three corners; it has %d nodes", len(nds)))
 		return
 	}
-	var ring orb.Ring
+	var lonlat []orb.Point
 	for _, nd := range nds[:len(nds)-1] {
 		n := rd.nodes[nd.ID]
 		if n == nil {
 			rd.problem(id, "", fmt.Sprintf("node %d is not in the file; export the extract with every node of its ways", nd.ID))
 			return
 		}
-		p := rd.proj.Forward(n.Lon, n.Lat, rd.proj.HeightM).Plan()
+		lonlat = append(lonlat, orb.Point{n.Lon, n.Lat})
+	}
+	rd.block(id, ts, lonlat)
+}
+
+// block turns an outline (longitude/latitude, without its closing corner) and its tags into a
+// block.
+func (rd *reader) block(id string, ts posm.Tags, lonlat []orb.Point) {
+	var ring orb.Ring
+	for _, q := range lonlat {
+		p := rd.proj.Forward(q[0], q[1], rd.proj.HeightM).Plan()
 		if k := len(ring); k > 0 && math.Hypot(p[0]-ring[k-1][0], p[1]-ring[k-1][1]) < 1e-3 {
 			continue
 		}

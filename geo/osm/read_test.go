@@ -187,6 +187,55 @@ func TestReadBad(t *testing.T) {
 	}
 }
 
+// TestReadGeoJSON: the neighbour and the oak read from GeoJSON with OpenStreetMap tags are the
+// same block and tree as from the XML extract; the road is passed over.
+func TestReadGeoJSON(t *testing.T) {
+	x, err := readFile(t, "testdata/street.osm")
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := os.ReadFile("testdata/street.geojson")
+	if err != nil {
+		t.Fatal(err)
+	}
+	g, err := ReadGeoJSON(bytes.NewReader(data), geo.NewENU(15.4, 47.1, 0), Options{File: "street.geojson"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(g.Blocks) != 1 || len(g.Trees) != 1 {
+		t.Fatalf("%d blocks, %d trees; want the neighbour and the oak", len(g.Blocks), len(g.Trees))
+	}
+	a, b := blockByID(x, "way/200"), g.Blocks[0]
+	if b.ID != "way/200" || a.HeightM != b.HeightM || a.RidgeM != b.RidgeM || a.RidgeAzimuthDeg != b.RidgeAzimuthDeg {
+		t.Errorf("GeoJSON block %+v, XML block %+v", b, a)
+	}
+	for k := range a.Footprint {
+		if d := math.Hypot(a.Footprint[k][0]-b.Footprint[k][0], a.Footprint[k][1]-b.Footprint[k][1]); d > 1e-3 {
+			t.Errorf("corner %d %.4f m apart", k, d)
+		}
+	}
+	if ta, tb := x.Trees[0], g.Trees[0]; tb.ID != "node/300" || ta.HeightM != tb.HeightM || ta.CrownRadiusM != tb.CrownRadiusM || ta.CrownBaseM != tb.CrownBaseM {
+		t.Errorf("GeoJSON tree %+v, XML tree %+v", tb, ta)
+	}
+	if HasKinds(data) {
+		t.Error("OpenStreetMap-tagged GeoJSON taken for a map of kinds")
+	}
+	tests := []struct{ file, want string }{
+		{"building-point", `building-point.geojson: feature 0 (id "way/5"): geometry: a building needs a Polygon or MultiPolygon, got Point`},
+		{"open-ring", `open-ring.geojson: feature 0 (id "feature/0"): geometry: a building's outline must be a closed ring`},
+	}
+	for _, tc := range tests {
+		data, err := os.ReadFile("testdata/bad/" + tc.file + ".geojson")
+		if err != nil {
+			t.Fatal(err)
+		}
+		_, err = ReadGeoJSON(bytes.NewReader(data), geo.NewENU(15.4, 47.1, 0), Options{File: tc.file + ".geojson"})
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%s: error %v, want %q", tc.file, err, tc.want)
+		}
+	}
+}
+
 // FuzzRead: whatever the bytes, Read returns an error or obstacles with finite sizes.
 func FuzzRead(f *testing.F) {
 	for _, p := range []string{"testdata/street.osm", "testdata/bad/syntax.osm", "testdata/bad/missing-node.osm"} {

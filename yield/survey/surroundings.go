@@ -36,8 +36,12 @@ func (p *Project) loadSurroundings(read ReadFunc) error {
 		switch format {
 		case "osm":
 			imp, err = osm.Read(bytes.NewReader(raw), p.Site.Proj, osm.Options{File: path})
-		default:
-			imp, err = geoJSONSurroundings(raw, path, p.Site.Proj, cfg.ElevationM)
+		case "geojson":
+			if osm.HasKinds(raw) {
+				imp, err = geoJSONSurroundings(raw, path, p.Site.Proj, cfg.ElevationM)
+			} else {
+				imp, err = osm.ReadGeoJSON(bytes.NewReader(raw), p.Site.Proj, osm.Options{File: path})
+			}
 		}
 		if err != nil {
 			return err
@@ -49,7 +53,8 @@ func (p *Project) loadSurroundings(read ReadFunc) error {
 	return nil
 }
 
-// geoJSONSurroundings reads a GeoJSON of blocks and trees, strictly, in the site's frame.
+// geoJSONSurroundings reads a GeoJSON of blocks and trees (sunstring's kinds), strictly, in the
+// site's frame.
 func geoJSONSurroundings(raw []byte, path string, proj *geo.ENU, elev *float64) (*geo.Surroundings, error) {
 	lon, lat, _ := proj.Inverse(geo.Vec3{})
 	s, err := geo.Decode(bytes.NewReader(raw), geo.DecodeOptions{File: path, OriginLonDeg: &lon, OriginLatDeg: &lat, ElevationM: elev})

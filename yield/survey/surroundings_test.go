@@ -40,10 +40,13 @@ func rectPts(x0, y0, x1, y1 float64) [][2]float64 {
 	return [][2]float64{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}}
 }
 
-func streetMap(withObstacles bool) string {
-	fs := []string{`{"type":"Feature","properties":{"kind":"roof","id":"S","pitch_deg":30,"aspect_deg":180,"eave_height_m":5},"geometry":` +
-		polygonJSON(rectPts(-5.5, -2.8, 5.5, 2.8)) + `}`}
-	if withObstacles {
+func streetMap(roof, obstacles bool) string {
+	var fs []string
+	if roof {
+		fs = append(fs, `{"type":"Feature","properties":{"kind":"roof","id":"S","pitch_deg":30,"aspect_deg":180,"eave_height_m":5},"geometry":`+
+			polygonJSON(rectPts(-5.5, -2.8, 5.5, 2.8))+`}`)
+	}
+	if obstacles {
 		fs = append(fs, `{"type":"Feature","properties":{"kind":"block","id":"neighbour","height_m":8,"ridge_m":11,"ridge_azimuth_deg":90},"geometry":`+
 			polygonJSON(rectPts(-6, -20, 6, -12))+`}`)
 		lon, lat := lonlat(8, -10)
@@ -93,6 +96,14 @@ func streetSurvey(t *testing.T, m string, surroundings []string) *survey.Result 
 			return []byte(m), nil
 		case "street.osm":
 			return []byte(streetOSM()), nil
+		case "street.geojson":
+			// The same neighbour and tree as sunstring's kinds.
+			return []byte(streetMap(false, true)), nil
+		case "tagged.geojson":
+			// The same neighbour and tree as a converter of OpenStreetMap data writes them.
+			lon, lat := lonlat(8, -10)
+			return []byte(`{"type":"FeatureCollection","features":[{"type":"Feature","id":"way/20","properties":{"building":"house","height":11,"roof:height":3,"roof:shape":"gabled","roof:direction":"S"},"geometry":` +
+				polygonJSON(rectPts(-6, -20, 6, -12)) + fmt.Sprintf(`},{"type":"Feature","id":"node/9","properties":{"natural":"tree","height":12,"diameter_crown":6},"geometry":{"type":"Point","coordinates":[%.10f,%.10f]}}]}`, lon, lat)), nil
 		}
 		return nil, fmt.Errorf("%s: no such %s", path, what)
 	}
@@ -113,8 +124,8 @@ func streetSurvey(t *testing.T, m string, surroundings []string) *survey.Result 
 // 11 and roof:height 3, the ridge's direction (90°) from roof:direction S, the crown's radius 3 m
 // and base 6 m from diameter_crown 6 and height 12.
 func TestSurroundingsShadeAsDrawn(t *testing.T) {
-	drawn := streetSurvey(t, streetMap(true), nil)
-	imported := streetSurvey(t, streetMap(false), []string{"street.osm"})
+	drawn := streetSurvey(t, streetMap(true, true), nil)
+	imported := streetSurvey(t, streetMap(true, false), []string{"street.osm"})
 	d, m := drawn.Summary.ModuleResults, imported.Summary.ModuleResults
 	if len(d) != len(m) || len(d) == 0 {
 		t.Fatalf("%d modules drawn, %d with the extract", len(d), len(m))
@@ -141,6 +152,18 @@ func TestSurroundingsShadeAsDrawn(t *testing.T) {
 	}
 	if len(drawn.Summary.Surroundings) != 0 {
 		t.Errorf("drawn obstacles listed as surroundings: %v", drawn.Summary.Surroundings)
+	}
+	// The same two from GeoJSON, as sunstring's kinds and with OpenStreetMap tags.
+	for _, f := range []string{"street.geojson", "tagged.geojson"} {
+		g := streetSurvey(t, streetMap(true, false), []string{f}).Summary.ModuleResults
+		if len(g) != len(d) {
+			t.Fatalf("%s: %d modules, %d drawn", f, len(g), len(d))
+		}
+		for i := range d {
+			if !scalar.EqualWithinAbs(d[i].BeamShadeLossPct, g[i].BeamShadeLossPct, 0.1) {
+				t.Errorf("%s: %s: beam shade %.3f %% drawn, %.3f %% from the file", f, d[i].ID, d[i].BeamShadeLossPct, g[i].BeamShadeLossPct)
+			}
+		}
 	}
 	// The scene must shade at all, or the comparison proves nothing.
 	if shaded < 1 {

@@ -89,3 +89,24 @@ bad("roof-direction", head + '  <node id="1" lat="47.1" lon="15.4"/>\n  <node id
 bad("not-osm", '{"type": "FeatureCollection", "features": []}\n')
 with open("testdata/bad/pbf.osm", "wb") as f:
     f.write(b"\x00\x00\x00\x0e\n\tOSMHeader\x18\x00\x00\x00\x00")
+
+# The neighbour and the oak again, as a converter of OpenStreetMap data writes them in GeoJSON
+# (tags as properties, the element's id as the feature's id), with a road to pass over.
+import json
+def gj_ring(x0, y0, x1, y1):
+    pts = [(x0, y0), (x1, y0), (x1, y1), (x0, y1), (x0, y0)]
+    return [[list(ll(x, y)) for x, y in pts]]
+feats = [
+    {"type": "Feature", "id": "way/200", "properties": {"building": "house", "height": "9", "roof:height": 3, "roof:shape": "gabled", "roof:direction": "N"},
+     "geometry": {"type": "Polygon", "coordinates": gj_ring(15, -20, 25, -10)}},
+    {"type": "Feature", "id": "node/300", "properties": {"natural": "tree", "height": 12, "diameter_crown": "6"},
+     "geometry": {"type": "Point", "coordinates": list(ll(8, -12))}},
+    {"type": "Feature", "id": "way/800", "properties": {"highway": "residential"},
+     "geometry": {"type": "LineString", "coordinates": [list(ll(-40, -30)), list(ll(40, -30))]}},
+]
+with open("testdata/street.geojson", "w") as f:
+    f.write('{"type": "FeatureCollection", "features": [\n' + ",\n".join("  " + json.dumps(x) for x in feats) + "\n]}\n")
+with open("testdata/bad/building-point.geojson", "w") as f:
+    f.write('{"type": "FeatureCollection", "features": [\n  {"type": "Feature", "id": "way/5", "properties": {"building": "yes"}, "geometry": {"type": "Point", "coordinates": [15.4, 47.1]}}\n]}\n')
+with open("testdata/bad/open-ring.geojson", "w") as f:
+    f.write('{"type": "FeatureCollection", "features": [\n  {"type": "Feature", "properties": {"building": "yes"}, "geometry": {"type": "Polygon", "coordinates": [[[15.4, 47.1], [15.4001, 47.1], [15.4001, 47.1001], [15.4, 47.1002]]]}}\n]}\n')
