@@ -58,6 +58,7 @@ func BenchmarkSearch120(b *testing.B) {
 		evals += res.Evaluated
 	}
 	b.ReportMetric(float64(evals)/b.Elapsed().Seconds(), "evals/s")
+	b.ReportMetric(float64(evals)/float64(b.N), "layouts/op")
 }
 
 // BenchmarkEvaluate120 is one full-year evaluation of a 120-module layout (3 inputs × 2

@@ -217,7 +217,7 @@ func cloneLayout(l electric.Layout) electric.Layout {
 // description differ only by a module or two here and there.
 func (p *Project) describe(l electric.Layout, shaded []int) string {
 	var parts []string
-	var lens []string
+	var lens []int
 	var strs [][]int
 	inputsShared := false
 	for _, in := range l.Inputs {
@@ -225,16 +225,11 @@ func (p *Project) describe(l electric.Layout, shaded []int) string {
 			inputsShared = true
 		}
 		for _, s := range in {
-			lens = append(lens, fmt.Sprint(len(s)))
+			lens = append(lens, len(s))
 			strs = append(strs, s)
 		}
 	}
-	switch len(lens) {
-	case 1:
-		parts = append(parts, fmt.Sprintf("one string of %s", lens[0]))
-	default:
-		parts = append(parts, fmt.Sprintf("strings of %s and %s", strings.Join(lens[:len(lens)-1], ", "), lens[len(lens)-1]))
-	}
+	parts = append(parts, lengthWords(lens))
 	// Faces.
 	facesOf := map[string]int{}
 	pure := true
@@ -336,6 +331,43 @@ func (p *Project) describe(l electric.Layout, shaded []int) string {
 		parts = append(parts, fmt.Sprintf("%d modules left out", len(left)))
 	}
 	return strings.Join(parts, ", ")
+}
+
+// lengthWords says a layout's string lengths in words, longest first: "one string of 12",
+// "strings of 14, 13 and 8", "19 strings of 23", "4 strings of 23 and 2 of 22".
+func lengthWords(lens []int) string {
+	type group struct{ length, count int }
+	var gs []group
+	for _, l := range slices.Sorted(slices.Values(lens)) {
+		if len(gs) > 0 && gs[len(gs)-1].length == l {
+			gs[len(gs)-1].count++
+		} else {
+			gs = append(gs, group{l, 1})
+		}
+	}
+	slices.Reverse(gs)
+	single := true
+	for _, g := range gs {
+		single = single && g.count == 1
+	}
+	switch {
+	case len(gs) == 1 && gs[0].count == 1:
+		return fmt.Sprintf("one string of %d", gs[0].length)
+	case single:
+		w := make([]string, len(gs))
+		for i, g := range gs {
+			w[i] = fmt.Sprint(g.length)
+		}
+		return "strings of " + joinWords(w)
+	}
+	w := make([]string, len(gs))
+	for i, g := range gs {
+		w[i] = fmt.Sprintf("%d of %d", g.count, g.length)
+		if i == 0 {
+			w[i] = fmt.Sprintf("%d %s of %d", g.count, map[bool]string{true: "string", false: "strings"}[g.count == 1], g.length)
+		}
+	}
+	return joinWords(w)
 }
 
 // joinWords joins "a", "a and b", "a, b and c".
@@ -475,10 +507,12 @@ func when(m *yield.Model, mods []int) string {
 	if peak <= 0 {
 		return "rarely"
 	}
-	// Runs of months with at least half the peak month's shade, as "from March to May".
+	// Runs of months with at least half the peak month's shade, as "January to March".
 	var ms []string
+	all := true
 	for i := 0; i < 12; {
 		if month[i] < peak/2 {
+			all = false
 			i++
 			continue
 		}
@@ -486,13 +520,10 @@ func when(m *yield.Model, mods []int) string {
 		for j+1 < 12 && month[j+1] >= peak/2 {
 			j++
 		}
-		switch {
-		case j == i:
+		if j == i {
 			ms = append(ms, time.Month(i+1).String())
-		case j == i+1:
-			ms = append(ms, time.Month(i+1).String(), time.Month(j+1).String())
-		default:
-			ms = append(ms, fmt.Sprintf("from %s to %s", time.Month(i+1), time.Month(j+1)))
+		} else {
+			ms = append(ms, fmt.Sprintf("%s to %s", time.Month(i+1), time.Month(j+1)))
 		}
 		i = j + 1
 	}
@@ -514,8 +545,8 @@ func when(m *yield.Model, mods []int) string {
 	case afternoon >= morning:
 		day = "in the afternoon"
 	}
-	if len(ms) == 1 && strings.HasPrefix(ms[0], "from") {
-		return fmt.Sprintf("%s %s", day, ms[0])
+	if all {
+		return day + " all year round"
 	}
-	return fmt.Sprintf("%s in %s", day, joinWords(ms))
+	return fmt.Sprintf("%s, %s", day, joinWords(ms))
 }

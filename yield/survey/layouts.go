@@ -123,9 +123,14 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 			how += ", every layout the inverter allows"
 		}
 		how += ")"
+		listed := len(out)
 		for _, c := range cands {
 			// The search's values rank the candidates; names are given best first, so the
-			// best of each structure keeps the name.
+			// best of each structure keeps the name. Only the best keep structures can make
+			// the ranking.
+			if len(out)-listed >= keep {
+				break
+			}
 			if err := named(c.Layout, how); err != nil {
 				return nil, err
 			}
