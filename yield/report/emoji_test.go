@@ -9,6 +9,7 @@ func TestProposalWithEmojiName(t *testing.T) {
 	pr := fixture("file")
 	pr.Summary.Site.Name = "Haus Sonnenschein ☀️ 🏠 — 日当たり"
 	pr.Summary.Faces[0].ID = "Süd 🌞"
+	pr.Summary.Overrides = []Override{{Key: "inverter.ac_power_w", Value: "7000", Source: "environment variable SUNSTRING_INVERTER_AC_POWER_W"}}
 	for _, render := range []func() ([]byte, error){pr.PDF, pr.TechnicalPDF} {
 		b, err := render()
 		if err != nil {

@@ -370,6 +370,13 @@ func (pr *Proposal) plainAssumptions(d *pdfDoc) {
 		"The modules and the inverter: as their data sheets give them.",
 		"Dirt on the modules, cable losses and the inverter's downtime: usual allowances, listed in the technical sheet.",
 	})
+	if len(s.Overrides) > 0 {
+		var set []string
+		for _, o := range s.Overrides {
+			set = append(set, fmt.Sprintf("%s = %s (%s)", o.Key, o.Value, o.Source))
+		}
+		d.bullets([]string{"Settings given outside the site file, which this estimate used: " + strings.Join(set, "; ") + "."})
+	}
 	d.sub("How sure the figure is")
 	lo, hi, basis := Uncertainty(s.Climate.Source)
 	d.para(fmt.Sprintf("The yearly energy of %s kWh is expected within ±%g to %g %%: between %s and %s kWh in a typical year. The figure rests on %s. A single year can fall outside this range.",

@@ -41,8 +41,11 @@ type Summary struct {
 	// its severity, a stable code, where (file and feature or key) and what to do.
 	Warnings []finding.Finding `json:"warnings"`
 	Notes    []finding.Finding `json:"notes"`
-	Cautions []string          `json:"cautions"`
-	Models   []string          `json:"models"`
+	// Overrides are the settings that came from an environment variable or a flag instead
+	// of the site file.
+	Overrides []Override `json:"overrides"`
+	Cautions  []string   `json:"cautions"`
+	Models    []string   `json:"models"`
 
 	// Surroundings lists the obstacles imported from the site file's surroundings files, each
 	// with its source; absent without such files.
@@ -202,6 +205,9 @@ func (s *Summary) JSON() ([]byte, error) {
 	if c.Notes == nil {
 		c.Notes = []finding.Finding{}
 	}
+	if c.Overrides == nil {
+		c.Overrides = []Override{}
+	}
 	if c.Checks == nil {
 		c.Checks = []Check{}
 	}
@@ -302,4 +308,11 @@ func Lines(fs []finding.Finding) []string {
 		}
 	}
 	return out
+}
+
+// Override is one setting that came from outside the site file.
+type Override struct {
+	Key    string `json:"key"`    // the site file's key, e.g. "inverter.ac_power_w"
+	Value  string `json:"value"`  // as given
+	Source string `json:"source"` // "environment variable SUNSTRING_…" or "flag --…"
 }

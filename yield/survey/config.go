@@ -2,6 +2,7 @@ package survey
 
 import (
 	"fmt"
+	"sunstring/yield/report"
 
 	"math"
 	"path/filepath"
@@ -44,6 +45,12 @@ type Config struct {
 	File string `mapstructure:"-"`
 	// Zone is the loaded Timezone.
 	Zone *time.Location `mapstructure:"-"`
+	// Overrides are the settings that came from outside the site file (an environment
+	// variable or a flag), in key order, for the record in summary.json.
+	Overrides []report.Override `mapstructure:"-"`
+	// Warnings are what the front end noticed while reading the settings (an environment
+	// variable of the tool's prefix that names no key); the survey reports them.
+	Warnings []string `mapstructure:"-"`
 }
 
 // Climate says where the weather comes from.

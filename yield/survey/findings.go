@@ -1,6 +1,7 @@
 package survey
 
 import (
+	"fmt"
 	"strconv"
 	"strings"
 	"sunstring/yield"
@@ -16,6 +17,13 @@ import (
 func (p *Project) loadFindings(mapPath string, fitNotes, fillNotes []string) finding.List {
 	cfg := p.Cfg
 	var out finding.List
+	for _, w := range cfg.Warnings {
+		out = append(out, finding.Finding{Severity: finding.Warning, Code: "settings", Message: w})
+	}
+	for _, o := range cfg.Overrides {
+		out = append(out, finding.Finding{Severity: finding.Info, Code: "override", Subject: o.Source,
+			Message: fmt.Sprintf("%s = %s, instead of the site file's value", o.Key, o.Value)})
+	}
 	for _, w := range p.Site.Warnings {
 		out = append(out, finding.Finding{Severity: finding.Warning, Code: "map", Message: w})
 	}

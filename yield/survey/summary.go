@@ -248,12 +248,13 @@ func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *rep
 	found := append(finding.List(nil), pf.Findings...)
 	kwp := float64(len(p.Modules)) * p.Datasheet.PowerW / 1000
 	s := &report.Summary{
-		Site:     report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
-		Modules:  len(p.Modules),
-		DCkWp:    kwp,
-		Climate:  report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
-		Models:   ModelSources(p.Cfg.Model.Sky, p.Cfg.Model.IAM, p.Mounting()),
-		Cautions: report.Cautions,
+		Site:      report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
+		Modules:   len(p.Modules),
+		DCkWp:     kwp,
+		Climate:   report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
+		Models:    ModelSources(p.Cfg.Model.Sky, p.Cfg.Model.IAM, p.Mounting()),
+		Cautions:  report.Cautions,
+		Overrides: p.Cfg.Overrides,
 	}
 	for _, mo := range ws.Monthly() {
 		s.Climate.AnnualGHIkWhM2 += mo.GHIKWhM2

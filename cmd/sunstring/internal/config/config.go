@@ -4,9 +4,11 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
+	"math"
 	"os"
 	"path/filepath"
 	"reflect"
+	"sort"
 	"strings"
 	"time"
 
@@ -14,6 +16,7 @@ import (
 	"github.com/spf13/pflag"
 	"github.com/spf13/viper"
 
+	"sunstring/yield/report"
 	"sunstring/yield/survey"
 )
 
@@ -173,7 +176,86 @@ func Load(path string, flags *pflag.FlagSet, bind map[string]string) (*survey.Co
 	if errs := s.Validate(); len(errs) > 0 {
 		return nil, blame(errs, from)
 	}
+	keys := make([]string, 0, len(from))
+	for k := range from {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	for _, k := range keys {
+		s.Overrides = append(s.Overrides, report.Override{Key: k, Value: fmt.Sprint(v.Get(k)), Source: from[k]})
+	}
+	s.Warnings = unknownEnv(os.Environ())
 	return &s, nil
+}
+
+// unknownEnv warns about every SUNSTRING_ variable that names no key of the site file: a
+// misspelt one would otherwise be ignored without a word.
+func unknownEnv(environ []string) []string {
+	known := map[string]bool{}
+	var names []string
+	for _, k := range allKeys() {
+		known[EnvName(k)] = true
+		names = append(names, EnvName(k))
+	}
+	var out []string
+	for _, kv := range environ {
+		name, _, _ := strings.Cut(kv, "=")
+		if !strings.HasPrefix(name, "SUNSTRING_") || known[name] {
+			continue
+		}
+		msg := fmt.Sprintf("environment variable %s names no key of the site file and is ignored", name)
+		if near := nearest(name, names); near != "" {
+			msg += fmt.Sprintf("; did you mean %s?", near)
+		}
+		out = append(out, msg)
+	}
+	sort.Strings(out)
+	return out
+}
+
+// nearest returns the candidate closest to s by edit distance, when it is close enough to be
+// a likely misspelling (at most a third of s's length, and at most 4 edits); else "".
+func nearest(s string, candidates []string) string {
+	best, bestD := "", math.MaxInt
+	for _, c := range candidates {
+		if d := editDistance(strings.ToLower(s), strings.ToLower(c)); d < bestD || d == bestD && c < best {
+			best, bestD = c, d
+		}
+	}
+	if bestD > min(4, max(1, len(s)/3)) {
+		return ""
+	}
+	return best
+}
+
+// editDistance is the Levenshtein distance between a and b, in bytes.
+func editDistance(a, b string) int {
+	prev := make([]int, len(b)+1)
+	cur := make([]int, len(b)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(a); i++ {
+		cur[0] = i
+		for j := 1; j <= len(b); j++ {
+			cost := 1
+			if a[i-1] == b[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(b)]
+}
+
+// unknownKeyMsg is the message for an unknown key, with the nearest known key when one is
+// close.
+func unknownKeyMsg(key string) string {
+	if near := nearest(key, allKeys()); near != "" {
+		return fmt.Sprintf("unknown key; did you mean %q? (see the site file reference in README.md)", near)
+	}
+	return "unknown key (see the site file reference in README.md)"
 }
 
 // dateAsText turns a date YAML wrote without quotes (decoded as a time) back into the text
@@ -231,14 +313,14 @@ func decodeErrors(path string, err error) error {
 		}
 		if strings.HasPrefix(line, "has invalid keys: ") {
 			for _, k := range strings.Split(strings.TrimPrefix(line, "has invalid keys: "), ", ") {
-				out = append(out, &survey.Error{File: path, Key: k, Msg: "unknown key (see the site file reference in README.md)"})
+				out = append(out, &survey.Error{File: path, Key: k, Msg: unknownKeyMsg(k)})
 			}
 			continue
 		}
 		if i := strings.Index(line, "' has invalid keys: "); i >= 0 && strings.HasPrefix(line, "'") {
 			parent := line[1:i]
 			for _, k := range strings.Split(line[i+len("' has invalid keys: "):], ", ") {
-				out = append(out, &survey.Error{File: path, Key: parent + "." + k, Msg: "unknown key (see the site file reference in README.md)"})
+				out = append(out, &survey.Error{File: path, Key: parent + "." + k, Msg: unknownKeyMsg(parent + "." + k)})
 			}
 			continue
 		}
