@@ -263,3 +263,32 @@ func FuzzRead(f *testing.F) {
 		}
 	})
 }
+
+// FuzzReadGeoJSON: whatever the bytes, ReadGeoJSON returns an error or obstacles with finite
+// sizes.
+func FuzzReadGeoJSON(f *testing.F) {
+	for _, p := range []string{"testdata/street.geojson", "testdata/bad/building-point.geojson", "testdata/bad/open-ring.geojson"} {
+		b, err := os.ReadFile(p)
+		if err != nil {
+			f.Fatal(err)
+		}
+		f.Add(b)
+	}
+	proj := geo.NewENU(15.4, 47.1, 0)
+	f.Fuzz(func(t *testing.T, b []byte) {
+		s, err := ReadGeoJSON(bytes.NewReader(b), proj, Options{})
+		if err != nil {
+			return
+		}
+		for _, bl := range s.Blocks {
+			if math.IsNaN(bl.HeightM) || bl.HeightM < bl.BaseM || len(bl.Footprint) < 4 {
+				t.Fatalf("block %+v", bl)
+			}
+		}
+		for _, tr := range s.Trees {
+			if !(tr.CrownRadiusM > 0) || !(tr.HeightM > tr.CrownBaseM) {
+				t.Fatalf("tree %+v", tr)
+			}
+		}
+	})
+}
