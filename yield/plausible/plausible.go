@@ -1,6 +1,7 @@
 package plausible
 
 import (
+	"fmt"
 	"math"
 	"time"
 
@@ -160,9 +161,13 @@ func PoorFaces(faces []FaceIrradiation) (out finding.List) {
 		if f.Modules == 0 || share >= poorFaceShare {
 			continue
 		}
+		its := fmt.Sprintf("its %d modules earn", f.Modules)
+		if f.Modules == 1 {
+			its = "its 1 module earns"
+		}
 		out.Add(finding.Warning, "poor_face", f.Subject,
-			"face %q receives %.0f kWh/m² a year, %.0f %% less than face %q (%.0f kWh/m²); its %d module(s) earn about %.0f %% less each. Keep it empty (keep_empty: true on its roof feature) unless the customer wants the extra energy at that price",
-			f.ID, f.KWhM2, (1-share)*100, b.ID, b.KWhM2, f.Modules, (1-share)*100)
+			"face %q receives %.0f kWh/m² a year, %.0f %% less than face %q (%.0f kWh/m²); %s about %.0f %% less each. Keep it empty (keep_empty: true on its roof feature) unless the customer wants the extra energy at that price",
+			f.ID, f.KWhM2, (1-share)*100, b.ID, b.KWhM2, its, (1-share)*100)
 	}
 	return out
 }

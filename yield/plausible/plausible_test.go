@@ -140,7 +140,13 @@ func TestPoorFaces(t *testing.T) {
 		{ID: "G", Subject: `roof.geojson: feature 3 (id "G")`, KWhM2: 300, Modules: 0},
 	}
 	// N: 605 / 1100 = 55 % of the best, 45 % less; E: 82 %, kept; G: no modules, nothing to say.
-	want{"poor_face", finding.Warning, []string{`id "N"`, "605 kWh/m²", "45 % less", `face "S" (1100`, "keep_empty"}}.check(t, PoorFaces(faces))
+	want{"poor_face", finding.Warning, []string{`id "N"`, "605 kWh/m²", "45 % less", `face "S" (1100`, "its 9 modules earn", "keep_empty"}}.check(t, PoorFaces(faces))
+	// One module on the poor face: the singular, never "module(s)".
+	faces[1].Modules = 1
+	want{"poor_face", finding.Warning, []string{"its 1 module earns about 45 % less"}}.check(t, PoorFaces(faces))
+	if f := PoorFaces(faces); len(f) == 1 && strings.Contains(f[0].String(), "(s)") {
+		t.Errorf("%q holds \"(s)\"", f[0].String())
+	}
 	if PoorFaces(nil) != nil {
 		t.Error("findings without faces")
 	}

@@ -48,7 +48,7 @@ func (p *Project) electricalChecks(name string, lens [][]int) []report.Check {
 			Message: fmt.Sprintf("%s in series: %.1f V at the maximum power point at %.0f °C cell (MPPT minimum %.0f V)", report.Count(shortest, "module", "modules"), vmp, hot, inv.MPPTMinV)})
 		cur := float64(len(ls)) * ds.ImpA
 		out = append(out, report.Check{Severity: "info", Subject: subj, Unit: "A", Value: cur, Limit: inv.MaxInputCurrentA,
-			Message: fmt.Sprintf("%s in parallel: %.1f A at the maximum power point (input limit %.1f A)", report.Count(len(ls), "string", "strings"), cur, inv.MaxInputCurrentA)})
+			Message: fmt.Sprintf("%s: %.1f A at the maximum power point (input limit %.1f A)", parallel(len(ls)), cur, inv.MaxInputCurrentA)})
 	}
 	for _, f := range electric.CheckStrings(ds, lens, low, hot, inv) {
 		out = append(out, fromFinding(name, f))
@@ -89,6 +89,14 @@ func fromFinding(subject string, f electric.Finding) report.Check {
 		msg = strings.TrimPrefix(msg, fmt.Sprintf("input %d: ", f.Input+1))
 	}
 	return report.Check{Severity: sev, Subject: subject, Message: msg, Value: f.Value, Limit: f.Limit, Unit: f.Unit, Detail: f.Detail}
+}
+
+// parallel names an input's strings: "1 string", "2 strings in parallel".
+func parallel(n int) string {
+	if n == 1 {
+		return "1 string"
+	}
+	return fmt.Sprintf("%d strings in parallel", n)
 }
 
 // lengths returns the string lengths per input of a layout.
