@@ -89,6 +89,26 @@ func bboxCentre(raws []*rawFeature) (lon, lat float64) {
 	if math.IsInf(minLon, 0) {
 		return 0, 0
 	}
+	if maxLon-minLon > 180 {
+		// Across the antimeridian (a site in Fiji or the Chukchi Sea): the drawing spans a few
+		// metres from 179.99… to −179.99…, so measure the longitudes eastward from 0 to 360
+		// and bring the centre back to [−180, 180).
+		minLon, maxLon = math.Inf(1), math.Inf(-1)
+		for _, f := range raws {
+			for _, p := range f.positions() {
+				l := p.lon
+				if l < 0 {
+					l += 360
+				}
+				minLon, maxLon = math.Min(minLon, l), math.Max(maxLon, l)
+			}
+		}
+		c := (minLon + maxLon) / 2
+		if c >= 180 {
+			c -= 360
+		}
+		return c, (minLat + maxLat) / 2
+	}
 	return (minLon + maxLon) / 2, (minLat + maxLat) / 2
 }
 

@@ -7,6 +7,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/paulmach/orb/planar"
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
@@ -177,5 +178,37 @@ func TestFaceOverlaps(t *testing.T) {
 				t.Errorf("unexpected notes %q", s.Notes)
 			}
 		})
+	}
+}
+
+func TestAntimeridian(t *testing.T) {
+	// A 10 × 8 m flat roof at 16.8° S straddling 180°: 5 m each side (invented, near Fiji).
+	const lat0 = -16.8
+	mLat := 1 / 111195.0
+	mLon := mLat / math.Cos(lat0*math.Pi/180)
+	lon := func(e float64) float64 {
+		l := 180 + e*mLon
+		if l > 180 {
+			l -= 360
+		}
+		return l
+	}
+	var pts []string
+	for _, p := range [][2]float64{{-5, 0}, {5, 0}, {5, 8}, {-5, 8}, {-5, 0}} {
+		pts = append(pts, fmt.Sprintf("[%.8f,%.8f]", lon(p[0]), lat0+p[1]*mLat))
+	}
+	m := `{"type":"FeatureCollection","features":[{"type":"Feature","geometry":{"type":"Polygon","coordinates":[[` +
+		strings.Join(pts, ",") + `]]},"properties":{"kind":"roof","id":"F","pitch_deg":10,"aspect_deg":0,"eave_height_m":3}}]}`
+	s, err := Decode(strings.NewReader(m), DecodeOptions{File: "m.geojson"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Analytic: 10 m × 8 m = 80 m² (the mean-sphere scale above is good to 0.5 %).
+	if a := math.Abs(planar.Area(s.Faces[0].Plan)); !scalar.EqualWithinRel(a, 80, 0.01) {
+		t.Errorf("plan area %.2f m², want 80 ± 1 %%", a)
+	}
+	lonC, latC, _ := s.Proj.Inverse(Vec3{})
+	if math.Abs(math.Abs(lonC)-180) > 1e-3 || math.Abs(latC-(lat0+4*mLat)) > 1e-3 {
+		t.Errorf("origin %.5f, %.5f: want the drawing's centre at 180°", lonC, latC)
 	}
 }
