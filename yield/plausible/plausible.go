@@ -70,14 +70,23 @@ func DCAC(subject string, dcW, acW float64) (ratio float64, out finding.List) {
 			dcW/1000, acW/1000, ratio, dcacFail)
 	case ratio > dcacWarnHigh:
 		out.Add(finding.Warning, "dc_ac_ratio", subject,
-			"%.1f kWp of modules on %.3g kW of inverter is a DC/AC ratio of %.2f, above %.1f: the inverter will clip much of the sunny hours' energy; choose a larger inverter or fewer modules (usual ratios 1.0–1.3)",
-			dcW/1000, acW/1000, ratio, dcacWarnHigh)
+			"%.1f kWp of modules on %.3g kW of inverter is a DC/AC ratio of %s, above %.1f: the inverter will clip much of the sunny hours' energy; choose a larger inverter or fewer modules (usual ratios 1.0–1.3)",
+			dcW/1000, acW/1000, ratioText(ratio, dcacWarnHigh), dcacWarnHigh)
 	case ratio < dcacWarnLow:
 		out.Add(finding.Warning, "dc_ac_ratio", subject,
-			"%.1f kWp of modules on %.3g kW of inverter is a DC/AC ratio of %.2f, below %.2f: the inverter runs at low load and low efficiency most of the time; a smaller inverter would do (usual ratios 1.0–1.3)",
-			dcW/1000, acW/1000, ratio, dcacWarnLow)
+			"%.1f kWp of modules on %.3g kW of inverter is a DC/AC ratio of %s, below %.2f: the inverter runs at low load and low efficiency most of the time; a smaller inverter would do (usual ratios 1.0–1.3)",
+			dcW/1000, acW/1000, ratioText(ratio, dcacWarnLow), dcacWarnLow)
 	}
 	return ratio, out
+}
+
+// ratioText gives a ratio to two decimals, or to three when two would print the limit it
+// crossed ("1.503, above 1.5", never "1.50, above 1.5").
+func ratioText(ratio, limit float64) string {
+	if t := fmt.Sprintf("%.2f", ratio); t != fmt.Sprintf("%.2f", limit) {
+		return t
+	}
+	return fmt.Sprintf("%.3f", ratio)
 }
 
 // Result checks a survey's result: the share of the energy lost to the inverter's AC limit

@@ -72,7 +72,7 @@ func TestDCAC(t *testing.T) {
 		ratio, tol float64
 		want       want
 	}{
-		{"the example: 22 × 410 W on 6 kW", 22 * 410, 6000, 1.5033, 1e-4, want{"dc_ac_ratio", finding.Warning, []string{"1.50", "above 1.5"}}},
+		{"the example: 22 × 410 W on 6 kW", 22 * 410, 6000, 1.5033, 1e-4, want{"dc_ac_ratio", finding.Warning, []string{"ratio of 1.503, above 1.5"}}},
 		{"balanced", 6000, 6000, 1, 0, want{}},
 		{"9 kWp on 3 kW", 9000, 3000, 3, 0, want{"dc_ac_ratio", finding.Warning, []string{"inverter.ac_power_w", "9.0 kWp", "3 kW", "3.00", "larger inverter"}}},
 		{"ac_power_w 1", 9000, 1, 9000, 0, want{"dc_ac_ratio", finding.Fail, []string{"9000.0", "watts, not kilowatts"}}},
