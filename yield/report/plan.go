@@ -358,24 +358,91 @@ func planBase(pl *Plan, p *plot.Plot, w, h vg.Length, reach float64) framed {
 	return f
 }
 
-// faceLabels names each face at its highest point on the drawing, above the outline.
+// faceLabels names each face above the middle of its highest edge. A face whose top meets
+// another face (the lower face at a ridge or a hip) is named below the middle of its lowest
+// edge instead, so that the labels of faces meeting at a corner never print over each other
+// or over the other face's modules.
 func faceLabels(pl *Plan, p *plot.Plot) {
-	var xy plotter.XYs
-	var ls []string
-	for _, fc := range pl.Faces {
-		if len(fc.Ring) == 0 {
+	var above, below plotter.XYs
+	var al, bl []string
+	for i, sp := range faceLabelSpots(pl.Faces) {
+		if sp.skip {
 			continue
 		}
-		top := fc.Ring[0]
-		for _, q := range fc.Ring {
-			if q[1] > top[1]+1e-9 || (math.Abs(q[1]-top[1]) <= 1e-9 && q[0] < top[0]) {
-				top = q
+		l := "face " + Printable(pl.Faces[i].ID)
+		if sp.below {
+			below, bl = append(below, sp.at), append(bl, l)
+		} else {
+			above, al = append(above, sp.at), append(al, l)
+		}
+	}
+	addLabels(p, above, al, 8, Ink, text.XCenter, text.YBottom)
+	addLabels(p, below, bl, 8, Ink, text.XCenter, text.YTop)
+}
+
+// labelSpot is where a face's label goes: at a point, above it or (below) under it.
+type labelSpot struct {
+	at          plotter.XY
+	below, skip bool
+}
+
+// faceLabelSpots places the label of every face (see faceLabels).
+func faceLabelSpots(faces []Shape) []labelSpot {
+	out := make([]labelSpot, len(faces))
+	for i, fc := range faces {
+		if len(fc.Ring) == 0 {
+			out[i].skip = true
+			continue
+		}
+		top, bottom := edgeMiddle(fc.Ring, 1), edgeMiddle(fc.Ring, -1)
+		if onOtherFace(faces, i, top[0], top[1]+labelProbeM) && !onOtherFace(faces, i, bottom[0], bottom[1]-labelProbeM) {
+			out[i] = labelSpot{at: plotter.XY{X: bottom[0], Y: bottom[1]}, below: true}
+			continue
+		}
+		out[i] = labelSpot{at: plotter.XY{X: top[0], Y: top[1]}}
+	}
+	return out
+}
+
+// labelProbeM is how far beyond a face's edge faceLabels looks for another face, m; edges
+// within it of the extreme count as that edge (a traced outline is never exactly level).
+const labelProbeM = 0.1
+
+// edgeMiddle returns the middle of a ring's highest (dir 1) or lowest (dir -1) edge on the
+// drawing: the midpoint of the points within labelProbeM of that extreme, at the extreme.
+func edgeMiddle(ring [][2]float64, dir float64) [2]float64 {
+	ext := ring[0][1] * dir
+	for _, q := range ring {
+		ext = math.Max(ext, q[1]*dir)
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, q := range ring {
+		if q[1]*dir >= ext-labelProbeM {
+			lo, hi = math.Min(lo, q[0]), math.Max(hi, q[0])
+		}
+	}
+	return [2]float64{(lo + hi) / 2, ext * dir}
+}
+
+// onOtherFace reports whether (x, y) lies inside a face other than faces[self] (even-odd
+// ray casting).
+func onOtherFace(faces []Shape, self int, x, y float64) bool {
+	for i, fc := range faces {
+		if i == self {
+			continue
+		}
+		in := false
+		for k, n := 0, len(fc.Ring); k < n; k++ {
+			a, b := fc.Ring[k], fc.Ring[(k+1)%n]
+			if (a[1] > y) != (b[1] > y) && x < a[0]+(y-a[1])*(b[0]-a[0])/(b[1]-a[1]) {
+				in = !in
 			}
 		}
-		xy = append(xy, plotter.XY{X: top[0], Y: top[1]})
-		ls = append(ls, "face "+Printable(fc.ID))
+		if in {
+			return true
+		}
 	}
-	addLabels(p, xy, ls, 8, Ink, text.XCenter, text.YBottom)
+	return false
 }
 
 // Outlines: an avoid area dotted, a module left unconnected dashed.

@@ -425,3 +425,43 @@ func TestLongLayoutNameWraps(t *testing.T) {
 		}
 	}
 }
+
+// TestFaceLabelSpots: on a hipped roof of 12 × 9 m the four faces' labels sit apart — the
+// west and east faces at their top corners, the north face at the middle of its top edge,
+// the south face (whose top is the ridge, under the north face) below its eave — and a
+// gable's two faces each above the middle of their own top edge.
+func TestFaceLabelSpots(t *testing.T) {
+	type spot struct {
+		x, y  float64
+		below bool
+	}
+	tests := []struct {
+		name  string
+		faces []Shape
+		want  []spot
+	}{
+		{"hipped", []Shape{
+			{ID: "S", Ring: [][2]float64{{0, 0}, {12, 0}, {7.5, 4.5}, {4.5, 4.5}, {0, 0}}},
+			{ID: "W", Ring: [][2]float64{{0, 0}, {4.5, 4.5}, {0, 9}, {0, 0}}},
+			{ID: "E", Ring: [][2]float64{{12, 0}, {12, 9}, {7.5, 4.5}, {12, 0}}},
+			{ID: "N", Ring: [][2]float64{{0, 9}, {4.5, 4.5}, {7.5, 4.5}, {12, 9}, {0, 9}}},
+		}, []spot{{6, 0, true}, {0, 9, false}, {12, 9, false}, {6, 9, false}}},
+		{"gable, ridge north-south", []Shape{
+			{ID: "E", Ring: [][2]float64{{0, 0}, {4, 0}, {4, 6.5}, {0, 6.5}, {0, 0}}},
+			{ID: "W", Ring: [][2]float64{{-4, 0}, {0, 0}, {0, 6.5}, {-4, 6.5}, {-4, 0}}},
+		}, []spot{{2, 6.5, false}, {-2, 6.5, false}}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			got := faceLabelSpots(tc.faces)
+			for i, w := range tc.want {
+				g := got[i]
+				// exact geometry: the spots are vertices or midpoints of the rings above
+				if !scalar.EqualWithinAbs(g.at.X, w.x, 1e-9) || !scalar.EqualWithinAbs(g.at.Y, w.y, 1e-9) || g.below != w.below {
+					t.Errorf("face %s: label at (%.2f, %.2f) below=%v, want (%.2f, %.2f) below=%v",
+						tc.faces[i].ID, g.at.X, g.at.Y, g.below, w.x, w.y, w.below)
+				}
+			}
+		})
+	}
+}
