@@ -2,8 +2,8 @@ package electric
 
 import "math"
 
-// cellGrid evaluates one cell's voltage on a current grid i0 + k·h in
-// increasing k, on demand: a substring whose bypass diode already conducts
+// cellGrid evaluates one cell's voltage on an increasing current grid cur[k]
+// in increasing k, on demand: a substring whose bypass diode already conducts
 // needs no further points of its cells.
 //
 // The points form two interleaved chains (even and odd k), each point
@@ -15,8 +15,8 @@ import "math"
 // lambertWExp.
 type cellGrid struct {
 	p      Params
-	c0, rA float64 // log(I0·Rsh/A) and Rsh/A: L = c0 + (IL+I0−I)·rA
-	i0, h  float64
+	c0, rA float64   // log(I0·Rsh/A) and Rsh/A: L = c0 + (IL+I0−I)·rA
+	cur    []float64 // cell current of each point (A)
 	n      int       // points computed so far
 	v      []float64 // voltages of points 0..n−1
 	// Per chain (k mod 2), at its last point: L, W(e^L), u = ln W and
@@ -26,8 +26,8 @@ type cellGrid struct {
 
 // reset starts the grid for parameters p; buf (reused) must hold every
 // point that will be asked for.
-func (g *cellGrid) reset(p Params, i0, h float64, buf []float64) {
-	*g = cellGrid{p: p, c0: math.Log(p.I0 * p.Rsh / p.A), rA: p.Rsh / p.A, i0: i0, h: h, v: buf}
+func (g *cellGrid) reset(p Params, cur []float64, buf []float64) {
+	*g = cellGrid{p: p, c0: math.Log(p.I0 * p.Rsh / p.A), rA: p.Rsh / p.A, cur: cur, v: buf}
 }
 
 // at returns the voltage at point k, computing the points up to k (and,
@@ -43,7 +43,7 @@ func (g *cellGrid) at(k int) float64 {
 func (g *cellGrid) fill(k int) {
 	p := g.p
 	for n := g.n; n <= k; n++ {
-		i := g.i0 + float64(n)*g.h
+		i := g.cur[n]
 		d := p.IL + p.I0 - i
 		L := g.c0 + d*g.rA
 		j := n & 1

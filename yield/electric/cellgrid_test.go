@@ -210,7 +210,7 @@ func TestCurveOnGridMatchesReference(t *testing.T) {
 				}
 			}
 			i0, h := gridFor(m.topCurrent(irr, tc) * (1 + rng.Float64()))
-			m.curveOnGrid(irr, tc, i0, h, got, &sc)
+			m.curveOnGrid(irr, tc, evenGrid(i0, h, len(got)), got, &sc)
 			m.curveOnGridRef(irr, tc, i0, h, want, &rs)
 			for k := range got {
 				if !scalar.EqualWithinAbs(got[k], want[k], 1e-9) {
@@ -243,7 +243,7 @@ func TestUniformMaxPower(t *testing.T) {
 			tc := -30 + 100*rng.Float64()
 			irr := uniformIrr(m.Cells(), s)
 			i0, h := gridFor(m.topCurrent(irr, tc))
-			m.curveOnGrid(irr, tc, i0, h, v, &sc)
+			m.curveOnGrid(irr, tc, evenGrid(i0, h, len(v)), v, &sc)
 			for k := range gi {
 				gi[k] = i0 + float64(k)*h
 			}
@@ -358,4 +358,13 @@ func TestWarmStep(t *testing.T) {
 	if accepted < 10000 {
 		t.Errorf("only %d of 20000 steps accepted", accepted)
 	}
+}
+
+// evenGrid returns n currents i0 + k·h.
+func evenGrid(i0, h float64, n int) []float64 {
+	g := make([]float64, n)
+	for k := range g {
+		g[k] = i0 + float64(k)*h
+	}
+	return g
 }

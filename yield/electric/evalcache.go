@@ -142,7 +142,7 @@ func (y *Year) parts(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) []*i
 		}
 		if pt == nil {
 			if sc == nil {
-				sc = &evalScratch{gi: make([]float64, curvePoints), gs: make([]float64, curvePoints)}
+				sc = &evalScratch{}
 			}
 			pt = y.inputPart(canon, inv, opt, sc)
 			pt.key = key
@@ -215,9 +215,7 @@ func (y *Year) inputPart(in [][]int, inv Inverter, opt EvalOptions, sc *evalScra
 			pt.globalWh += dc * h
 			continue
 		}
-		for k := range sc.gi {
-			sc.gi[k] = y.gridI0[s] + float64(k)*y.gridH[s]
-		}
+		sc.gi = y.grid(s)
 		is, vs := y.inputCurve(sc, row, in)
 		pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
 		pW, pC, vC := pG, pG, vG

@@ -3,6 +3,7 @@ package electric
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sync"
 )
 
@@ -47,6 +48,10 @@ type Module struct {
 	sub        []int8 // cell → substring
 	subCells   []int  // substring → cells in it (in one half for half-cut)
 	halfOf     []int8 // cell → half (0 or 1)
+	// kneeW is the relative width of a bypass knee: a cell's open-circuit voltage over
+	// the voltage its light current makes across its shunt, at STC (the shunt scales as
+	// 1/irradiance and the light current as irradiance, so the ratio holds at any light).
+	kneeW float64
 }
 
 // NewModule validates the datasheet, fits the single-diode parameters and
@@ -75,6 +80,7 @@ func NewModule(ds Datasheet) (*Module, error) {
 // for cases stated at cell level).
 func newModuleCells(cols, rows, nSub int, half bool, cell Params, alphaCell float64) *Module {
 	m := &Module{cell: cell, alphaCell: alphaCell, cols: cols, rows: rows, nSub: nSub, half: half, bypassV: BypassDropV}
+	m.kneeW = cell.A * math.Log(cell.IL/cell.I0+1) / (cell.Rsh * cell.IL)
 	m.sub = make([]int8, cols*rows)
 	m.halfOf = make([]int8, cols*rows)
 	m.subCells = make([]int, nSub)
@@ -140,14 +146,18 @@ func (m *Module) Curve(cellIrr []float64, tempC float64) Curve {
 		return Curve{}
 	}
 	top := m.topCurrent(cellIrr, tempC)
-	i0, h := gridFor(top)
 	sc := scratchPool.Get().(*curveScratch)
 	defer scratchPool.Put(sc)
-	sc.out = grow(sc.out, curvePoints)
-	m.curveOnGrid(cellIrr, tempC, i0, h, sc.out, sc)
-	c := Curve{i: make([]float32, curvePoints), v: make([]float32, curvePoints)}
+	sc.knees = m.appendKnees(sc.knees[:0], cellIrr, tempC)
+	slices.Sort(sc.knees)
+	sc.knees = slices.Compact(sc.knees)
+	sc.grid = appendGrid(sc.grid[:0], top, sc.knees, m.kneeW)
+	n := len(sc.grid)
+	sc.out = grow(sc.out, n)
+	m.curveOnGrid(cellIrr, tempC, sc.grid, sc.out, sc)
+	c := Curve{i: make([]float32, n), v: make([]float32, n)}
 	for k, x := range sc.out {
-		c.i[k] = float32(i0 + float64(k)*h)
+		c.i[k] = float32(sc.grid[k])
 		c.v[k] = float32(x)
 	}
 	return c
@@ -181,6 +191,92 @@ func gridFor(top float64) (i0, h float64) {
 	return -2 * h, h
 }
 
+// kneeBelow and kneeAbove place the extra points of a curve around each knee current Ik, at
+// Ik·(1 − r·w) and Ik·(1 + r·w), w the module's kneeWidth. Within a few w below a knee the
+// partly lit cell leaves its forward voltage: its shunt takes a growing share of its light
+// current and the diode's logarithm falls to zero, and there the maximum power of a module
+// with a partly shaded cell lies (0.3 to 1.5 w below the knee, by the tests); above it
+// the cell is in reverse bias, a straight line through its shunt, until the bypass diode
+// conducts.
+var (
+	kneeBelow = [...]float64{6, 3.5, 2.5, 1.9, 1.5, 1.2, 0.95, 0.75, 0.58, 0.42, 0.28, 0.15, 0.05, 0}
+	kneeAbove = [...]float64{0.5, 3}
+)
+
+// maxKnees is the most knee currents a step's shared grid takes (see NewYear); each adds
+// len(kneeBelow)+len(kneeAbove) points to every curve of the step.
+const maxKnees = 6
+
+// appendKnees appends the module's knee currents (A): for every substring with a cell
+// darker than the module's brightest, the module current at which its darkest cell (for
+// half-cells: the darkest cell of each half, the halves in parallel) runs out of light
+// current, so that it turns to reverse bias and the substring's bypass diode soon conducts.
+func (m *Module) appendKnees(dst, cellIrr []float64, tempC float64) []float64 {
+	smax := 0.0
+	for _, g := range cellIrr {
+		smax = fmax(smax, g)
+	}
+	var lo [2]float64
+	for s := range m.nSub {
+		lo = [2]float64{math.Inf(1), math.Inf(1)}
+		for c, g := range cellIrr {
+			if int(m.sub[c]) == s {
+				h := m.halfOf[c]
+				lo[h] = fmin(lo[h], g)
+			}
+		}
+		if !m.half {
+			lo[1] = lo[0]
+		}
+		if lo[0] >= smax && lo[1] >= smax {
+			continue
+		}
+		ik := lightCurrent(m.cell.IL, m.alphaCell, lo[0], tempC)
+		if m.half {
+			ik += lightCurrent(m.cell.IL, m.alphaCell, lo[1], tempC)
+		}
+		if ik > 0 {
+			dst = append(dst, ik)
+		}
+	}
+	return dst
+}
+
+// appendGrid appends a curve's current grid (A): the evenly spaced points of gridFor up to
+// top and the points around each knee current, in increasing order. The first point stays
+// gridFor's −2h (curveOnGrid continues the even points from it).
+func appendGrid(dst []float64, top float64, knees []float64, w float64) []float64 {
+	i0, h := gridFor(top)
+	start := len(dst)
+	for k := range curvePoints {
+		dst = append(dst, i0+float64(k)*h)
+	}
+	if len(knees) == 0 {
+		return dst
+	}
+	for _, ik := range knees {
+		for _, r := range kneeBelow {
+			dst = append(dst, ik*(1-r*w))
+		}
+		for _, r := range kneeAbove {
+			dst = append(dst, ik*(1+r*w))
+		}
+	}
+	g := dst[start:]
+	slices.Sort(g)
+	// Knee points lie below top (a knee is at most the brightest cells' light current,
+	// top is 4 % above it). Drop points within a millionth of top of the one before: they
+	// add nothing the polyline needs.
+	tol := 1e-6 * top
+	out := g[:1]
+	for _, x := range g[1:] {
+		if x-out[len(out)-1] > tol {
+			out = append(out, x)
+		}
+	}
+	return dst[:start+len(out)]
+}
+
 // curveScratch is reusable working space for curveOnGrid.
 type curveScratch struct {
 	vals  []float64    // distinct irradiance values
@@ -191,15 +287,19 @@ type curveScratch struct {
 	vh    [2][]float64 // half sums on the half grid
 	m     merger
 	out   []float64 // Curve's module voltages
+	hc    []float64 // half-cell current grid (A)
+	knees []float64 // Curve's knee currents (A)
+	grid  []float64 // Curve's current grid (A)
 }
 
-// curveOnGrid writes the module voltage at currents i0 + k·h into v. Cells
+// curveOnGrid writes the module voltage at currents cur[k] (a grid from appendGrid, len(v)
+// points) into v. Cells
 // with equal irradiance share one cell curve, so a module costs at most one
 // Lambert-W evaluation per distinct irradiance and grid point; points are
 // computed on demand, and a substring stops asking once its bypass diode
 // conducts (every cell's voltage falls with current, so the substring stays
 // bypassed at every higher current).
-func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float64, sc *curveScratch) {
+func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v []float64, sc *curveScratch) {
 	n := len(v)
 	sc.vals = sc.vals[:0]
 	sc.idx = sc.idx[:0]
@@ -235,15 +335,27 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 	for c, u := range sc.idx {
 		sc.cnt[(int(m.sub[c])*nh+int(m.halfOf[c]))*nu+u]++
 	}
-	// Cell current on the grid: the module current for full cells; for
-	// half-cells the grid is i0/2 + j·h/2, so j = k is half the module current.
-	ci0, ch := i0, h
+	// Cell current on the grid: the module current for full cells; for half-cells half
+	// the module current at points k < n, and beyond, up to twice the top (one half may
+	// carry nearly all of the module current), the even points continued: the grid starts
+	// at −2h and ends on an even point.
+	cc := cur
 	if m.half {
-		ci0, ch = i0/2, h/2
+		sc.hc = grow(sc.hc, 2*n)
+		for k, x := range cur {
+			sc.hc[k] = x / 2
+		}
+		i0 := cur[0]
+		h := -i0 / 2
+		last := math.Round((cur[n-1]-i0)/h) - float64(n-1) // index of the last even point, less n−1
+		for j := n; j < 2*n; j++ {
+			sc.hc[j] = (i0 + (float64(j)+last)*h) / 2
+		}
+		cc = sc.hc
 	}
 	for u := range nu {
 		sc.bufs[u] = grow(sc.bufs[u], 2*n)
-		sc.cells[u].reset(translate(m.cell, m.alphaCell, sc.vals[u], tempC), ci0, ch, sc.bufs[u])
+		sc.cells[u].reset(translate(m.cell, m.alphaCell, sc.vals[u], tempC), cc, sc.bufs[u])
 	}
 	clear(v)
 	for s := range m.nSub {
@@ -268,7 +380,7 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 			}
 			continue
 		}
-		m.halvesOnGrid(sc, sc.cnt[(s*nh)*nu:(s*nh+1)*nu], sc.cnt[(s*nh+1)*nu:(s*nh+2)*nu], ci0, ch, i0, h, v)
+		m.halvesOnGrid(sc, sc.cnt[(s*nh)*nu:(s*nh+1)*nu], sc.cnt[(s*nh+1)*nu:(s*nh+2)*nu], cur, v)
 	}
 }
 
@@ -281,7 +393,7 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC, i0, h float64, v []float6
 // grid is read off as soon as the merged polyline passes each current, and
 // the walk stops once every grid point is read or the substring is bypassed
 // (the merged voltage, falling with current, is below −bypassV).
-func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h float64, v []float64) {
+func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, mcur []float64, v []float64) {
 	n := len(v)
 	cnts := [2][]int{c0, c1}
 	var done [2]int // half points computed
@@ -301,7 +413,7 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h flo
 	for hh := range 2 {
 		sc.vh[hh] = grow(sc.vh[hh], 2*n)
 	}
-	cur := func(j int) float64 { return ci0 + float64(j)*ch }
+	cur := func(j int) float64 { return sc.hc[j] }
 	// currentAt is currentOn for half hh with next unvisited point j.
 	currentAt := func(hh, j int, x float64) float64 {
 		switch {
@@ -310,7 +422,7 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h flo
 			if dv == 0 {
 				return cur(0)
 			}
-			return cur(0) + (x-half(hh, 0))*ch/dv
+			return cur(0) + (x-half(hh, 0))*(cur(1)-cur(0))/dv
 		case j >= 2*n:
 			return cur(2*n - 1)
 		}
@@ -318,7 +430,7 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h flo
 		if dv == 0 {
 			return cur(j - 1)
 		}
-		return cur(j-1) + (x-half(hh, j-1))*ch/dv
+		return cur(j-1) + (x-half(hh, j-1))*(cur(j)-cur(j-1))/dv
 	}
 	oi, ov := sc.m.oi[:0], sc.m.ov[:0]
 	var kk [2]int // next unvisited point of each half
@@ -343,7 +455,7 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h flo
 			continue
 		}
 		for ; k < n; k++ {
-			x := i0 + float64(k)*h
+			x := mcur[k]
 			if x > tot {
 				break
 			}
@@ -359,7 +471,7 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, ci0, ch, i0, h flo
 	}
 	for ; k < n; k++ {
 		var vk float64
-		vk, hint = voltageOn(oi, ov, i0+float64(k)*h, hint)
+		vk, hint = voltageOn(oi, ov, mcur[k], hint)
 		v[k] += fmax(vk, -m.bypassV)
 	}
 	sc.m.oi, sc.m.ov = oi, ov

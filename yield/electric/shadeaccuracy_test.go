@@ -6,14 +6,16 @@ import (
 )
 
 // denseMaxPower is the reference for a module curve's maximum power: the same cell model on
-// a grid of 4000 current steps (0.026 % of the top current apart), read as a polyline.
+// a grid of 4000 even current steps (0.026 % of the top current apart), read as a polyline.
+// Against 400,000 steps it reads at most 0.0022 % low on the two modules below (measured),
+// so a curve with points closer together at a knee may read up to that much above it.
 func denseMaxPower(m *Module, cellIrr []float64, tempC float64) float64 {
 	const n = 4003
 	top := m.topCurrent(cellIrr, tempC)
 	h := top / (n - 3)
 	sc := new(curveScratch)
 	v := make([]float64, n)
-	m.curveOnGrid(cellIrr, tempC, -2*h, h, v, sc)
+	m.curveOnGrid(cellIrr, tempC, evenGrid(-2*h, h, n), v, sc)
 	is := make([]float64, n)
 	for k := range is {
 		is[k] = -2*h + float64(k)*h
@@ -22,14 +24,13 @@ func denseMaxPower(m *Module, cellIrr []float64, tempC float64) float64 {
 	return p
 }
 
-// TestPartialShadeCurveAccuracy measures how far the 64-point module curve reads the
-// maximum power below the dense reference with one cell at 0 %, 1 %, …, 100 % of full light
-// (1000 W/m², 25 °C), for a 60-cell and a 120-half-cell module. The points are spread evenly
-// in current, so a bypass diode's knee between two points is cut off: the error is largest
-// with the shaded cell at 50–99 % of full light. This pins today's bound, 2.0 % (measured:
-// 1.73 % on the 60-cell module with the cell at 56 %, 0.34 % on the half-cell module at
-// 89 %), far from the 0.1 % the unshaded curve reaches (TestModuleCurveAccuracy); placing
-// points at the knees is the open work that would close the gap.
+// TestPartialShadeCurveAccuracy measures how far the module curve reads the maximum power
+// below the dense reference with one cell at 0 %, 1 %, …, 100 % of full light (1000 W/m²,
+// 25 °C), for a 60-cell and a 120-half-cell module. Even points alone cut off a bypass
+// diode's knee between two of them (1.73 % low on the 60-cell module with the cell at 56 %);
+// with the points Curve adds around each knee the error stays within 0.1 % at every level
+// (measured: 0.070 % on the 60-cell module, at 99–100 %, where the even points' own error
+// dominates; 0.017 % on the half-cell module, at 80 %).
 func TestPartialShadeCurveAccuracy(t *testing.T) {
 	for _, fc := range []Datasheet{testDatasheet, fitCases[1].ds} {
 		m, err := NewModule(fc)
@@ -46,7 +47,7 @@ func TestPartialShadeCurveAccuracy(t *testing.T) {
 			}
 			got := maxP(m.Curve(irr, 25))
 			want := denseMaxPower(m, irr, 25)
-			if got > want*(1+1e-6) {
+			if got > want*(1+3e-5) {
 				t.Fatalf("%d %%: curve %.3f W above the dense reference %.3f W", pct, got, want)
 			}
 			if e := 1 - got/want; e > worst {
@@ -54,8 +55,8 @@ func TestPartialShadeCurveAccuracy(t *testing.T) {
 			}
 		}
 		t.Logf("%d cells: worst %.3f %% low, with the cell at %d %%", fc.CellsSeries, 100*worst, at)
-		if worst > 0.020 {
-			t.Errorf("%d cells: %.3f %% low at %d %%, bound 2.0 %%", fc.CellsSeries, 100*worst, at)
+		if worst > 0.001 {
+			t.Errorf("%d cells: %.3f %% low at %d %%, bound 0.1 %%", fc.CellsSeries, 100*worst, at)
 		}
 	}
 }

@@ -1,6 +1,7 @@
 package electric
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"runtime"
@@ -94,9 +95,10 @@ type YearResult struct {
 type Year struct {
 	m          *Module
 	n, steps   int
-	gridI0     []float64   // per step: current of point 0 (A)
-	gridH      []float64   // per step: current step (A)
-	curveV     [][]float32 // blocks of curveBlock curves × curvePoints voltages (V)
+	gridOff    []int32     // per step and one more: the step's points are gridI[gridOff[s]:gridOff[s+1]]
+	gridI      []float64   // every step's current grid (A), shared by its curves
+	curveV     [][]float32 // blocks of curveBlockLen voltages (V); a curve lies in one block
+	curveAt    []int64     // per curve: block·curveBlockLen + offset of its first voltage
 	curveMPP   []float32   // per curve: module maximum power (W)
 	modCurve   []int32     // steps × n: curve index
 	unshadedW  []float32   // steps × n: unshaded module maximum power (W)
@@ -132,7 +134,7 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), e
 	nc := m.Cells()
 	y := &Year{
 		m: m, n: nModules, steps: steps,
-		gridI0: make([]float64, steps), gridH: make([]float64, steps),
+		gridOff:  make([]int32, 1, steps+1),
 		modCurve: make([]int32, steps*nModules), unshadedW: make([]float32, steps*nModules),
 		hours:      make([]float32, steps),
 		moduleDCWh: make([]float64, nModules), moduleUnWh: make([]float64, nModules),
@@ -234,11 +236,11 @@ type yearBatch struct {
 
 // stepCurves is one step's result with curve indices local to the step.
 type stepCurves struct {
-	i0, h float64
-	v     []float32 // local curves × curvePoints
-	mpp   []float32 // per local curve
-	mod   []int32   // per module: local curve
-	unW   []float32 // per module: unshaded maximum power
+	grid []float64 // current grid (A)
+	v    []float32 // local curves × len(grid)
+	mpp  []float32 // per local curve
+	mod  []int32   // per module: local curve
+	unW  []float32 // per module: unshaded maximum power
 }
 
 func (b *yearBatch) reset(first, count, n, nc int) {
@@ -276,10 +278,12 @@ func (y *Year) merge(b *yearBatch) {
 		s := b.first + j
 		o := &b.out[j]
 		h := b.hours[j]
-		y.gridI0[s], y.gridH[s] = o.i0, o.h
+		y.gridI = append(y.gridI, o.grid...)
+		y.gridOff = append(y.gridOff, int32(len(y.gridI)))
+		np := len(o.grid)
 		base := int32(len(y.curveMPP))
 		for c := range o.mpp {
-			y.addCurve(o.v[c*curvePoints : (c+1)*curvePoints])
+			y.addCurve(o.v[c*np : (c+1)*np])
 		}
 		y.curveMPP = append(y.curveMPP, o.mpp...)
 		for k := range y.n {
@@ -292,32 +296,39 @@ func (y *Year) merge(b *yearBatch) {
 	}
 }
 
-// curveBlock is the number of curves in one block of Year.curveV: the store
-// grows a block at a time and is never copied.
-const curveBlock = 1024
+// curveBlockLen is the number of voltages in one block of Year.curveV (1024 curves of
+// curvePoints): the store grows a block at a time and is never copied.
+const curveBlockLen = 1024 * curvePoints
 
 // addCurve appends one curve's voltages to the store.
 func (y *Year) addCurve(v []float32) {
 	nb := len(y.curveV)
-	if nb == 0 || len(y.curveV[nb-1]) == curveBlock*curvePoints {
-		y.curveV = append(y.curveV, make([]float32, 0, curveBlock*curvePoints))
+	if nb == 0 || len(y.curveV[nb-1])+len(v) > curveBlockLen {
+		y.curveV = append(y.curveV, make([]float32, 0, curveBlockLen))
 		nb++
 	}
+	y.curveAt = append(y.curveAt, int64(nb-1)*curveBlockLen+int64(len(y.curveV[nb-1])))
 	y.curveV[nb-1] = append(y.curveV[nb-1], v...)
 }
 
-// curve returns curve c's voltages on its step's grid.
-func (y *Year) curve(c int32) []float32 {
-	b, k := int(c)/curveBlock, int(c)%curveBlock
-	return y.curveV[b][k*curvePoints : (k+1)*curvePoints]
+// curve returns curve c's n voltages on its step's grid.
+func (y *Year) curve(c int32, n int) []float32 {
+	at := y.curveAt[c]
+	b, k := at/curveBlockLen, int(at%curveBlockLen)
+	return y.curveV[b][k : k+n]
 }
+
+// grid returns step s's current grid (A).
+func (y *Year) grid(s int) []float64 { return y.gridI[y.gridOff[s]:y.gridOff[s+1]] }
 
 // yearWorker is one goroutine's working space.
 type yearWorker struct {
 	sc     curveScratch
-	v, gi  []float64
-	q      []float64 // n × nc: the step's quantised cell irradiances
-	qt     []float64 // n: quantised temperatures
+	v      []float64
+	knees  []float64       // knee currents (A)
+	kneeN  map[float64]int // knee current → modules that have it
+	q      []float64       // n × nc: the step's quantised cell irradiances
+	qt     []float64       // n: quantised temperatures
 	seen   map[uint64]int32
 	repr   []int // local curve → module that defined it
 	unSeen map[[2]float64]float32
@@ -363,14 +374,16 @@ func roundCells(q, irr []float64) {
 }
 
 // build computes step j of batch b: one curve per distinct rounded module input on the step's
-// common current grid, and each module's unshaded maximum.
+// common current grid, and each module's unshaded maximum. The grid is the even points up to
+// the step's top current plus the points around the knee currents of its modules (see
+// appendKnees): the maxKnees knees that the most modules share, so that every curve of the
+// step keeps the same currents and strings still add voltages point by point.
 func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	n, nc := b.n, b.nc
 	if w.seen == nil {
 		w.seen = map[uint64]int32{}
 		w.unSeen = map[[2]float64]float32{}
-		w.v = make([]float64, curvePoints)
-		w.gi = make([]float64, curvePoints)
+		w.kneeN = map[float64]int{}
 	}
 	w.q = slices.Grow(w.q[:0], n*nc)[:n*nc]
 	w.qt = slices.Grow(w.qt[:0], n)[:n]
@@ -390,16 +403,12 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 		}
 		top = math.Max(top, m.topCurrent(qirr(k), w.qt[k]))
 	}
-	i0, hI := gridFor(top)
-	o.i0, o.h = i0, hI
-	for k := range w.gi {
-		w.gi[k] = i0 + float64(k)*hI
-	}
-	o.v, o.mpp = o.v[:0], o.mpp[:0]
+	o.mpp = o.mpp[:0]
 	o.mod = slices.Grow(o.mod[:0], n)[:n]
 	o.unW = slices.Grow(o.unW[:0], n)[:n]
 	clear(w.seen)
 	w.repr = w.repr[:0]
+	clear(w.kneeN)
 	for k := range n {
 		key := hashCells(qirr(k), w.qt[k])
 		c, ok := w.seen[key]
@@ -410,17 +419,39 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 			}
 		}
 		if !ok {
-			c = int32(len(o.mpp))
+			c = int32(len(w.repr))
 			w.seen[key] = c
 			w.repr = append(w.repr, k)
-			m.curveOnGrid(qirr(k), w.qt[k], i0, hI, w.v, &w.sc)
-			for _, x := range w.v {
-				o.v = append(o.v, float32(x))
-			}
-			p, _, _ := polyMax(w.gi, w.v, 0, math.Inf(1), math.Inf(1))
-			o.mpp = append(o.mpp, float32(p))
 		}
 		o.mod[k] = c
+		w.knees = m.appendKnees(w.knees[:0], qirr(k), w.qt[k])
+		for _, ik := range w.knees {
+			w.kneeN[ik]++
+		}
+	}
+	w.knees = w.knees[:0]
+	for ik := range w.kneeN {
+		w.knees = append(w.knees, ik)
+	}
+	// The most shared knees first, then by current: the choice depends only on the step.
+	slices.SortFunc(w.knees, func(a, b float64) int {
+		if c := cmp.Compare(w.kneeN[b], w.kneeN[a]); c != 0 {
+			return c
+		}
+		return cmp.Compare(a, b)
+	})
+	w.knees = w.knees[:min(len(w.knees), maxKnees)]
+	o.grid = appendGrid(o.grid[:0], top, w.knees, m.kneeW)
+	np := len(o.grid)
+	w.v = grow(w.v, np)
+	o.v = o.v[:0]
+	for _, r := range w.repr {
+		m.curveOnGrid(qirr(r), w.qt[r], o.grid, w.v, &w.sc)
+		for _, x := range w.v {
+			o.v = append(o.v, float32(x))
+		}
+		p, _, _ := polyMax(o.grid, w.v, 0, math.Inf(1), math.Inf(1))
+		o.mpp = append(o.mpp, float32(p))
 	}
 	// Unshaded maxima, shared between modules with the same rounded irradiance and
 	// temperature.
@@ -606,9 +637,10 @@ func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []fl
 	ns := len(in)
 	for len(sc.pairs) < ns {
 		sc.pairs = append(sc.pairs, nil)
-		sc.sums = append(sc.sums, make([]float64, curvePoints))
+		sc.sums = append(sc.sums, nil)
 		sc.is = append(sc.is, nil)
 	}
+	np := len(sc.gi)
 	for b, str := range in {
 		pr := sc.pairs[b][:0]
 	modules:
@@ -634,10 +666,11 @@ func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []fl
 		last = 1
 	}
 	for b := range last {
+		sc.sums[b] = grow(sc.sums[b], np)
 		sum := sc.sums[b]
 		clear(sum)
 		for _, p := range sc.pairs[b] {
-			cv := y.curve(p.c)
+			cv := y.curve(p.c, np)
 			f := float64(p.n)
 			for k, x := range cv {
 				sum[k] += f * float64(x)
@@ -649,6 +682,7 @@ func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []fl
 		if ns == 1 {
 			return sc.gi, sc.sums[0]
 		}
+		sc.gs = grow(sc.gs, np)
 		for k, x := range sc.gi {
 			sc.gs[k] = x * float64(ns)
 		}
