@@ -11,12 +11,14 @@ import (
 // first point (reverse current, voltage above the last computed point) it
 // continues the first segment, and beyond the last point it keeps the last
 // voltage (every substring bypassed). The points are exact solutions of the
-// model; Module.Curve spaces them evenly in current, so that the maximum power
-// read from the polyline of an evenly lit module is within 0.1 % of the exact
-// single-diode value, while a module with a partly shaded cell, whose bypass
-// diode's knee falls between two points, reads up to 1.7 % low (see the
-// tests); strings of unequal length in parallel, where the shorter one works
-// near its open-circuit voltage, read up to 0.4 % low.
+// model; Module.Curve spaces them evenly in current and adds points around
+// each bypass diode's knee (a partly shaded cell), so that the maximum power
+// read from the polyline is within 0.1 % of the exact single-diode value,
+// evenly lit or with one cell at any level of shade (see the tests; in a Year
+// a step shares its points among its modules, and a module whose knee is not
+// among the step's maxKnees most shared reads up to 1.7 % low, as with even
+// points alone); strings of unequal length in parallel, where the shorter one
+// works near its open-circuit voltage, read up to 0.4 % low.
 // The zero Curve is empty: it delivers no power.
 type Curve struct {
 	i, v []float32

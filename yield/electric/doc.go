@@ -46,10 +46,12 @@
 // common cells (from memory). The most shaded cell therefore limits its
 // substring's current, the weakest-cell behaviour.
 //
-// Curves are polylines of 64 points on a current grid (see Curve); series
-// and parallel connection are exact operations on polylines, and the
-// maximum power is exact on the polyline: within 0.1 % of the exact model for
-// evenly lit modules, up to 1.7 % low at a step with a partly shaded cell.
+// Curves are polylines on a current grid of 64 even points plus points around
+// the bypass diodes' knees (see Curve); series and parallel connection are
+// exact operations on polylines, and the maximum power is exact on the
+// polyline: within 0.1 % of the exact model, evenly lit or with a partly
+// shaded cell (up to 1.7 % low for a module whose knee is not among the step's
+// four most shared, see NewYear).
 // A cell's points are computed only while its substring's bypass diode is
 // off (every cell's voltage falls with current, so a bypassed substring stays
 // bypassed at higher currents); this changes no point of the curve.

@@ -16,7 +16,7 @@ import (
 // EquivalenceMarginPct is how close (percent of the best layout's annual energy) a layout
 // must come to the best to count as equivalent. The electrical model reads a string's
 // maximum power from a polyline of its I-V curve within 0.1 % of the exact single-diode
-// value when evenly lit (up to 1.7 % low at a step where a cell is partly shaded), and
+// value, evenly lit or with a partly shaded cell (points around the bypass diodes' knees), and
 // strings of unequal length in parallel read up to 0.4 % low (electric.Curve):
 // two layouts closer than about half a percent are not told apart reliably by the model,
 // whatever the yield's absolute uncertainty. Among equivalent layouts the advice chooses by
