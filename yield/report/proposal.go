@@ -381,9 +381,13 @@ func (pr *Proposal) plainAssumptions(d *pdfDoc) {
 	lo, hi, basis := Uncertainty(s.Climate.Source)
 	d.para(fmt.Sprintf("The yearly energy of %s kWh is expected within ±%g to %g %%: between %s and %s kWh in a typical year. The figure rests on %s. A single year can fall outside this range.",
 		Thousands(s.AnnualACkWh, 0), lo, hi, Thousands(s.AnnualACkWh*(1-hi/100), 0), Thousands(s.AnnualACkWh*(1+hi/100), 0), basis))
+	// The warnings are the surveyor's to-dos, worded for the site file and the map (keys,
+	// feature ids, what to measure): the homeowner learns that they exist, the installer's
+	// sheet lists them.
 	if len(s.Warnings) > 0 {
 		d.sub("Please note")
-		d.bullets(Lines(s.Warnings))
+		d.para(fmt.Sprintf("The surveyor has %s on this estimate, listed in the installer's technical sheet; the figures may change once they are settled.",
+			Count(len(s.Warnings), "open point", "open points")))
 	}
 	d.sub("Safety")
 	d.bullets(s.Cautions)

@@ -127,11 +127,12 @@ func TestDocumentsPDF(t *testing.T) {
 			want, not []string
 		}{
 			{"proposal", (*Proposal).PDF, proposalTitles,
-				[]string{"2,346", "977", "2.40 kWp", "6.4 %", "licensed installer", "less light on the modules", "For Ms Example", "valid until 2026-06-30"},
-				// the installer's part stays out of the homeowner's document
-				[]string{"124.6 V", "open circuit", "hill-climbing", "Reda & Andreas"}},
+				[]string{"2,346", "977", "2.40 kWp", "6.4 %", "licensed installer", "less light on the modules", "For Ms Example", "valid until 2026-06-30", "1 open point"},
+				// the installer's part stays out of the homeowner's document, the surveyor's
+				// warnings (worded for the site file) with it
+				[]string{"124.6 V", "open circuit", "hill-climbing", "Reda & Andreas", "test warning"}},
 			{"technical sheet", (*Proposal).TechnicalPDF, technicalTitles,
-				[]string{"2,346", "124.6 V", "licensed installer", "module-level converters", "Reda & Andreas", "shaded modules holding back their strings", "conversion to AC", "The inverter"},
+				[]string{"2,346", "124.6 V", "licensed installer", "module-level converters", "Reda & Andreas", "shaded modules holding back their strings", "conversion to AC", "The inverter", "test warning"},
 				nil},
 		} {
 			t.Run(tc.name+"/"+doc.name, func(t *testing.T) {
