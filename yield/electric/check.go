@@ -134,13 +134,18 @@ func CheckStrings(ds Datasheet, inputs [][]int, lowTempC, hotCellTempC float64, 
 			out = append(out, Finding{Severity: Warning, Code: "vmp_cold", Input: a, Value: v, Limit: inv.MPPTMaxV, Unit: "V",
 				Message: fmt.Sprintf("input %d: %d modules give %.1f V at the MPP at %g °C, above the MPPT maximum %.0f V", a+1, maxL, v, lowTempC, inv.MPPTMaxV)})
 		}
+		// One string on an input cannot be split further: the remedy is another input.
+		give, fewer := fmt.Sprintf("%d strings give", nPar), "or put fewer strings on this input"
+		if nPar == 1 {
+			give, fewer = "1 string gives", "or choose an inverter whose inputs take one string's current"
+		}
 		if i := float64(nPar) * ds.ImpA; i > inv.MaxInputCurrentA {
 			out = append(out, Finding{Severity: Warning, Code: "input_current", Input: a, Value: i, Limit: inv.MaxInputCurrentA, Unit: "A",
-				Message: fmt.Sprintf("input %d: %d strings give %.1f A at the MPP, above the input limit %.1f A; the inverter will clip current", a+1, nPar, i, inv.MaxInputCurrentA)})
+				Message: fmt.Sprintf("input %d: %s %.1f A at the MPP, above the input limit %.1f A; the inverter will clip current", a+1, give, i, inv.MaxInputCurrentA)})
 		}
 		if i := 1.25 * float64(nPar) * ds.IscA; i > inv.MaxInputCurrentA {
 			out = append(out, Finding{Severity: Warning, Code: "input_isc", Input: a, Value: i, Limit: inv.MaxInputCurrentA, Unit: "A",
-				Message: fmt.Sprintf("input %d: 1.25 × short-circuit current (the IEC 62548-1 sizing factor) is %.1f A, above the input rating %.1f A; check the inverter's maximum short-circuit current per input, or put fewer strings on this input", a+1, i, inv.MaxInputCurrentA)})
+				Message: fmt.Sprintf("input %d: 1.25 × short-circuit current (the IEC 62548-1 sizing factor) is %.1f A, above the input rating %.1f A; check the inverter's maximum short-circuit current per input, %s", a+1, i, inv.MaxInputCurrentA, fewer)})
 		}
 		if minL != maxL {
 			out = append(out, Finding{Severity: Warning, Code: "unequal_strings", Input: a, Value: float64(maxL), Limit: float64(minL), Unit: "",

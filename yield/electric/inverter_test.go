@@ -204,6 +204,26 @@ func TestStringSizing(t *testing.T) {
 	if !isc {
 		t.Errorf("no input_isc finding in %+v", fs)
 	}
+	// One string of 10 A short-circuit current on a 12 A input: 1.25 × 10 A = 12.5 A over the
+	// rating (hand calculation); the advice cannot be fewer strings on that input.
+	big := ds
+	big.IscA = 10
+	found := false
+	for _, f := range CheckStrings(big, [][]int{{12}}, -10, 70, inv) {
+		if f.Code != "input_isc" {
+			continue
+		}
+		found = true
+		if !scalar.EqualWithinAbs(f.Value, 12.5, 1e-9) {
+			t.Errorf("input_isc %.4f A, want 12.5", f.Value)
+		}
+		if strings.Contains(f.Message, "fewer strings") {
+			t.Errorf("one string on the input: %q", f.Message)
+		}
+	}
+	if !found {
+		t.Errorf("no input_isc finding for one string of 10 A on a 12 A input")
+	}
 	if fs := CheckStrings(ds, [][]int{{20}, {12}}, -10, 70, inv); len(fs) != 0 {
 		t.Errorf("good design flagged: %+v", fs)
 	}
