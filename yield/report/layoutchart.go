@@ -60,7 +60,9 @@ func LayoutAdviceChart(s *Summary, pl *Plan) *plot.Plot {
 		if l.Name == chosen {
 			name = "► " + name
 		}
-		names[n-1-i] = Printable(name)
+		// A long structural name would take the width the bars need (their axis labels ran
+		// together); the technical sheet's table gives every name in full.
+		names[n-1-i] = Printable(shorten(name, maxRowName))
 		c := color.Color(Muted)
 		if l.EquivalentToBest {
 			c = Accent
@@ -180,6 +182,9 @@ func (s smallPlans) Plot(c draw.Canvas, p *plot.Plot) {
 		c.FillText(sty, vg.Point{X: x0 + panelW/2, Y: top - titleH + vg.Points(3)}, Printable(shorten(name, fit)))
 	}
 }
+
+// maxRowName is the longest layout name, in runes, written beside a bar of layouts.png.
+const maxRowName = 48
 
 // shorten cuts a name to at most n runes with an ellipsis.
 func shorten(s string, n int) string {

@@ -3,6 +3,7 @@ package report
 import (
 	"bytes"
 	"image/png"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/plot/vg"
@@ -59,5 +60,25 @@ func TestLayoutAdviceChart(t *testing.T) {
 				t.Errorf("accent share %.4f, want at least %.4f (none when there are no layouts)", share, c.minShare)
 			}
 		})
+	}
+}
+
+// TestLayoutChartShortensLongNames: a long structural name is cut with an ellipsis beside
+// its bar, so that the bars keep their width (the full name is in the technical sheet).
+func TestLayoutChartShortensLongNames(t *testing.T) {
+	long := "strings of 10 and 10, shaded modules spread over one input's strings, strings in parallel"
+	s := &Summary{Layouts: []Layout{{Name: "roof order", AnnualACkWh: 1000}, {Name: long, AnnualACkWh: 990, BehindBestKWh: 10}}}
+	p := LayoutAdviceChart(s, &Plan{})
+	cut := false
+	for _, tk := range p.Y.Tick.Marker.Ticks(p.Y.Min, p.Y.Max) {
+		if n := len([]rune(tk.Label)); n > maxRowName {
+			t.Errorf("label %q has %d runes, want at most %d", tk.Label, n, maxRowName)
+		}
+		if strings.HasPrefix(tk.Label, "2. strings of 10 and 10") && strings.HasSuffix(tk.Label, "…") {
+			cut = true
+		}
+	}
+	if !cut {
+		t.Errorf("the long name is not shortened with an ellipsis")
 	}
 }
