@@ -72,3 +72,25 @@ func TestCount(t *testing.T) {
 		})
 	}
 }
+
+// TestModulesText: the count says connected and placed when they differ, as the documents
+// and the survey's terminal line give it.
+func TestModulesText(t *testing.T) {
+	tests := []struct {
+		name              string
+		connected, placed int
+		want              string
+	}{
+		{"all connected", 22, 22, "22 modules"},
+		{"one module", 1, 1, "1 module"},
+		{"some left out", 26, 45, "26 connected of 45 placed"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			s := &Summary{Modules: tc.connected, Faces: []Face{{ID: "S", Modules: tc.placed}}}
+			if got := ModulesText(s); got != tc.want {
+				t.Errorf("ModulesText = %q, want %q", got, tc.want)
+			}
+		})
+	}
+}

@@ -137,8 +137,9 @@ func placed(s *Summary) int {
 	return n
 }
 
-// modulesText says how many modules are connected, and placed when that differs.
-func modulesText(s *Summary) string {
+// ModulesText says how many modules are connected, and placed when that differs ("22
+// modules", "26 connected of 45 placed").
+func ModulesText(s *Summary) string {
 	p := placed(s)
 	if p == s.Modules || p == 0 {
 		return Count(s.Modules, "module", "modules")
@@ -205,7 +206,7 @@ func (pr *Proposal) PDF() ([]byte, error) {
 	}
 	d.figures([]figure{
 		{"Energy a year", Thousands(s.AnnualACkWh, 0), "kWh of AC"},
-		{"System size", Thousands(s.DCkWp, 2) + " kWp", modulesText(s)},
+		{"System size", Thousands(s.DCkWp, 2) + " kWp", ModulesText(s)},
 		{"Per kWp", Thousands(s.SpecificYield, 0), "kWh a year per kWp"},
 		{"Shade costs", shade, shadeUnit},
 	})

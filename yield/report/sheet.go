@@ -45,7 +45,7 @@ func (pr *Proposal) system(d *pdfDoc) {
 	rows := [][2]string{
 		{"Location", latLon(s.Site.Latitude, s.Site.Longitude) + ", time zone " + s.Site.Timezone},
 		{"Climate", fmt.Sprintf("%s; %s kWh/m² global horizontal irradiation per year", climateText(s.Climate), Thousands(s.Climate.AnnualGHIkWhM2, 0))},
-		{"Modules", fmt.Sprintf("%s × %s W (%s kWp), %s m × %s m, %s, %s", modulesText(s), Thousands(e.ModulePowerW, 0),
+		{"Modules", fmt.Sprintf("%s × %s W (%s kWp), %s m × %s m, %s, %s", ModulesText(s), Thousands(e.ModulePowerW, 0),
 			Thousands(s.DCkWp, 2), Thousands(e.ModuleLengthM, 2), Thousands(e.ModuleWidthM, 2), cellsText(e), Count(e.BypassDiodes, "bypass diode", "bypass diodes"))},
 		{"Inverter", fmt.Sprintf("%s W AC, %s, %s to %s V MPPT window, %s V DC maximum", Thousands(e.InverterACW, 0), Count(e.InverterInputs, "MPPT input", "MPPT inputs"),
 			Thousands(e.MPPTMinV, 0), Thousands(e.MPPTMaxV, 0), Thousands(e.InverterMaxDCV, 0))},

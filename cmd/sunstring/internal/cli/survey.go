@@ -103,7 +103,8 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		if sum.Climate.Source == "indicative" {
 			fmt.Fprintln(w, survey.IndicativeWarning)
 		}
-		fmt.Fprintf(w, "%s: %d modules, %.2f kWp\n", p.Cfg.Name, best.Modules, best.DCkWp)
+		// connected and placed, as the documents count them
+		fmt.Fprintf(w, "%s: %s, %.2f kWp\n", p.Cfg.Name, report.ModulesText(best), best.DCkWp)
 		fmt.Fprintf(w, "annual AC energy %s kWh, specific yield %s kWh/kWp, performance ratio %.2f\n",
 			report.Thousands(best.AnnualACkWh, 0), report.Thousands(best.SpecificYield, 0), best.PerformanceRatio)
 		if len(best.Layouts) > 0 {
