@@ -5,7 +5,9 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"strings"
+	"sync"
 	"time"
 
 	"codeberg.org/go-fonts/liberation/liberationsansbold"
@@ -321,21 +323,52 @@ func (d *pdfDoc) finish() ([]byte, error) {
 	return buf.Bytes(), nil
 }
 
-// renderCharts draws the proposal's charts for a document, by name.
+// renderCharts draws the proposal's charts for the documents, by name, once for both of them.
 func (pr *Proposal) renderCharts() (map[string][]byte, error) {
-	charts := map[string][]byte{}
-	for k, c := range pr.Charts() {
-		// fpdf's catalog sort orders images by pixel width alone, and takes them from a map:
-		// charts of equal width would land in a random order and the bytes would differ from
-		// run to run. One pixel more per chart (invisible once placed) makes the order fixed.
-		px := vg.Inch / chartDPI
-		b, err := Render(c.Plot, c.W+vg.Length(k)*px, c.H, PNG)
+	if pr.pdfCharts != nil {
+		return pr.pdfCharts, nil
+	}
+	cs := pr.Charts()
+	// fpdf's catalog sort orders images by pixel width alone, and takes them from a map:
+	// charts of equal width would land in a random order and the bytes would differ from
+	// run to run. One pixel more per chart (invisible once placed) makes the order fixed.
+	px := vg.Inch / chartDPI
+	bs, err := RenderEach(len(cs), func(k int) ([]byte, error) {
+		return Render(cs[k].Plot, cs[k].W+vg.Length(k)*px, cs[k].H, PNG)
+	})
+	if err != nil {
+		return nil, err
+	}
+	charts := make(map[string][]byte, len(cs))
+	for k, c := range cs {
+		charts[c.Name] = bs[k]
+	}
+	pr.pdfCharts = charts
+	return charts, nil
+}
+
+// RenderEach calls render for 0..n-1 on all cores and returns the results in order, or the
+// first error by index. Charts are independent, and drawing them is most of a report's time.
+func RenderEach(n int, render func(i int) ([]byte, error)) ([][]byte, error) {
+	out := make([][]byte, n)
+	errs := make([]error, n)
+	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
+	var wg sync.WaitGroup
+	for i := range n {
+		wg.Add(1)
+		sem <- struct{}{}
+		go func() {
+			defer func() { <-sem; wg.Done() }()
+			out[i], errs[i] = render(i)
+		}()
+	}
+	wg.Wait()
+	for _, err := range errs {
 		if err != nil {
 			return nil, err
 		}
-		charts[c.Name] = b
 	}
-	return charts, nil
+	return out, nil
 }
 
 // cover prints the document's first lines: the kind of document, the site's name and the

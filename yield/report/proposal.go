@@ -32,6 +32,8 @@ type Proposal struct {
 	// Date stamps the documents' metadata (the survey's date); zero: the cover's date, else
 	// 1 January 2000.
 	Date time.Time
+
+	pdfCharts map[string][]byte // the charts as the documents place them, drawn once
 }
 
 // Equipment is the module and inverter as the site file gives them.

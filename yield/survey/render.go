@@ -108,17 +108,33 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	if opt.SVG {
 		formats = append(formats, report.SVG)
 	}
-	for _, c := range pr.Charts() {
+	charts := pr.Charts()
+	type job struct {
+		c report.Chart
+		f report.Format
+	}
+	var jobs []job
+	for _, c := range charts {
+		for _, f := range formats {
+			jobs = append(jobs, job{c, f})
+		}
+	}
+	bs, err := report.RenderEach(len(jobs), func(i int) ([]byte, error) {
 		if err := ctx.Err(); err != nil {
 			return nil, fmt.Errorf("survey: rendering: %w", err)
 		}
-		for _, f := range formats {
-			b, err := report.Render(c.Plot, c.W, c.H, f)
-			if err != nil {
-				return nil, fmt.Errorf("%s%s: %w", c.Name, f.Ext(), err)
-			}
-			files[c.Name+f.Ext()] = b
+		j := jobs[i]
+		b, err := report.Render(j.c.Plot, j.c.W, j.c.H, j.f)
+		if err != nil {
+			return nil, fmt.Errorf("%s%s: %w", j.c.Name, j.f.Ext(), err)
 		}
+		return b, nil
+	})
+	if err != nil {
+		return nil, err
+	}
+	for i, j := range jobs {
+		files[j.c.Name+j.f.Ext()] = bs[i]
 	}
 	if err := ctx.Err(); err != nil {
 		return nil, fmt.Errorf("survey: rendering: %w", err)
