@@ -7,6 +7,7 @@ import (
 	"sunstring/yield"
 	"sunstring/yield/finding"
 	"sunstring/yield/irradiance"
+	"sunstring/yield/layout"
 	"sunstring/yield/plausible"
 	"sunstring/yield/weather"
 )
@@ -45,7 +46,16 @@ func (p *Project) loadFindings(mapPath string, fitNotes, fillNotes []string) fin
 	out = append(out, fs...)
 	// With a module size that cannot be, the module count and so the DC/AC ratio mean nothing.
 	if len(p.Modules) > 0 && fs.Worst() < finding.Fail {
-		_, fs = plausible.DCAC(cfg.File+": inverter.ac_power_w", float64(len(p.Modules))*m.PowerW, cfg.Inverter.ACPowerW)
+		// The ratio is of what the inverter can take: modules beyond its inputs' strings stay
+		// unconnected and add no DC power (said in their own warning).
+		n := len(p.Modules)
+		if b, err := layout.StringBounds(p.Datasheet, p.Inverter, layout.Limits{
+			LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
+			Mounting: p.Mounting(),
+		}); err == nil {
+			n = min(n, p.Inverter.Inputs*b.MaxParallel*b.MaxSeries)
+		}
+		_, fs = plausible.DCAC(cfg.File+": inverter.ac_power_w", float64(n)*m.PowerW, cfg.Inverter.ACPowerW)
 		out = append(out, fs...)
 	}
 	where := mapPath + " (the map's centre)"

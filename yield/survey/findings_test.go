@@ -101,6 +101,13 @@ func TestPreflightFindings(t *testing.T) {
 		{"9 kWp on 3 kW", 8.5, false, func(cfg *survey.Config) { monthly(cfg); cfg.Inverter.ACPowerW = 3000 }, map[string][]string{
 			"dc_ac_ratio": {"site.yaml: inverter.ac_power_w", "DC/AC ratio"},
 		}, nil},
+		// One input of one string: at most 14 modules in series (600 V over 37.4 V·(1 + 0.27 %/K
+		// × 35 K) = 40.9 V a module at −10 °C), 5.74 kWp on 4.5 kW = 1.28; the placed modules
+		// alone (more than 17) would read above 1.5.
+		{"modules beyond the inverter's strings", 8.5, false, func(cfg *survey.Config) {
+			monthly(cfg)
+			cfg.Inverter.Inputs, cfg.Inverter.ACPowerW = 1, 4500
+		}, nil, []string{"dc_ac_ratio"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
