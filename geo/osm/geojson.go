@@ -56,18 +56,9 @@ func HasKinds(data []byte) bool {
 // building:part, Point features tagged natural=tree, with the same rules as Read. Other
 // features are passed over. Problems name the file, the feature index and its id.
 func ReadGeoJSON(r io.Reader, proj *geo.ENU, opt Options) (*geo.Surroundings, error) {
-	if proj == nil {
-		return nil, errors.New("osm: ReadGeoJSON needs the site's projection")
-	}
-	if opt.File == "" {
-		opt.File = "extract"
-	}
-	if opt.StoreyM <= 0 {
-		opt.StoreyM = DefaultStoreyM
-	}
-	data, err := io.ReadAll(io.LimitReader(r, MaxBytes+1))
+	data, opt, err := begin(r, proj, opt, "ReadGeoJSON")
 	if err != nil {
-		return nil, fmt.Errorf("osm: reading %s: %w", opt.File, err)
+		return nil, err
 	}
 	rd := &reader{opt: opt, proj: proj, line: map[string]int{}, feature: map[string]int{}}
 	if len(data) > MaxBytes {

@@ -80,18 +80,9 @@ type reader struct {
 // the local metres of proj, with a warning for every height it had to assume. Bad input gives a
 // geo.Problems error naming the file, the line and the element.
 func Read(r io.Reader, proj *geo.ENU, opt Options) (*geo.Surroundings, error) {
-	if proj == nil {
-		return nil, errors.New("osm: Read needs the site's projection")
-	}
-	if opt.File == "" {
-		opt.File = "extract"
-	}
-	if opt.StoreyM <= 0 {
-		opt.StoreyM = DefaultStoreyM
-	}
-	data, err := io.ReadAll(io.LimitReader(r, MaxBytes+1))
+	data, opt, err := begin(r, proj, opt, "Read")
 	if err != nil {
-		return nil, fmt.Errorf("osm: reading %s: %w", opt.File, err)
+		return nil, err
 	}
 	rd := &reader{opt: opt, proj: proj, line: map[string]int{}, nodes: map[posm.NodeID]*posm.Node{}}
 	if len(data) > MaxBytes {
@@ -472,4 +463,23 @@ func halfWidth(ring orb.Ring, azDeg float64) float64 {
 		half = math.Max(half, math.Abs((p[0]-c[0])*math.Cos(a)-(p[1]-c[1])*math.Sin(a)))
 	}
 	return half
+}
+
+// begin checks a reader's arguments, fills in the options' defaults and reads the whole
+// input, at most MaxBytes+1 of it (the caller refuses more).
+func begin(r io.Reader, proj *geo.ENU, opt Options, fn string) ([]byte, Options, error) {
+	if proj == nil {
+		return nil, opt, fmt.Errorf("osm: %s needs the site's projection", fn)
+	}
+	if opt.File == "" {
+		opt.File = "extract"
+	}
+	if opt.StoreyM <= 0 {
+		opt.StoreyM = DefaultStoreyM
+	}
+	data, err := io.ReadAll(io.LimitReader(r, MaxBytes+1))
+	if err != nil {
+		return nil, opt, fmt.Errorf("osm: reading %s: %w", opt.File, err)
+	}
+	return data, opt, nil
 }
