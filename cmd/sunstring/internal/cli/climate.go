@@ -60,7 +60,7 @@ file's monthly values turned into an hourly year, or an indicative clear-sky yea
 		fmt.Fprintf(tw, "year\t%.0f\t%.0f\t%.0f\t\t\n", g, d, h)
 		tw.Flush()
 		for _, s := range ws.Warnings {
-			fmt.Fprintln(w, "warning:", s)
+			fmt.Fprintln(w, "warning", s) // the severity first, as check prints it
 		}
 		return nil
 	}
