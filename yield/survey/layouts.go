@@ -42,8 +42,17 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 	weightWh := cfg.Layouts.CableWeight * 1000
 	var out []RankedLayout
 	seen := map[string]bool{}
+	firstName := map[string]string{} // a layout's key → the name it was first listed under
 	names := map[string]bool{}
 	eval := func(name string, l electric.Layout, note string) error {
+		// A user's layout may repeat the roof order or another user's layout: it is still
+		// listed under its own name, and says so, so that two names for one wiring do not read
+		// as two choices.
+		if first, ok := firstName[layoutKey(l)]; ok {
+			note += fmt.Sprintf("; the same strings as %q", first)
+		} else {
+			firstName[layoutKey(l)] = name
+		}
 		r, err := m.Evaluate(l, electric.EvalOptions{})
 		if err != nil {
 			return fmt.Errorf("layout %q: %w", name, err)
@@ -149,7 +158,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 	sort.SliceStable(out, func(i, j int) bool { return score(out[i]) > score(out[j]) })
 	var kept []RankedLayout
 	for i, l := range out {
-		if i < keep || l.Note == userNote {
+		if i < keep || strings.HasPrefix(l.Note, userNote) {
 			kept = append(kept, l)
 		}
 	}
