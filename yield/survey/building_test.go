@@ -1,8 +1,6 @@
 package survey_test
 
 import (
-	"context"
-	"fmt"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -29,23 +27,11 @@ func surveyMaps(t *testing.T, maps map[string]string, extra map[string]string) m
 		if errs := cfg.Validate(); len(errs) > 0 {
 			t.Fatal(errs)
 		}
-		read := func(path, what string) ([]byte, error) {
-			if path == "roof.geojson" {
-				return []byte(m), nil
-			}
-			if s, ok := extra[path]; ok {
-				return []byte(s), nil
-			}
-			return nil, fmt.Errorf("%s: no such %s", path, what)
+		files := map[string]string{"roof.geojson": m}
+		for k, v := range extra {
+			files[k] = v
 		}
-		p, err := survey.Load(cfg, read)
-		if err != nil {
-			t.Fatal(err)
-		}
-		res, err := p.Run(context.Background(), survey.Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
+		res := runSurvey(t, cfg, files)
 		out[name] = [2]float64{float64(res.Summary.Modules), res.Summary.AnnualACkWh}
 	}
 	return out

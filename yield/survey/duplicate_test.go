@@ -1,8 +1,6 @@
 package survey_test
 
 import (
-	"context"
-	"errors"
 	"strings"
 	"testing"
 
@@ -21,21 +19,7 @@ func TestFixedLayoutSameAsRoofOrder(t *testing.T) {
 		if errs := cfg.Validate(); len(errs) > 0 {
 			t.Fatal(errs)
 		}
-		read := func(path, what string) ([]byte, error) {
-			if path == cfg.Path(cfg.Map) {
-				return []byte(exampleMap), nil
-			}
-			return nil, notFound{errors.New(path + ": no such " + what)}
-		}
-		p, err := survey.Load(cfg, read)
-		if err != nil {
-			t.Fatal(err)
-		}
-		res, err := p.Run(context.Background(), survey.Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		return res
+		return runSurvey(t, cfg, map[string]string{cfg.Path(cfg.Map): exampleMap})
 	}
 	first := run(validConfig(t))
 	ro := first.Layouts[0]

@@ -1,7 +1,6 @@
 package survey_test
 
 import (
-	"context"
 	"fmt"
 	"math"
 	"strings"
@@ -90,32 +89,16 @@ func streetSurvey(t *testing.T, m string, surroundings []string) *survey.Result 
 	if errs := cfg.Validate(); len(errs) > 0 {
 		t.Fatal(errs)
 	}
-	read := func(path, what string) ([]byte, error) {
-		switch path {
-		case "roof.geojson":
-			return []byte(m), nil
-		case "street.osm":
-			return []byte(streetOSM()), nil
-		case "street.geojson":
-			// The same neighbour and tree as sunstring's kinds.
-			return []byte(streetMap(false, true)), nil
-		case "tagged.geojson":
-			// The same neighbour and tree as a converter of OpenStreetMap data writes them.
-			lon, lat := lonlat(8, -10)
-			return []byte(`{"type":"FeatureCollection","features":[{"type":"Feature","id":"way/20","properties":{"building":"house","height":11,"roof:height":3,"roof:shape":"gabled","roof:direction":"S"},"geometry":` +
-				polygonJSON(rectPts(-6, -20, 6, -12)) + fmt.Sprintf(`},{"type":"Feature","id":"node/9","properties":{"natural":"tree","height":12,"diameter_crown":6},"geometry":{"type":"Point","coordinates":[%.10f,%.10f]}}]}`, lon, lat)), nil
-		}
-		return nil, fmt.Errorf("%s: no such %s", path, what)
-	}
-	p, err := survey.Load(cfg, read)
-	if err != nil {
-		t.Fatal(err)
-	}
-	res, err := p.Run(context.Background(), survey.Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	return res
+	// The same neighbour and tree as sunstring's kinds (street.geojson) and as a converter of
+	// OpenStreetMap data writes them (tagged.geojson).
+	lon, lat := lonlat(8, -10)
+	return runSurvey(t, cfg, map[string]string{
+		"roof.geojson":   m,
+		"street.osm":     streetOSM(),
+		"street.geojson": streetMap(false, true),
+		"tagged.geojson": `{"type":"FeatureCollection","features":[{"type":"Feature","id":"way/20","properties":{"building":"house","height":11,"roof:height":3,"roof:shape":"gabled","roof:direction":"S"},"geometry":` +
+			polygonJSON(rectPts(-6, -20, 6, -12)) + fmt.Sprintf(`},{"type":"Feature","id":"node/9","properties":{"natural":"tree","height":12,"diameter_crown":6},"geometry":{"type":"Point","coordinates":[%.10f,%.10f]}}]}`, lon, lat),
+	})
 }
 
 // TestSurroundingsShadeAsDrawn: a neighbour building and a tree read from an OpenStreetMap
