@@ -362,10 +362,7 @@ func (pr *Proposal) plainAssumptions(d *pdfDoc) {
 	s := pr.Summary
 	d.heading("What this estimate rests on", "")
 	if s.Climate.Source == "indicative" {
-		d.SetFont(fontName, "B", bodyPt)
-		d.colour(Warn)
-		d.multi(lineMM, "INDICATIVE ONLY: no climate data was given; the figures in this proposal assume a cloudless year and over-state what the system will deliver.", false)
-		d.Ln(2)
+		d.indicative("the figures in this proposal")
 	}
 	d.bullets([]string{
 		"The weather: " + climateText(s.Climate) + fmt.Sprintf(", %s kWh of sunlight per m² a year on flat ground.", Thousands(s.Climate.AnnualGHIkWhM2, 0)),

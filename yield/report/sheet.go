@@ -271,10 +271,7 @@ func (pr *Proposal) models(d *pdfDoc) {
 	s := pr.Summary
 	d.heading("Models, data and uncertainty", "")
 	if s.Climate.Source == "indicative" {
-		d.SetFont(fontName, "B", bodyPt)
-		d.colour(Warn)
-		d.multi(lineMM, "INDICATIVE ONLY: no climate data was given; the figures assume a cloudless year and over-state what the system will deliver.", false)
-		d.Ln(2)
+		d.indicative("the figures")
 	}
 	d.sub("Models")
 	d.bullets(s.Models)
@@ -288,4 +285,13 @@ func (pr *Proposal) models(d *pdfDoc) {
 	lo, hi, basis := Uncertainty(s.Climate.Source)
 	d.para(fmt.Sprintf("The annual AC energy of %s kWh is expected within ±%g to %g %%, between %s and %s kWh in a typical year. This rests on %s. The shading rests on the drawing being right.",
 		Thousands(s.AnnualACkWh, 0), lo, hi, Thousands(s.AnnualACkWh*(1-hi/100), 0), Thousands(s.AnnualACkWh*(1+hi/100), 0), basis))
+}
+
+// indicative prints the warning that the figures rest on a cloudless year, naming which
+// figures (the document's words).
+func (d *pdfDoc) indicative(figures string) {
+	d.SetFont(fontName, "B", bodyPt)
+	d.colour(Warn)
+	d.multi(lineMM, "INDICATIVE ONLY: no climate data was given; "+figures+" assume a cloudless year and over-state what the system will deliver.", false)
+	d.Ln(2)
 }
