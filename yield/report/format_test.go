@@ -1,6 +1,7 @@
 package report
 
 import (
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -90,6 +91,34 @@ func TestModulesText(t *testing.T) {
 			s := &Summary{Modules: tc.connected, Faces: []Face{{ID: "S", Modules: tc.placed}}}
 			if got := ModulesText(s); got != tc.want {
 				t.Errorf("ModulesText = %q, want %q", got, tc.want)
+			}
+		})
+	}
+}
+
+// TestSunLegendShowsEveryClass: the plan's legend lists all five classes whichever are used,
+// so the scale reads the same on every roof; the empty ones say so.
+func TestSunLegendShowsEveryClass(t *testing.T) {
+	// ref 1,000 kWh/m²: the bounds are 950, 900, 800 and 700 kWh/m² (SunBins × ref).
+	tests := []struct {
+		name string
+		used []bool
+		ref  float64
+		want []string
+	}{
+		{"only the two best classes used", []bool{true, true, false, false, false}, 1000, []string{
+			"950 or more", "900 to 950", "800 to 900 (no module)",
+			"700 to 800 (no module)", "below 700 (no module)"}},
+		{"a gap in the middle", []bool{true, false, true, false, true}, 1000, []string{
+			"950 or more", "900 to 950 (no module)", "800 to 900",
+			"700 to 800 (no module)", "below 700"}},
+		{"no module: no scale", make([]bool, 5), 0, nil},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			got := sunLegend(tc.used, tc.ref)
+			if !slices.Equal(got, tc.want) {
+				t.Errorf("sunLegend = %q, want %q", got, tc.want)
 			}
 		})
 	}

@@ -80,6 +80,28 @@ var sunColours = []color.RGBA{
 	{R: 0xec, G: 0xef, B: 0xf0, A: 0xff},
 }
 
+// emptyClass marks a sunlight class of the legend that no connected module falls in.
+const emptyClass = " (no module)"
+
+// sunLegend returns the legend's label of every sunlight class (under sunHeading), in the order of sunColours,
+// the classes no connected module falls in (used[k] false) marked emptyClass: every class,
+// so that the scale reads the same on every roof and a reader comparing two plans finds each
+// colour at the same place. Without a module (ref 0) there is no best to scale by, and no
+// scale.
+func sunLegend(used []bool, ref float64) []string {
+	if ref <= 0 {
+		return nil
+	}
+	out := make([]string, len(sunColours))
+	for k := range sunColours {
+		out[k] = sunClassLabel(k, ref)
+		if !used[k] {
+			out[k] += emptyClass
+		}
+	}
+	return out
+}
+
 // SunClass returns the sunlight class of a module that gets share % of the roof's best.
 func SunClass(share float64) int {
 	for i, b := range SunBins {
@@ -90,18 +112,23 @@ func SunClass(share float64) int {
 	return len(SunBins)
 }
 
-// sunClassLabel names class i with the roof's best irradiation ref (kWh/m² a year).
+// sunClassLabel names class i with the roof's best irradiation ref (kWh/m² a year), the unit
+// left to the legend's heading (sunHeading).
 func sunClassLabel(i int, ref float64) string {
 	kwh := func(pct float64) string { return Thousands(ref*pct/100, 0) }
 	switch {
 	case i == 0:
-		return fmt.Sprintf("%s kWh/m² or more", kwh(SunBins[0]))
+		return fmt.Sprintf("%s or more", kwh(SunBins[0]))
 	case i == len(SunBins):
-		return fmt.Sprintf("below %s kWh/m²", kwh(SunBins[i-1]))
+		return fmt.Sprintf("below %s", kwh(SunBins[i-1]))
 	default:
-		return fmt.Sprintf("%s to %s kWh/m²", kwh(SunBins[i]), kwh(SunBins[i-1]))
+		return fmt.Sprintf("%s to %s", kwh(SunBins[i]), kwh(SunBins[i-1]))
 	}
 }
+
+// sunHeading heads the sunlight classes in the plan's legend: the unit once, so that the
+// classes' labels stay short enough for the legend's share of the picture.
+const sunHeading = "sunlight a year, kWh/m²"
 
 // StringColours are the string colours of the strings chart: the accent first, then hues
 // of similar weight that stay apart for readers with red-green colour blindness; they
@@ -686,10 +713,11 @@ func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	}
 	faceLabels(pl, p)
 	p.Legend.Top = true
-	for k, c := range sunColours {
-		if used[k] {
-			p.Legend.Add("sunlight "+sunClassLabel(k, ref), swatch(c, nil, nil))
-		}
+	if ref > 0 {
+		p.Legend.Add(sunHeading)
+	}
+	for k, label := range sunLegend(used, ref) {
+		p.Legend.Add(label, swatch(sunColours[k], nil, nil))
 	}
 	obstacleLegend(pl, p, f, unconnected)
 	planFrame(p, f)
