@@ -53,8 +53,9 @@ type Options struct {
 	// MaxEvals is the budget of evaluations of new layouts at each level of freedom (see
 	// Search); cache hits are free. Zero means 400.
 	MaxEvals int
-	// Progress, when set, is told how many evaluations are done out of the most the search
-	// may still do.
+	// Progress, when set, is told how many layouts are evaluated (done) out of the most the
+	// search may evaluate in all (total): done never falls; total shrinks when a level ends
+	// before its budget, and the last call has done equal to total.
 	Progress func(done, total int)
 }
 
@@ -142,18 +143,31 @@ func Search(ctx context.Context, p Problem, eval Evaluator, opt Options) (Result
 	}
 	s := newSearcher(ctx, p, n, eval, opt)
 	levels := s.levels(p.Inputs, opt.LeaveOut)
-	s.total = len(levels) * opt.MaxEvals
 	var best []state
-	for _, lv := range levels {
+	for i, lv := range levels {
+		// A level stops at its budget, checked before each batch of neighbours: it may end a
+		// batch less one beyond it.
+		perLevel := opt.MaxEvals + searchBatch - 1
+		s.stop, s.after = s.evals+perLevel, (len(levels)-1-i)*perLevel
 		var err error
 		if best, err = s.runLevel(lv, best); err != nil {
 			return Result{}, err
 		}
-	}
-	if opt.Progress != nil {
-		opt.Progress(s.evals, s.evals)
+		// A level that ends before its budget (a local optimum, or fewer layouts than the
+		// budget) gives the rest back: the total shrinks to what is still possible.
+		s.stop = s.evals
+		s.report()
 	}
 	return Result{Candidates: s.ranked(), Evaluated: len(s.cache), Exhaustive: s.exhaustive, BudgetSpent: s.budgetSpent}, nil
+}
+
+// report tells Options.Progress how many layouts are evaluated out of the most the search may
+// evaluate: the evaluations so far, the current level's unspent budget and the budgets of the
+// levels still to come.
+func (s *searcher) report() {
+	if s.opt.Progress != nil {
+		s.opt.Progress(s.evals, max(s.stop, s.evals)+s.after)
+	}
 }
 
 // level is one degree of freedom of the search: how many inputs it may use and whether it

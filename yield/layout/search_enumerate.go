@@ -34,6 +34,8 @@ func countLayouts(shapes []Shape, n int) float64 {
 // so that parallel strings are not listed in every order. Layouts that differ only in the
 // order of equal inputs come out more than once and are evaluated once (the cache).
 func (s *searcher) enumerate(shapes []Shape) error {
+	// The level evaluates at most every layout once: its share of the progress's total.
+	s.stop = min(s.stop, s.evals+int(math.Round(countLayouts(shapes, s.n))))
 	var batch []state
 	flush := func() error {
 		ptrs := make([]*state, len(batch))

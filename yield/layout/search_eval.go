@@ -25,7 +25,10 @@ type searcher struct {
 	alike []int       // per module: the lowest index with identical shade features and face
 	cache map[string]state
 	evals int // new layouts evaluated, over all levels
-	total int // the most evaluations all levels may do
+	// stop is the most evaluations the search may have done when the current level ends, and
+	// after the most the levels still to come may do: together the progress's total (see
+	// report), which shrinks when a level ends before its budget.
+	stop, after int
 	// exhaustive reports whether the last level enumerated every layout; budgetSpent
 	// whether some level's local search ran out of budget.
 	exhaustive, budgetSpent bool
@@ -266,9 +269,7 @@ func (s *searcher) scoreAll(sts []*state) error {
 		st.energy, st.cable, st.score = c.energy, c.cable, c.score
 	}
 	s.evals += len(todo)
-	if s.opt.Progress != nil {
-		s.opt.Progress(min(s.evals, s.total), s.total)
-	}
+	s.report()
 	return nil
 }
 

@@ -12,6 +12,7 @@ import (
 	"sunstring/yield"
 	"sunstring/yield/report"
 	"sunstring/yield/weather"
+	"sync"
 	"time"
 
 	"github.com/paulmach/orb"
@@ -28,7 +29,13 @@ type RenderOptions struct {
 	// Date dates the documents when the site file's proposal.date does not: the front end
 	// passes SOURCE_DATE_EPOCH's day or the run's. Zero leaves them dated 1 January 2000.
 	Date time.Time
+	// Progress, when set, is told as each file is made that done of total files are made
+	// (stage RenderStage). It may be called from several goroutines at once.
+	Progress func(stage string, done, total int)
 }
+
+// RenderStage names the rendering in RenderOptions.Progress.
+const RenderStage = "report files"
 
 // documentDate is the survey's date: the site file's proposal.date (validated), else the
 // given fallback's day in UTC.
@@ -109,6 +116,26 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 		formats = append(formats, report.SVG)
 	}
 	charts := pr.Charts()
+	// Every file counts one: summary.json and modules.geojson (made by now), the charts in
+	// each format, the two documents and hourly.csv on request.
+	total := 4 + len(charts)*len(formats)
+	if opt.Hourly && len(ls) > 0 {
+		total++
+	}
+	// Charts are drawn concurrently: one lock keeps the count told in order.
+	var mu sync.Mutex
+	made := 2
+	tell := func() {
+		mu.Lock()
+		defer mu.Unlock()
+		made++
+		if opt.Progress != nil {
+			opt.Progress(RenderStage, made, total)
+		}
+	}
+	if opt.Progress != nil {
+		opt.Progress(RenderStage, made, total)
+	}
 	type job struct {
 		c report.Chart
 		f report.Format
@@ -128,6 +155,7 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 		if err != nil {
 			return nil, fmt.Errorf("%s%s: %w", j.c.Name, j.f.Ext(), err)
 		}
+		tell()
 		return b, nil
 	})
 	if err != nil {
@@ -144,6 +172,7 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 		return nil, fmt.Errorf("%s: %w", report.ProposalFile, err)
 	}
 	files[report.ProposalFile] = pdf
+	tell()
 	if err := ctx.Err(); err != nil {
 		return nil, fmt.Errorf("survey: rendering: %w", err)
 	}
@@ -151,6 +180,7 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 		return nil, fmt.Errorf("%s: %w", report.TechnicalFile, err)
 	}
 	files[report.TechnicalFile] = pdf
+	tell()
 	if opt.Hourly && len(ls) > 0 {
 		b, err := report.HourlyCSV(hourlyTable(m, ls[0]))
 		if err != nil {
@@ -161,6 +191,7 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 			b = append([]byte("# "+IndicativeWarning+"\n"), b...)
 		}
 		files["hourly.csv"] = b
+		tell()
 	}
 	return files, nil
 }

@@ -1,6 +1,7 @@
 package cli
 
 import (
+	"fmt"
 	"io"
 	"os"
 	"sync"
@@ -10,7 +11,9 @@ import (
 )
 
 // progress shows long stages as a bar on a terminal's standard error, and nothing when
-// standard error is not a terminal (a pipe, a log file, CI).
+// standard error is not a terminal (a pipe, a log file, CI). A finished stage keeps its line
+// with its full count and time, so the bar never vanishes short of its end; a stage left
+// before its end (an error, a timeout) keeps the line as it last stood.
 type progress struct {
 	mu    sync.Mutex
 	w     io.Writer
@@ -24,7 +27,9 @@ func newProgress(w io.Writer) *progress {
 	return &progress{w: w, on: ok && term.IsTerminal(int(f.Fd()))}
 }
 
-// Update reports that done of total units of stage are finished. Safe for concurrent use.
+// Update reports that done of total units of stage are finished. A stage's total may change
+// as it goes (the layout search gives back the budget a level did not need): the bar then
+// counts against the new total. Safe for concurrent use.
 func (p *progress) Update(stage string, done, total int) {
 	if !p.on {
 		return
@@ -32,28 +37,35 @@ func (p *progress) Update(stage string, done, total int) {
 	p.mu.Lock()
 	defer p.mu.Unlock()
 	if p.bar == nil || p.stage != stage {
-		if p.bar != nil {
-			p.bar.Finish()
-		}
+		p.end()
 		p.stage = stage
 		p.bar = progressbar.NewOptions(total,
 			progressbar.OptionSetWriter(p.w),
 			progressbar.OptionSetDescription(stage),
 			progressbar.OptionShowCount(),
-			progressbar.OptionClearOnFinish(),
+			progressbar.OptionOnCompletion(func() { fmt.Fprintln(p.w) }),
 			progressbar.OptionThrottle(100_000_000),
 		)
 		p.bar.RenderBlank() // show the stage at once, not after the first throttle interval
 	}
+	if int64(total) != p.bar.GetMax64() {
+		p.bar.ChangeMax(total)
+	}
 	p.bar.Set(done)
 }
 
-// Done clears the bar.
+// Done ends the current stage's line.
 func (p *progress) Done() {
 	p.mu.Lock()
 	defer p.mu.Unlock()
-	if p.bar != nil {
-		p.bar.Finish()
-		p.bar = nil
+	p.end()
+}
+
+// end closes the current bar: a finished one has ended its line already, one short of its
+// end stops where it stands (Exit ends the line).
+func (p *progress) end() {
+	if p.bar != nil && !p.bar.IsFinished() {
+		p.bar.Exit()
 	}
+	p.bar = nil
 }

@@ -90,10 +90,11 @@ Estimates only: local codes and a licensed installer have the final word.`,
 		if err != nil {
 			return err
 		}
-		files, err := res.Render(survey.RenderOptions{SVG: svg, Paper: paper, Hourly: hourly, Date: date, Context: ctx})
+		files, err := res.Render(survey.RenderOptions{SVG: svg, Paper: paper, Hourly: hourly, Date: date, Context: ctx, Progress: prog.Update})
 		if err != nil {
 			return err
 		}
+		prog.Done()
 		// A run cancelled while rendering or writing writes nothing.
 		if err := outputSet(files).commit(ctx, out); err != nil {
 			return err
