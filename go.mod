@@ -3,6 +3,7 @@ module sunstring
 go 1.26.8
 
 require (
+	codeberg.org/go-fonts/dejavu v0.4.0
 	codeberg.org/go-fonts/liberation v0.5.0
 	codeberg.org/go-pdf/fpdf v0.12.0
 	github.com/go-viper/mapstructure/v2 v2.5.0

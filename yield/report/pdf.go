@@ -34,10 +34,12 @@ const (
 	fontName = "Sans"
 )
 
-// pdfDoc wraps fpdf with the documents' type hierarchy. Every text goes through Printable.
+// pdfDoc wraps fpdf with the documents' type hierarchy. Every text goes through cell,
+// multi or split (pdftext.go), which draw any script.
 type pdfDoc struct {
 	*fpdf.Fpdf
-	w, h float64 // page, mm
+	w, h  float64         // page, mm
+	faces map[string]bool // fallback fonts registered so far, by family and style
 }
 
 func rgb(c interface{ RGBA() (r, g, b, a uint32) }) (int, int, int) {
@@ -50,16 +52,6 @@ func (d *pdfDoc) colour(c interface{ RGBA() (r, g, b, a uint32) }) {
 }
 
 func (d *pdfDoc) contentW() float64 { return d.w - 2*margin }
-
-// cell is fpdf's CellFormat for text of any script.
-func (d *pdfDoc) cell(w, h float64, s, border string, ln int, align string, fill bool) {
-	d.CellFormat(w, h, Printable(s), border, ln, align, fill, 0, "")
-}
-
-// multi is fpdf's MultiCell for text of any script.
-func (d *pdfDoc) multi(h float64, s string, fill bool) {
-	d.MultiCell(0, h, Printable(s), "", "L", fill)
-}
 
 // heading starts a page with its title (the titles are what the tests look for).
 func (d *pdfDoc) heading(title, lead string) {
@@ -145,7 +137,7 @@ func (d *pdfDoc) table(head []string, rows [][]string, widths []float64, align s
 			if i == 0 {
 				c = strings.TrimPrefix(c, tableHead)
 			}
-			cells[i] = d.SplitText(Printable(c), widths[i]*cw-2)
+			cells[i] = d.split(c, widths[i]*cw-2)
 			if len(cells[i]) == 0 {
 				cells[i] = []string{""}
 			}
@@ -165,7 +157,7 @@ func (d *pdfDoc) table(head []string, rows [][]string, widths []float64, align s
 			}
 			for k, l := range ls {
 				d.SetXY(x, y0+0.65+float64(k)*lineH)
-				d.CellFormat(w, lineH, l, "", 0, string(align[i]), false, 0, "")
+				d.cell(w, lineH, l, "", 0, string(align[i]), false)
 			}
 			x += w
 		}
@@ -270,9 +262,9 @@ func (pr *Proposal) newDoc(title string) (*pdfDoc, error) {
 	f.SetAutoPageBreak(true, margin+6)
 	f.AddUTF8FontFromBytes(fontName, "", liberationsansregular.TTF)
 	f.AddUTF8FontFromBytes(fontName, "B", liberationsansbold.TTF)
-	f.SetTitle(Printable(title+": "+s.Site.Name), true)
+	f.SetTitle(bmp(title+": "+s.Site.Name), true)
 	if pr.Cover.PreparedBy != "" {
-		f.SetAuthor(Printable(pr.Cover.PreparedBy), true)
+		f.SetAuthor(bmp(pr.Cover.PreparedBy), true)
 	}
 	f.SetCreator("sunstring", true)
 	f.SetProducer("sunstring", true)
@@ -294,14 +286,14 @@ func (pr *Proposal) newDoc(title string) (*pdfDoc, error) {
 		// The page label goes beside the line it fits beside, else under both.
 		room := d.contentW() - f.GetStringWidth(page+"   ")
 		d.cell(0, 3.5, first, "", 0, "L", false)
-		if f.GetStringWidth(Printable(first)) <= room {
+		if d.width(first) <= room {
 			d.cell(0, 3.5, page, "", 1, "R", false)
 			page = ""
 		} else {
 			f.Ln(3.5)
 		}
 		d.cell(0, 3.5, second, "", 0, "L", false)
-		if page != "" && f.GetStringWidth(Printable(second)) <= room {
+		if page != "" && d.width(second) <= room {
 			d.cell(0, 3.5, page, "", 0, "R", false)
 		} else if page != "" {
 			f.Ln(3.5)

@@ -188,9 +188,9 @@ func TestDocumentsPDF(t *testing.T) {
 	}
 }
 
-// TestNamesInAnyScript: a name in a script the typeface lacks, or with an emoji, prints
-// with a visible mark instead of failing the document.
-func TestNamesInAnyScript(t *testing.T) {
+// TestChartNamesInAnyScript: in a chart, a name in a script the charts' typeface lacks, or
+// with an emoji, prints with a visible mark instead of failing the document.
+func TestChartNamesInAnyScript(t *testing.T) {
 	tests := []struct {
 		name, in, want string
 	}{
