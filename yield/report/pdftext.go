@@ -132,9 +132,9 @@ func (d *pdfDoc) setFace(face int, family, style string) {
 		return
 	}
 	f := fonts.Chain()[face]
-	ttf, st := f.Regular, ""
-	if strings.Contains(style, "B") && f.Bold != nil {
-		ttf, st = f.Bold, "B"
+	ttf, st := f.Regular(), ""
+	if strings.Contains(style, "B") && f.Bold() != nil {
+		ttf, st = f.Bold(), "B"
 	}
 	key := f.Name + st
 	if !d.faces[key] {
