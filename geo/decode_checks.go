@@ -16,6 +16,25 @@ func (d *decoder) crossChecks(raws []*rawFeature) {
 		byIndex[f.index] = f
 	}
 	faces := d.site.Faces
+	for j := range faces {
+		for i := range j {
+			// Measured, not only tested: outlines drawn along each other's edges share area
+			// without any corner inside the other. A strip within the tolerance is cut off
+			// one of the two here, before anything below looks up the face under a point.
+			accepted, msg, shared := d.faceOverlap(i, j)
+			if !shared && ringsOverlap(faces[i].Plan, faces[j].Plan, overlapTolM) {
+				accepted, msg = false, fmt.Sprintf("overlaps roof face %q (feature %d) in plan; faces may share edges but not cover each other", faces[i].ID, faces[i].Index)
+			} else if !shared {
+				continue
+			}
+			f := byIndex[faces[j].Index]
+			if accepted {
+				d.note(f, msg)
+			} else {
+				d.fproblem(f, f.n.member("geometry"), "geometry", msg)
+			}
+		}
+	}
 	for i := range d.site.Blocks {
 		b := &d.site.Blocks[i]
 		if b.AboveRoofM == 0 && b.HeightM != b.BaseM { // height_m given (a block from height_m is never flat at its base)
@@ -33,24 +52,6 @@ func (d *decoder) crossChecks(raws []*rawFeature) {
 			continue
 		}
 		b.HeightM = roof + b.AboveRoofM
-	}
-	for j := range faces {
-		for i := range j {
-			// Measured, not only tested: outlines drawn along each other's edges share area
-			// without any corner inside the other.
-			accepted, msg, shared := d.faceOverlap(i, j)
-			if !shared && ringsOverlap(faces[i].Plan, faces[j].Plan, overlapTolM) {
-				accepted, msg = false, fmt.Sprintf("overlaps roof face %q (feature %d) in plan; faces may share edges but not cover each other", faces[i].ID, faces[i].Index)
-			} else if !shared {
-				continue
-			}
-			f := byIndex[faces[j].Index]
-			if accepted {
-				d.note(f, msg)
-			} else {
-				d.fproblem(f, f.n.member("geometry"), "geometry", msg)
-			}
-		}
 	}
 	// Hand-drawn panels are modules: two on one spot would count the same roof twice.
 	panels := d.site.Panels

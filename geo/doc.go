@@ -46,7 +46,9 @@
 // block or tree without base_m stands on the ground its coordinates give.
 //
 // A face's eave is its outline's lowest edge (Face.SetEave); heights follow from pitch and
-// aspect. Faces may share edges but not overlap in plan. A block may pierce a face (a
+// aspect. Faces may share edges but not overlap in plan; a strip up to OverlapTolM wide is
+// cut off the face later in the map (exact polygon difference in the local plane, clip.go),
+// with a note. A block may pierce a face (a
 // chimney); a hand-drawn panel on a block or an avoid area gives a note from Fill.
 //
 // # Fill
