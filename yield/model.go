@@ -81,6 +81,8 @@ type Model struct {
 	Shade   *shading.Result
 	Stats   []ModuleStat
 	Records []weather.Record
+	// Steps are the sun-up steps as the shading took them (Shade's steps).
+	Steps []shading.Step
 	// StepRecord maps each sun-up step to its weather record.
 	StepRecord []int
 	// StepMonth is each sun-up step's local month (0-based).

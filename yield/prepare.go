@@ -125,7 +125,7 @@ func (p *prep) shade(ctx context.Context) (*shading.Scene, error) {
 	if err != nil {
 		return nil, fmt.Errorf("yield: shading: %w", err)
 	}
-	p.m.Shade = shade
+	p.m.Shade, p.m.Steps = shade, p.steps
 	return scene, nil
 }
 

@@ -9,6 +9,8 @@ import (
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
+
+	"sunstring/shading"
 )
 
 // The documents' file names: the proposal for the homeowner, the technical sheet for the
@@ -262,19 +264,89 @@ func (pr *Proposal) monthsAndShade(d *pdfDoc, charts map[string][]byte) {
 	}
 }
 
-// obstaclesText names what rises above the horizon in the sun-path chart, highest first.
+// obstaclesText names what shades the module of the sun-path chart, kind by kind in the
+// order and words of the chart's legend, roof faces included (a higher roof or a neighbouring
+// face is as much in the sun's way as a chimney), each with its highest point seen from the
+// module; then what rises above the module's horizon without ever standing in the sun's way.
+// Without the shading's word on what blocks (Shaders nil) it names what rises above the
+// horizon, roof faces left out, since the module's own face rises behind it.
 func obstaclesText(sp *SunPath) string {
+	peak := map[[2]string]float64{}
+	for _, o := range sp.Outlines {
+		p := 0.0
+		for _, e := range o.ElevationDeg {
+			p = math.Max(p, e)
+		}
+		peak[[2]string{o.Kind, o.ID}] = p
+	}
+	up := func(kind, id string) string {
+		if p := peak[[2]string{kind, id}]; p >= 1 {
+			return fmt.Sprintf(" (up to %s°)", Thousands(p, 0))
+		}
+		return ""
+	}
+	if sp.Shaders == nil {
+		return risingText(sp, peak, up)
+	}
+	var groups []string
+	shades := map[[2]string]bool{}
+	for _, kind := range obstacleOrder {
+		var bs []shading.Blocker
+		for _, b := range sp.Shaders {
+			if b.Kind == kind {
+				bs = append(bs, b)
+				shades[[2]string{b.Kind, b.ID}] = true
+			}
+		}
+		if len(bs) == 0 {
+			continue
+		}
+		sort.SliceStable(bs, func(i, j int) bool {
+			return peak[[2]string{kind, bs[i].ID}] > peak[[2]string{kind, bs[j].ID}]
+		})
+		label := strings.ToUpper(obstacleName[kind][:1]) + obstacleName[kind][1:]
+		if kind == "horizon" {
+			if p := peak[[2]string{kind, ""}]; p >= 1 {
+				label += fmt.Sprintf(": up to %s°", Thousands(p, 0))
+			}
+			groups = append(groups, label)
+			continue
+		}
+		var ids []string
+		for _, b := range bs {
+			ids = append(ids, Printable(b.ID)+up(kind, b.ID))
+		}
+		groups = append(groups, label+": "+strings.Join(ids, ", "))
+	}
+	var out string
+	if len(groups) > 0 {
+		out = " What shades it during the year, kind by kind as in the legend. " + strings.Join(groups, ". ") + "."
+	}
+	var idle []string
+	for _, o := range sp.Outlines {
+		if o.Kind == "face" || o.Kind == "horizon" || shades[[2]string{o.Kind, o.ID}] {
+			continue
+		}
+		if u := up(o.Kind, o.ID); u != "" {
+			idle = append(idle, Printable(o.ID)+u)
+		}
+	}
+	if len(idle) > 0 {
+		out += " Above its horizon but never in the sun's way: " + strings.Join(idle, ", ") + "."
+	}
+	return out
+}
+
+// risingText is obstaclesText without the shading's word: what rises above the horizon,
+// highest first, roof faces left out.
+func risingText(sp *SunPath, peak map[[2]string]float64, up func(kind, id string) string) string {
 	type ob struct {
 		id   string
 		peak float64
 	}
 	var obs []ob
 	for _, o := range sp.Outlines {
-		p := 0.0
-		for _, e := range o.ElevationDeg {
-			p = math.Max(p, e)
-		}
-		if p >= 1 && o.Kind != "face" {
+		if p := peak[[2]string{o.Kind, o.ID}]; p >= 1 && o.Kind != "face" {
 			obs = append(obs, ob{o.ID, p})
 		}
 	}

@@ -470,3 +470,58 @@ func TestFaceLabelSpots(t *testing.T) {
 		})
 	}
 }
+
+// TestObstaclesText: the sun-path caption names every kind that shades the module, roof faces
+// included, in the legend's order and words, each object with its highest point; what rises
+// above the horizon without ever being in the sun's way comes after; without the shading's
+// word the caption names what rises, faces left out (the module's own face rises behind it).
+func TestObstaclesText(t *testing.T) {
+	rise := func(peak float64) []float64 {
+		el := make([]float64, 360)
+		for i := 100; i < 120; i++ {
+			el[i] = peak
+		}
+		return el
+	}
+	outlines := []shading.Outline{
+		{Kind: "horizon", ElevationDeg: rise(4)},
+		{ID: "own", Kind: "face", ElevationDeg: rise(35)},
+		{ID: "W", Kind: "face", ElevationDeg: rise(30)},
+		{ID: "chimney", Kind: "block", ElevationDeg: rise(12)},
+		{ID: "oak", Kind: "tree", ElevationDeg: rise(25)},
+		{ID: "birch", Kind: "tree", ElevationDeg: rise(9)},
+	}
+	tests := []struct {
+		name      string
+		shaders   []shading.Blocker
+		want, not []string
+	}{
+		{"a roof face among what shades",
+			[]shading.Blocker{{Kind: "horizon", Steps: 40}, {ID: "W", Kind: "face", Steps: 120}, {ID: "chimney", Kind: "block", Steps: 30}, {ID: "oak", Kind: "tree", Steps: 200}, {ID: "birch", Kind: "tree", Steps: 5}},
+			[]string{"Far horizon: up to 4°. Roof: W (up to 30°). Chimney, dormer, building: chimney (up to 12°). Tree: oak (up to 25°), birch (up to 9°)."},
+			[]string{"own", "never in the sun's way"}},
+		{"a tree that never shades",
+			[]shading.Blocker{{ID: "W", Kind: "face", Steps: 120}},
+			[]string{"Roof: W (up to 30°).", "Above its horizon but never in the sun's way: chimney (up to 12°), oak (up to 25°), birch (up to 9°)."},
+			[]string{"own", "Tree:"}},
+		{"nothing shades", []shading.Blocker{},
+			[]string{"never in the sun's way: chimney"}, []string{"What shades it", "own", " W "}},
+		{"not known", nil,
+			[]string{"Seen from there: oak (up to 25°), chimney (up to 12°), birch (up to 9°), the far horizon (up to 4°)."}, []string{"own", "W ("}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			got := obstaclesText(&SunPath{Outlines: outlines, AzStepDeg: 1, Shaders: tc.shaders})
+			for _, w := range tc.want {
+				if !strings.Contains(got, w) {
+					t.Errorf("caption %q lacks %q", got, w)
+				}
+			}
+			for _, n := range tc.not {
+				if strings.Contains(got, n) {
+					t.Errorf("caption %q holds %q", got, n)
+				}
+			}
+		})
+	}
+}

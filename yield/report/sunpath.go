@@ -25,6 +25,11 @@ type SunPath struct {
 	// every AzStepDeg degrees of azimuth from north.
 	Outlines  []shading.Outline
 	AzStepDeg float64
+	// Shaders are what stands between the module and the sun at some step of the year
+	// (shading.Scene.Blockers), for the documents' caption; nil when not known (the caption
+	// then names what rises above the horizon, the roof faces left out, since the module's own
+	// face rises behind it).
+	Shaders []shading.Blocker
 	// Module names the module the outlines are seen from, ShadeLossPct its annual loss
 	// (negative: not known, left out of the title).
 	Module       string
@@ -39,6 +44,9 @@ var (
 		"horizon": {R: 0x5e, G: 0x66, B: 0x6b, A: 0xff},
 	}
 	obstacleName = map[string]string{"face": "roof", "block": "chimney, dormer, building", "tree": "tree", "horizon": "far horizon"}
+	// obstacleOrder is the order the chart draws (and its legend lists) the kinds in, and the
+	// documents' caption names them in.
+	obstacleOrder = []string{"horizon", "face", "block", "tree"}
 )
 
 // standardOffset returns the zone's offset from UTC in its winter (standard) time: hour
@@ -96,8 +104,7 @@ func SunPathChart(in *SunPath) *plot.Plot {
 	seen := map[string]bool{}
 	var idXY plotter.XYs
 	var idLab []string
-	order := []string{"horizon", "face", "block", "tree"}
-	for _, kind := range order {
+	for _, kind := range obstacleOrder {
 		for _, o := range in.Outlines {
 			if o.Kind != kind || len(o.ElevationDeg) == 0 || in.AzStepDeg <= 0 {
 				continue

@@ -279,7 +279,8 @@ func (p *Project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, e
 	return &report.SunPath{
 		Observer: p.Observer, Zone: p.Cfg.Zone, Year: year,
 		Outlines: sc.Silhouette(worst, step), AzStepDeg: step,
-		Module: s.ModuleResults[worst].ID, ShadeLossPct: report.Round(s.ModuleResults[worst].ShadeLossPct, 2),
+		Shaders: sc.Blockers(worst, m.Steps, m.Shade),
+		Module:  s.ModuleResults[worst].ID, ShadeLossPct: report.Round(s.ModuleResults[worst].ShadeLossPct, 2),
 	}, nil
 }
 

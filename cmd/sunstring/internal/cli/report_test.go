@@ -61,6 +61,10 @@ func TestSurveyReportFiles(t *testing.T) {
 		want := map[string]string{
 			"annual AC energy": report.Thousands(s.AnnualACkWh, 0),
 			"specific yield":   report.Thousands(s.SpecificYield, 0),
+			// The example's most shaded module, G.1.1 on the garage, lies below the house's
+			// south face S, which takes its afternoon sun from spring to autumn (sunpath.png):
+			// the sun-path caption names that roof face among what shades it.
+			"sun-path caption's roof face": "Roof: S (up to",
 		}
 		if s.Shade != nil {
 			// The one shade figure, with the same words as summary.json's split.
