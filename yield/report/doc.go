@@ -5,9 +5,9 @@
 // returns bytes; the command line decides where they go.
 //
 // The loss breakdown is shown by where the energy goes (GroupLosses), and the shade loss as one
-// figure with its three parts in the same words everywhere (ShadeSentence). In the PDFs, text
-// the main typeface lacks is drawn in the fallback faces of package fonts (pdftext.go); in the
-// charts it prints with a visible mark (Printable).
+// figure with its three parts in the same words everywhere (ShadeSentence). Text the main
+// typeface lacks is drawn in the fallback faces of package fonts, in the PDFs (pdftext.go)
+// and in the charts (charttext.go); only what no face has prints as a mark (Printable).
 //
 // It applies no published model of its own: every figure it shows comes from the packages
 // that compute it (the performance ratio after IEC 61724-1, from package yield).

@@ -8,8 +8,8 @@ import (
 	"golang.org/x/image/font/sfnt"
 )
 
-// Missing is printed for each character the report's typeface cannot draw (a character
-// of another script, an emoji): a visible mark instead of a hole or a failed document.
+// Missing is printed for each character no typeface of the reports draws: a visible mark
+// instead of a hole or a failed document.
 const Missing = "□"
 
 var glyphs struct {
@@ -17,7 +17,7 @@ var glyphs struct {
 	font *sfnt.Font
 }
 
-// hasGlyph reports whether the report's typeface (Liberation Sans, the PDF's and the
+// hasGlyph reports whether the reports' main typeface (Liberation Sans, the PDFs' and the
 // charts') draws r. The PDF writer also takes only the Basic Multilingual Plane.
 func hasGlyph(r rune) bool {
 	if r < 0x80 {
@@ -37,33 +37,18 @@ func hasGlyph(r rune) bool {
 	return err == nil && i != 0
 }
 
-// Printable returns s with every character the typeface cannot draw replaced by Missing
-// (a run of combining marks and joiners after such a character goes with it), so that a
-// name in any script or with an emoji prints, marked, rather than failing the document.
+// Printable returns s as the reports draw it: a character no typeface of theirs draws
+// (Liberation Sans, or a face of package fonts) replaced by Missing, and the joiners,
+// variation selectors and skin tones of an emoji sequence left out (the pictographs are
+// monochrome outlines, drawn one by one).
 func Printable(s string) string {
-	ok := true
-	for _, r := range s {
-		if !hasGlyph(r) {
-			ok = false
-			break
-		}
-	}
-	if ok {
+	runs, plain := runsOf(s)
+	if plain {
 		return s
 	}
 	var b strings.Builder
-	lastMissing := false
-	for _, r := range s {
-		switch {
-		case lastMissing && (r == 0x200d || (r >= 0xfe00 && r <= 0xfe0f) || (r >= 0x1f3fb && r <= 0x1f3ff)):
-			// a joiner, variation selector or skin tone belongs to the character before
-		case hasGlyph(r):
-			b.WriteRune(r)
-			lastMissing = false
-		default:
-			b.WriteString(Missing)
-			lastMissing = true
-		}
+	for _, rn := range runs {
+		b.WriteString(rn.text)
 	}
 	return b.String()
 }
