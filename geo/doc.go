@@ -48,7 +48,8 @@
 // A face's eave is its outline's lowest edge (Face.SetEave); heights follow from pitch and
 // aspect. Faces may share edges but not overlap in plan; a strip up to OverlapTolM wide is
 // cut off the face later in the map (exact polygon difference in the local plane, clip.go),
-// with a note. A block may pierce a face (a
+// with a note. Site.SwapEvidence names the faces that fit their aspect and each other only
+// with every coordinate read the other way round (a map written latitude first). A block may pierce a face (a
 // chimney); a hand-drawn panel on a block or an avoid area gives a note from Fill.
 //
 // # Fill

@@ -18,7 +18,9 @@
 //     systems reach 0.75–0.85 (IEC 61724-1 definition; values from trade literature).
 //   - a time zone whose standard offset lies more than 2.5 hours from the longitude's
 //     (15° an hour; zones stray up to about 2 h, common practice), and coordinates that fit
-//     the zone only when latitude and longitude are swapped.
+//     the zone only when latitude and longitude are swapped. The zone tells a swap only when
+//     the two lie 15° or more apart; closer, the map's faces do (geo.Site.SwapEvidence, worded
+//     by the survey).
 //   - a face receiving less than 75 % of the best face's annual irradiation: a north face of a
 //     35° gable in central Europe gets about 55–65 % of the south face (common practice), an
 //     east or west face about 80–85 %.

@@ -2,6 +2,7 @@ package survey
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 	"sunstring/yield"
@@ -62,7 +63,24 @@ func (p *Project) loadFindings(mapPath string, fitNotes, fillNotes []string) fin
 	if cfg.Latitude != nil && cfg.Longitude != nil {
 		where = cfg.File + ": latitude, longitude"
 	}
-	out = append(out, plausible.Zone(where, cfg.File+": timezone", cfg.Zone, p.LatDeg, p.LonDeg)...)
+	zone := plausible.Zone(where, cfg.File+": timezone", cfg.Zone, p.LatDeg, p.LonDeg)
+	out = append(out, zone...)
+	// The zone sees swapped coordinates only when latitude and longitude lie an hour of
+	// longitude (15°) or more apart; the faces' outlines against their aspects see the
+	// reflection that swapping makes of the drawing at any distance (geo.Site.SwapEvidence).
+	if ids := p.Site.SwapEvidence(); len(ids) > 0 && !slices.ContainsFunc(zone, func(f finding.Finding) bool { return f.Code == "coordinates_swapped" }) {
+		faces := fmt.Sprintf("roof face %q agrees with its", ids[0])
+		if len(ids) > 1 {
+			q := make([]string, len(ids))
+			for i, id := range ids {
+				q[i] = strconv.Quote(id)
+			}
+			faces = "roof faces " + strings.Join(q, ", ") + " agree with their"
+		}
+		out.Add(finding.Warning, "coordinates_swapped", mapPath,
+			"latitude and longitude look swapped: %s aspect_deg and heights (an edge across the slope, one height along a shared ridge, hip or valley) only when every coordinate is read the other way round, east and north exchanged. Written latitude first, a drawing comes out mirrored (a tree south of the house stands west of it) and the rows of modules run the wrong way, however close latitude (%.4f) and longitude (%.4f) are. GeoJSON gives longitude first ([lon, lat]); swap the two numbers in every coordinate (and in the site file's latitude and longitude, if given)",
+			faces, p.LatDeg, p.LonDeg)
+	}
 	return out
 }
 

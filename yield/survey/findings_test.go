@@ -15,8 +15,10 @@ import (
 // gableMap returns an invented gable house at 47.05° N, 15.43° E: faces "S" and "N" of
 // 10 × 4 m in plan, pitch 35°, eaves at 6 m, and a 0.6 m chimney on the south face whose
 // height_m is chimneyM. swap writes every coordinate latitude first, as a common mistake.
-func gableMap(chimneyM float64, swap bool) string {
-	const lat0, lon0 = 47.05, 15.43
+func gableMap(chimneyM float64, swap bool) string { return gableMapAt(47.05, 15.43, chimneyM, swap) }
+
+// gableMapAt is gableMap's house at latitude lat0 and longitude lon0.
+func gableMapAt(lat0, lon0, chimneyM float64, swap bool) string {
 	mLat := 1 / 111195.0                      // degrees a metre northward (mean sphere, good to 0.5 %)
 	mLon := mLat / math.Cos(lat0*math.Pi/180) // degrees a metre eastward
 	ring := func(pts ...[2]float64) string {
@@ -98,6 +100,19 @@ func TestPreflightFindings(t *testing.T) {
 		{"latitude and longitude swapped", 8.5, true, monthly, map[string][]string{
 			"coordinates_swapped": {"roof.geojson", "swapped", "longitude first"},
 		}, nil},
+		// An invented site at 47.05° N, 46.05° E (Europe/Volgograd, UTC+3, fits 46.05° E within
+		// 0.1 h) written latitude first: read as 46.05° N, 47.05° E the zone fits as well (3.1 h),
+		// but both faces run across their aspects only when read the other way round.
+		{"swapped, latitude and longitude 1° apart", 8.5, true, func(cfg *survey.Config) {
+			monthly(cfg)
+			cfg.Timezone = "Europe/Volgograd"
+		}, map[string][]string{
+			"coordinates_swapped": {"roof.geojson", `roof faces "S", "N" agree with their aspect_deg`, "however close latitude (46.050", "longitude first"},
+		}, nil},
+		{"drawn right, latitude and longitude 1° apart", 8.5, false, func(cfg *survey.Config) {
+			monthly(cfg)
+			cfg.Timezone = "Europe/Volgograd"
+		}, nil, []string{"coordinates_swapped", "timezone_far"}},
 		{"9 kWp on 3 kW", 8.5, false, func(cfg *survey.Config) { monthly(cfg); cfg.Inverter.ACPowerW = 3000 }, map[string][]string{
 			"dc_ac_ratio": {"site.yaml: inverter.ac_power_w", "DC/AC ratio"},
 		}, nil},
@@ -113,8 +128,25 @@ func TestPreflightFindings(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			cfg := validConfig(t)
 			tc.edit(cfg)
-			_, pf := preflight(t, cfg, gableMap(tc.chimney, tc.swap))
+			if errs := cfg.Validate(); len(errs) > 0 {
+				t.Fatal(errs)
+			}
+			roof := gableMap(tc.chimney, tc.swap)
+			if cfg.Timezone == "Europe/Volgograd" {
+				roof = gableMapAt(47.05, 46.05, tc.chimney, tc.swap)
+			}
+			_, pf := preflight(t, cfg, roof)
 			got := codes(pf.Findings)
+			// One message per problem: the zone and the faces never both report a swap.
+			n := 0
+			for _, f := range pf.Findings {
+				if f.Code == "coordinates_swapped" {
+					n++
+				}
+			}
+			if n > 1 {
+				t.Errorf("%d coordinates_swapped findings, want at most one: %v", n, pf.Findings)
+			}
 			for code, frags := range tc.want {
 				f, ok := got[code]
 				if !ok {
