@@ -20,6 +20,7 @@ require (
 	go.yaml.in/yaml/v3 v3.0.4
 	golang.org/x/image v0.40.0
 	golang.org/x/term v0.48.0
+	golang.org/x/text v0.37.0
 	gonum.org/v1/gonum v0.17.0
 	gonum.org/v1/plot v0.17.0
 )
@@ -41,5 +42,4 @@ require (
 	github.com/subosito/gotenv v1.6.0 // indirect
 	go.mongodb.org/mongo-driver/v2 v2.5.0 // indirect
 	golang.org/x/sys v0.50.0 // indirect
-	golang.org/x/text v0.37.0 // indirect
 )

@@ -42,7 +42,7 @@ func hasGlyph(r rune) bool {
 // variation selectors and skin tones of an emoji sequence left out (the pictographs are
 // monochrome outlines, drawn one by one).
 func Printable(s string) string {
-	runs, plain := runsOf(s)
+	runs, plain := faceRuns(s)
 	if plain {
 		return s
 	}

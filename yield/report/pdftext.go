@@ -8,6 +8,7 @@ import (
 	"golang.org/x/image/math/fixed"
 
 	"sunstring/yield/report/fonts"
+	"sunstring/yield/report/rtl"
 )
 
 // Text in the PDFs is drawn in runs: Liberation Sans where it has the character, else the
@@ -66,8 +67,18 @@ func faceOf(r rune) (face int, ok bool) {
 	return 0, false
 }
 
-// runsOf splits s into runs; plain is true when Liberation draws all of s.
+// runsOf splits the line s into runs in the order they are drawn (right-to-left text
+// reversed and Arabic joined, package rtl); plain is true when Liberation draws all of s
+// as it is.
 func runsOf(s string) (runs []run, plain bool) {
+	v := rtl.Visual(s)
+	runs, plain = faceRuns(v)
+	return runs, plain && v == s
+}
+
+// faceRuns splits s into runs by face, in the order of s; plain is true when Liberation
+// draws all of s.
+func faceRuns(s string) (runs []run, plain bool) {
 	plain = true
 	for _, r := range s {
 		if !hasGlyph(r) {
