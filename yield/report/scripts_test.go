@@ -121,3 +121,42 @@ func TestRunsOf(t *testing.T) {
 		})
 	}
 }
+
+// Text in other scripts wraps like fpdf's own: every line fits the width, CJK breaks
+// between characters, other scripts at spaces, and nothing is lost or repeated.
+func TestWrapAnyScript(t *testing.T) {
+	d, err := fixture("file").newDoc("test")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d.AddPage()
+	d.SetFont(fontName, "", bodyPt)
+	const w = 60.0 // mm
+	cases := []struct {
+		name, text string
+		minLines   int
+	}{
+		{"Japanese without spaces", strings.Repeat("東京都千代田区の長い住所", 4), 3},
+		{"Arabic words", strings.Repeat("بيت الشمس الكبير ", 6), 2},
+		{"Devanagari words", strings.Repeat("सूर्य घर बिजली ", 6), 2},
+		{"a word longer than a line", strings.Repeat("한", 40), 2},
+		{"mixed", "Casa 🏠 " + strings.Repeat("山田 Müller ", 6), 2},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			lines := d.wrap(tc.text, w)
+			if len(lines) < tc.minLines {
+				t.Errorf("%d lines, want at least %d", len(lines), tc.minLines)
+			}
+			for _, l := range lines {
+				if lw := d.width(l); lw > w+1e-9 {
+					t.Errorf("line %q is %.1f mm wide, more than %.0f", l, lw, w)
+				}
+			}
+			strip := func(s string) string { return strings.ReplaceAll(s, " ", "") }
+			if got, want := strip(strings.Join(lines, "")), strip(tc.text); got != want {
+				t.Errorf("lines %q lose or repeat text of %q", lines, tc.text)
+			}
+		})
+	}
+}
