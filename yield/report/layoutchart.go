@@ -4,7 +4,9 @@ import (
 	"fmt"
 	"image/color"
 	"math"
+	"strings"
 
+	"golang.org/x/text/width"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/text"
@@ -186,11 +188,33 @@ func (s smallPlans) Plot(c draw.Canvas, p *plot.Plot) {
 // maxRowName is the longest layout name, in runes, written beside a bar of layouts.png.
 const maxRowName = 48
 
-// shorten cuts a name to at most n runes with an ellipsis.
+// shorten cuts a name to at most n columns (see columns) with an ellipsis.
 func shorten(s string, n int) string {
-	r := []rune(s)
-	if len(r) <= n {
+	total := 0
+	for _, r := range s {
+		total += columns(r)
+	}
+	if total <= n {
 		return s
 	}
-	return string(r[:n-1]) + "…"
+	var b strings.Builder
+	used := 0
+	for _, r := range s {
+		if used+columns(r) > n-1 {
+			break
+		}
+		b.WriteRune(r)
+		used += columns(r)
+	}
+	return b.String() + "…"
+}
+
+// columns is the width of r in Latin characters: two for a wide one (CJK, most emoji),
+// which the fallback typefaces draw a full em wide.
+func columns(r rune) int {
+	switch width.LookupRune(r).Kind() {
+	case width.EastAsianWide, width.EastAsianFullwidth:
+		return 2
+	}
+	return 1
 }

@@ -82,3 +82,27 @@ func TestLayoutChartShortensLongNames(t *testing.T) {
 		t.Errorf("the long name is not shortened with an ellipsis")
 	}
 }
+
+// A name is cut to the columns it may take, a CJK character or emoji counting two (East
+// Asian Width, Unicode Standard Annex #11, through golang.org/x/text/width).
+func TestShorten(t *testing.T) {
+	cases := []struct {
+		name, in string
+		n        int
+		want     string
+	}{
+		{"fits", "south", 5, "south"},
+		{"Latin cut", "southwest", 5, "sout…"},
+		{"CJK fits in twice its length", "南面", 4, "南面"},
+		{"CJK cut by columns", "南東の屋根", 6, "南東…"},
+		{"emoji is wide", "🏠🏠🏠", 5, "🏠🏠…"},
+		{"Cyrillic is narrow", "юго-запад", 9, "юго-запад"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			if got := shorten(tc.in, tc.n); got != tc.want {
+				t.Errorf("shorten(%q, %d) = %q, want %q", tc.in, tc.n, got, tc.want)
+			}
+		})
+	}
+}
