@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -510,5 +511,55 @@ func TestModuleLevelDefaultEff(t *testing.T) {
 	}
 	if !scalar.EqualWithinRel(sum, def.DCWh, 1e-9) {
 		t.Errorf("StepDCWh adds to %.3f, DCWh %.3f", sum, def.DCWh)
+	}
+}
+
+// Thin(4) keeps every fourth step, each standing for four steps' hours: the hours add up to
+// the year's, a module's energy and a layout's are estimates of the whole year's, and k ≤ 1
+// is the year itself.
+func TestThin(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	y := exampleYear(t, m)
+	if y.Thin(1) != y || y.Thin(0) != y {
+		t.Error("Thin(k ≤ 1) must return the year itself")
+	}
+	th := y.Thin(4)
+	if th.Steps() != (y.Steps()+3)/4 || th.Modules() != y.Modules() {
+		t.Fatalf("thinned year of %d steps and %d modules from %d and %d", th.Steps(), th.Modules(), y.Steps(), y.Modules())
+	}
+	sum := func(h []float32) (s float64) {
+		for _, x := range h {
+			s += float64(x)
+		}
+		return s
+	}
+	// Sums of float32 hours: equal to float32 rounding.
+	if a, b := sum(th.hours), sum(y.hours); !scalar.EqualWithinAbsOrRel(a, b, 1e-6, 1e-6) {
+		t.Errorf("thinned hours %.3f, the year's %.3f", a, b)
+	}
+	full, err := y.Evaluate(exampleLayout(), exampleInverter, EvalOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	est, err := th.Evaluate(exampleLayout(), exampleInverter, EvalOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// A quarter sample of 4800 steps whose shade is drawn at random at half of them: the
+	// standard error of the mean is about √(3/4)/√1200 ≈ 2.5 % for a coefficient of
+	// variation of 1; 5 %, two standard errors.
+	if !scalar.EqualWithinRel(est.ACWh, full.ACWh, 0.05) {
+		t.Errorf("thinned estimate %.0f Wh, the year's %.0f Wh", est.ACWh, full.ACWh)
+	}
+	t.Logf("thinned %.0f Wh, full %.0f Wh (%+.2f %%)", est.ACWh, full.ACWh, 100*(est.ACWh/full.ACWh-1))
+	// The same curves: a step of the thinned year is its step of the year.
+	for j := range th.Steps() {
+		s := 4 * j
+		if !slices.Equal(th.grid(j), y.grid(s)) || !slices.Equal(th.modCurve[j*th.n:(j+1)*th.n], y.modCurve[s*y.n:(s+1)*y.n]) {
+			t.Fatalf("thinned step %d is not step %d of the year", j, s)
+		}
 	}
 }

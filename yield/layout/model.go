@@ -66,3 +66,12 @@ func ModelEvaluator(m *yield.Model, opt electric.EvalOptions) Evaluator {
 		return m.EvaluateACWhCached(l, opt, c)
 	}
 }
+
+// ModelScreen is ModelEvaluator on every k-th step of the model's year (electric.Year.Thin):
+// an estimate of the same energy at about 1/k of the cost, for Options.Screen.
+func ModelScreen(m *yield.Model, opt electric.EvalOptions, k int) Evaluator {
+	mt := *m
+	mt.Year = m.Year.Thin(k)
+	mt.YearUnshaded = nil
+	return ModelEvaluator(&mt, opt)
+}

@@ -54,9 +54,19 @@ type Options struct {
 	// Search); cache hits are free. Zero means 400.
 	MaxEvals int
 	// Progress, when set, is told how many layouts are evaluated (done) out of the most the
-	// search may evaluate in all (total): done never falls; total shrinks when a level ends
-	// before its budget, and the last call has done equal to total.
+	// search may evaluate in all (total), screens counted at 1/ScreenCost: done never falls;
+	// total shrinks when a level ends before its budget, and the last call has done equal to
+	// total.
 	Progress func(done, total int)
+	// Screen, when set, estimates a layout's energy (Wh, as the Evaluator) at a fraction of
+	// its cost, for instance over every fourth step of the year; ScreenCost is how many screens
+	// cost one evaluation in the budget (zero means 4). The search then screens its starts and
+	// each batch of neighbours and evaluates in full only the most promising: the best starts
+	// (a sixth, at least eight, and the best of each shape), and of a batch the few whose
+	// screen beats the current layout's. The caller's Starts and every reported value go
+	// through the Evaluator. Exhaustive levels do not screen.
+	Screen     Evaluator
+	ScreenCost int
 }
 
 // Candidate is one evaluated layout.
@@ -73,8 +83,9 @@ type Candidate struct {
 // Result is what a search found and how hard it looked.
 type Result struct {
 	Candidates []Candidate // distinct layouts, best first, at most Options.Keep
-	// Evaluated is the number of distinct layouts evaluated.
-	Evaluated int
+	// Evaluated is the number of distinct layouts evaluated; Screened the number screened
+	// (Options.Screen), some of which were then evaluated.
+	Evaluated, Screened int
 	// Exhaustive reports whether every layout of the bounds was evaluated (small roofs):
 	// the best candidate is then the optimum of the evaluator.
 	Exhaustive bool
@@ -134,6 +145,9 @@ func Search(ctx context.Context, p Problem, eval Evaluator, opt Options) (Result
 	if opt.MaxEvals <= 0 {
 		opt.MaxEvals = 400
 	}
+	if opt.ScreenCost <= 0 {
+		opt.ScreenCost = 4
+	}
 	if p.ReachM == 0 {
 		p.ReachM = 1.8
 	}
@@ -148,17 +162,17 @@ func Search(ctx context.Context, p Problem, eval Evaluator, opt Options) (Result
 		// A level stops at its budget, checked before each batch of neighbours: it may end a
 		// batch less one beyond it.
 		perLevel := opt.MaxEvals + searchBatch - 1
-		s.stop, s.after = s.evals+perLevel, (len(levels)-1-i)*perLevel
+		s.stop, s.after = s.spent()+perLevel, (len(levels)-1-i)*perLevel
 		var err error
 		if best, err = s.runLevel(lv, best); err != nil {
 			return Result{}, err
 		}
 		// A level that ends before its budget (a local optimum, or fewer layouts than the
 		// budget) gives the rest back: the total shrinks to what is still possible.
-		s.stop = s.evals
+		s.stop = s.spent()
 		s.report()
 	}
-	return Result{Candidates: s.ranked(), Evaluated: len(s.cache), Exhaustive: s.exhaustive, BudgetSpent: s.budgetSpent}, nil
+	return Result{Candidates: s.ranked(), Evaluated: len(s.cache), Screened: len(s.screened), Exhaustive: s.exhaustive, BudgetSpent: s.budgetSpent}, nil
 }
 
 // report tells Options.Progress how many layouts are evaluated out of the most the search may
@@ -166,7 +180,7 @@ func Search(ctx context.Context, p Problem, eval Evaluator, opt Options) (Result
 // levels still to come.
 func (s *searcher) report() {
 	if s.opt.Progress != nil {
-		s.opt.Progress(s.evals, max(s.stop, s.evals)+s.after)
+		s.opt.Progress(s.spent(), max(s.stop, s.spent())+s.after)
 	}
 }
 

@@ -29,6 +29,10 @@ type searcher struct {
 	// after the most the levels still to come may do: together the progress's total (see
 	// report), which shrinks when a level ends before its budget.
 	stop, after int
+	// screened holds the screen's score of every layout screened (Options.Screen); screens
+	// counts them.
+	screened map[string]float64
+	screens  int
 	// exhaustive reports whether the last level enumerated every layout; budgetSpent
 	// whether some level's local search ran out of budget.
 	exhaustive, budgetSpent bool
@@ -36,7 +40,7 @@ type searcher struct {
 }
 
 func newSearcher(ctx context.Context, p Problem, n int, eval Evaluator, opt Options) *searcher {
-	s := &searcher{ctx: ctx, p: p, n: n, eval: eval, opt: opt, cache: map[string]state{}, shade: make([]float64, n)}
+	s := &searcher{ctx: ctx, p: p, n: n, eval: eval, opt: opt, cache: map[string]state{}, screened: map[string]float64{}, shade: make([]float64, n)}
 	dim := 0
 	if len(p.Features) > 0 {
 		dim = len(p.Features[0])
@@ -126,7 +130,7 @@ const searchBatch = 16
 // runLevel searches one level of freedom, starting also from prev (the best of the narrower
 // levels), and returns the best distinct states found so far.
 func (s *searcher) runLevel(lv level, prev []state) ([]state, error) {
-	stop := s.evals + s.opt.MaxEvals
+	stop := s.spent() + s.opt.MaxEvals
 	shapes := shapesForInputs(s.p, s.n, lv.leaveOut, lv.inputs)
 	// The count is exact but computed through log-gamma: half a layout of slack.
 	// A list cut at MaxShapes is not every layout.
@@ -147,6 +151,14 @@ func (s *searcher) runLevel(lv level, prev []state) ([]state, error) {
 		}
 		starts = append(starts, s.starts(sh)...)
 	}
+	if s.opt.Screen != nil {
+		var err error
+		if starts, err = s.screenStarts(starts); err != nil {
+			return nil, err
+		}
+	}
+	// The caller's layouts and the narrower levels' best are always evaluated in full, so
+	// that the search never reports a best worse than any of them.
 	for _, l := range s.p.Starts {
 		if st, ok := s.given(l, lv); ok {
 			starts = append(starts, st)
@@ -175,12 +187,12 @@ func (s *searcher) runLevel(lv level, prev []state) ([]state, error) {
 	}
 	for i, st := range from {
 		// Each run may use its share of what is left, the first the most.
-		left := stop - s.evals
+		left := stop - s.spent()
 		share := left / (len(from) - i)
 		if i == 0 {
 			share = left * 2 / (len(from) + 1)
 		}
-		if err := s.improve(st, lv, s.evals+share); err != nil {
+		if err := s.improve(st, lv, s.spent()+share); err != nil {
 			return nil, err
 		}
 	}
@@ -228,35 +240,15 @@ func (s *searcher) scoreAll(sts []*state) error {
 			todo = append(todo, st)
 		}
 	}
-	errs := make([]error, len(todo))
-	workers := min(runtime.GOMAXPROCS(0), len(todo))
-	var wg sync.WaitGroup
-	next := 0
-	for range workers {
-		wg.Go(func() {
-			for {
-				s.mu.Lock()
-				i := next
-				next++
-				s.mu.Unlock()
-				if i >= len(todo) || s.ctx.Err() != nil {
-					return
-				}
-				st := todo[i]
-				e, err := s.eval(st.layout)
-				if err != nil {
-					errs[i] = fmt.Errorf("layout: evaluating %s: %w", st.shape, err)
-					continue
-				}
-				st.energy = e
-			}
-		})
-	}
-	wg.Wait()
-	if err := s.ctx.Err(); err != nil {
-		return err
-	}
-	if err := errors.Join(errs...); err != nil {
+	if err := s.runAll(len(todo), func(i int) error {
+		st := todo[i]
+		e, err := s.eval(st.layout)
+		if err != nil {
+			return fmt.Errorf("layout: evaluating %s: %w", st.shape, err)
+		}
+		st.energy = e
+		return nil
+	}); err != nil {
 		return err
 	}
 	for _, st := range todo {
@@ -273,6 +265,104 @@ func (s *searcher) scoreAll(sts []*state) error {
 	return nil
 }
 
+// spent is the budget used so far: evaluations, and screens at ScreenCost a evaluation.
+func (s *searcher) spent() int {
+	return s.evals + s.screens/s.opt.ScreenCost
+}
+
+// screenKeep is how many of a batch's screened neighbours that look better than the current
+// layout are evaluated in full: the screen's error is small against most layouts'
+// differences, so the true best of a batch is nearly always among its first three.
+const screenKeep = 3
+
+// screenStarts screens the starts and returns the most promising, to be evaluated in full:
+// the best of each shape and the best overall, a sixth of them and at least eight.
+func (s *searcher) screenStarts(starts []state) ([]state, error) {
+	ptrs := make([]*state, len(starts))
+	for i := range starts {
+		ptrs[i] = &starts[i]
+	}
+	if err := s.screenAll(ptrs); err != nil {
+		return nil, err
+	}
+	slices.SortStableFunc(starts, func(a, b state) int {
+		return cmp.Or(cmp.Compare(s.screened[b.key], s.screened[a.key]), cmp.Compare(a.key, b.key))
+	})
+	n := max(8, len(starts)/6)
+	seen := map[string]bool{}
+	var out []state
+	for i, st := range starts {
+		k := st.shape.String()
+		if i < n || !seen[k] {
+			out = append(out, st)
+		}
+		seen[k] = true
+	}
+	return out, nil
+}
+
+// screenAll scores states with the screen concurrently, through its own cache; new ones count
+// against the budget at 1/ScreenCost of an evaluation.
+func (s *searcher) screenAll(sts []*state) error {
+	var todo []*state
+	inBatch := map[string]bool{}
+	for _, st := range sts {
+		st.canon()
+		if _, ok := s.screened[st.key]; !ok && !inBatch[st.key] {
+			inBatch[st.key] = true
+			todo = append(todo, st)
+		}
+	}
+	vals := make([]float64, len(todo))
+	if err := s.runAll(len(todo), func(i int) error {
+		e, err := s.opt.Screen(todo[i].layout)
+		if err != nil {
+			return fmt.Errorf("layout: screening %s: %w", todo[i].shape, err)
+		}
+		vals[i] = e
+		return nil
+	}); err != nil {
+		return err
+	}
+	for i, st := range todo {
+		s.screened[st.key] = vals[i] - s.opt.CableWeightWh*ExtraCableM(st.layout, s.p.Positions, s.p.ReachM)
+	}
+	s.screens += len(todo)
+	s.report()
+	return nil
+}
+
+// runAll calls do(0..n−1) on all cores and joins the errors; it stops early when the context
+// is cancelled.
+func (s *searcher) runAll(n int, do func(i int) error) error {
+	if err := s.ctx.Err(); err != nil {
+		return err
+	}
+	errs := make([]error, n)
+	workers := min(runtime.GOMAXPROCS(0), n)
+	var wg sync.WaitGroup
+	next := 0
+	for range workers {
+		wg.Go(func() {
+			for {
+				s.mu.Lock()
+				i := next
+				next++
+				s.mu.Unlock()
+				if i >= n || s.ctx.Err() != nil {
+					return
+				}
+				errs[i] = do(i)
+			}
+		})
+	}
+	wg.Wait()
+	if err := s.ctx.Err(); err != nil {
+		return err
+	}
+	return errors.Join(errs...)
+}
+
 // improve runs the local search from st until no neighbour is better or the number of
 // evaluations reaches stop.
 func (s *searcher) improve(st state, lv level, stop int) error {
@@ -285,7 +375,7 @@ func (s *searcher) improve(st state, lv level, stop int) error {
 		next := -1
 		var batch []state
 		for i := 0; i < len(moves) && next < 0; {
-			if s.evals >= stop {
+			if s.spent() >= stop {
 				s.budgetSpent = true
 				return nil
 			}
@@ -297,10 +387,19 @@ func (s *searcher) improve(st state, lv level, stop int) error {
 			for k := range batch {
 				ptrs[k] = &batch[k]
 			}
+			if s.opt.Screen != nil {
+				var err error
+				if ptrs, err = s.promising(&cur, ptrs); err != nil {
+					return err
+				}
+			}
 			if err := s.scoreAll(ptrs); err != nil {
 				return err
 			}
 			for k := range batch {
+				if s.opt.Screen != nil && !s.fullyScored(&batch[k]) {
+					continue
+				}
 				// A strict improvement beyond rounding, so that equal layouts never cycle.
 				if batch[k].score > cur.score+1e-9*math.Abs(cur.score) && (next < 0 || batch[k].score > batch[next].score) {
 					next = k
@@ -312,6 +411,34 @@ func (s *searcher) improve(st state, lv level, stop int) error {
 		}
 		cur = batch[next].clone()
 	}
+}
+
+// promising screens a batch of neighbours of cur and returns those to evaluate in full: the
+// screenKeep best whose screen beats cur's.
+func (s *searcher) promising(cur *state, batch []*state) ([]*state, error) {
+	if err := s.screenAll(append([]*state{cur}, batch...)); err != nil {
+		return nil, err
+	}
+	base := s.screened[cur.key]
+	var out []*state
+	for _, st := range batch {
+		if s.screened[st.key] > base+1e-9*math.Abs(base) {
+			out = append(out, st)
+		}
+	}
+	slices.SortStableFunc(out, func(a, b *state) int {
+		return cmp.Or(cmp.Compare(s.screened[b.key], s.screened[a.key]), cmp.Compare(a.key, b.key))
+	})
+	return out[:min(len(out), screenKeep)], nil
+}
+
+// fullyScored reports whether st's layout has been evaluated in full (and copies the score).
+func (s *searcher) fullyScored(st *state) bool {
+	c, ok := s.cache[st.key]
+	if ok {
+		st.energy, st.cable, st.score = c.energy, c.cable, c.score
+	}
+	return ok
 }
 
 // ranked returns the distinct evaluated layouts, best first, at most Keep.

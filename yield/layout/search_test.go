@@ -89,6 +89,27 @@ func (r roof) eval(l electric.Layout) (float64, error) {
 	return total, nil
 }
 
+// thin is the roof on every k-th step, each standing for k steps: the stand-in's screen, as
+// electric.Year.Thin is the model's.
+func (r roof) thin(k int) roof {
+	t := roof{lit: make([][]float64, len(r.lit)), pos: r.pos}
+	for m, l := range r.lit {
+		for s := 0; s < len(l); s += k {
+			t.lit[m] = append(t.lit[m], l[s])
+		}
+	}
+	return t
+}
+
+// screen is the thinned roof's evaluator scaled back to the whole roof's steps.
+func (r roof) screen(k int) Evaluator {
+	t := r.thin(k)
+	return func(l electric.Layout) (float64, error) {
+		e, err := t.eval(l)
+		return e * float64(k), err
+	}
+}
+
 // exhaustive evaluates every distinct layout of every shape, the reference for the search.
 func exhaustive(t *testing.T, n, inputs int, b Bounds, leaveOut bool, eval Evaluator) (best float64, count int) {
 	t.Helper()
@@ -301,9 +322,9 @@ func TestSearchMonotone(t *testing.T) {
 			rev = append(rev, m)
 		}
 		given := electric.Layout{Inputs: [][][]int{{rev[:8], rev[8:16]}, {rev[16:]}}}
-		run := func(inputs int, leaveOut bool) float64 {
+		run := func(inputs int, leaveOut bool, screen Evaluator) float64 {
 			p := Problem{Features: r.features(), Positions: r.pos, Bounds: b, Inputs: inputs, Starts: []electric.Layout{given}}
-			res, err := Search(context.Background(), p, r.eval, Options{LeaveOut: leaveOut, MaxEvals: 150})
+			res, err := Search(context.Background(), p, r.eval, Options{LeaveOut: leaveOut, MaxEvals: 150, Screen: screen})
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -312,7 +333,11 @@ func TestSearchMonotone(t *testing.T) {
 			}
 			return res.Candidates[0].EnergyWh
 		}
-		two, twoOut, three := run(2, false), run(2, true), run(3, false)
+		two, twoOut, three := run(2, false, nil), run(2, true, nil), run(3, false, nil)
+		// The same with the layouts screened on every fourth step first: the screen only
+		// chooses what is evaluated, so the properties hold as well.
+		sc := r.screen(4)
+		twoS, twoOutS, threeS := run(2, false, sc), run(2, true, sc), run(3, false, sc)
 		g, _ := r.eval(given)
 		for _, c := range []struct {
 			name         string
@@ -321,6 +346,9 @@ func TestSearchMonotone(t *testing.T) {
 			{"leave-out against not", twoOut, two},
 			{"three inputs against two", three, two},
 			{"search against the given start", two, g},
+			{"screened: leave-out against not", twoOutS, twoS},
+			{"screened: three inputs against two", threeS, twoS},
+			{"screened: search against the given start", twoS, g},
 		} {
 			// Equal layouts give equal energies to the bit; a margin of rounding only.
 			if c.wide < c.narrow*(1-1e-12) {
@@ -449,5 +477,37 @@ func TestGivenStart(t *testing.T) {
 	}
 	if !scalar.EqualWithinAbsOrRel(got.Candidates[0].EnergyWh, want, 1e-9, 1e-9) || got.Candidates[0].Start != StartGiven {
 		t.Errorf("best %.4f Wh from %q, want the given optimum %.4f Wh", got.Candidates[0].EnergyWh, got.Candidates[0].Start, want)
+	}
+}
+
+// Screening trades a little of the search's reach for time: on seeded roofs too large to
+// enumerate, the screened search evaluates far fewer layouts in full and its best lies
+// within the survey's equivalence margin (0.5 % of the year's energy) of the unscreened
+// search's best.
+func TestSearchScreened(t *testing.T) {
+	for seed := range uint64(4) {
+		t.Run(fmt.Sprintf("seed %d", seed), func(t *testing.T) {
+			r := randomRoof(40, 8, 96, 12, 300+seed)
+			p := Problem{Features: r.features(), Positions: r.pos, Bounds: Bounds{MinSeries: 5, MaxSeries: 12, MaxParallel: 2}, Inputs: 2}
+			plain, err := Search(context.Background(), p, r.eval, Options{MaxEvals: 300})
+			if err != nil {
+				t.Fatal(err)
+			}
+			screened, err := Search(context.Background(), p, r.eval, Options{MaxEvals: 300, Screen: r.screen(4)})
+			if err != nil {
+				t.Fatal(err)
+			}
+			a, b := plain.Candidates[0].EnergyWh, screened.Candidates[0].EnergyWh
+			if b < a*(1-0.005) {
+				t.Errorf("screened best %.2f, unscreened %.2f: %.2f %% behind, more than the 0.5 %% margin", b, a, 100*(1-b/a))
+			}
+			if screened.Evaluated >= plain.Evaluated {
+				t.Errorf("screened search evaluated %d layouts in full, unscreened %d: screening must save evaluations", screened.Evaluated, plain.Evaluated)
+			}
+			if screened.Screened == 0 {
+				t.Error("no layout screened")
+			}
+			t.Logf("unscreened %.2f (%d evaluated); screened %.2f (%d evaluated, %d screened)", a, plain.Evaluated, b, screened.Evaluated, screened.Screened)
+		})
 	}
 }

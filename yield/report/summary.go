@@ -104,9 +104,11 @@ type LayoutAdvice struct {
 	Equivalent []string `json:"equivalent"`
 	// Hardware says whether module-level converters or another inverter input would pay.
 	Hardware string `json:"hardware,omitempty"`
-	// LayoutsEvaluated is how many distinct layouts the search evaluated; SearchExhaustive
-	// whether that was every layout the inverter allows.
+	// LayoutsEvaluated is how many distinct layouts the search evaluated over the whole year;
+	// LayoutsScreened how many it screened on every fourth step of the year to choose them;
+	// SearchExhaustive whether every layout the inverter allows was evaluated.
 	LayoutsEvaluated int  `json:"layouts_evaluated"`
+	LayoutsScreened  int  `json:"layouts_screened"`
 	SearchExhaustive bool `json:"search_exhaustive"`
 }
 

@@ -406,7 +406,7 @@ func (p *Project) advise(m *yield.Model, ls []RankedLayout, shaded []int, res la
 		return nil
 	}
 	best := ls[0].Result.ACkWh
-	adv := &report.LayoutAdvice{LayoutsEvaluated: res.Evaluated, SearchExhaustive: res.Exhaustive}
+	adv := &report.LayoutAdvice{LayoutsEvaluated: res.Evaluated, LayoutsScreened: res.Screened, SearchExhaustive: res.Exhaustive}
 	chosen := -1
 	for i := range ls {
 		ls[i].Crossings = p.faceCrossings(ls[i])
