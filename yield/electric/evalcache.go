@@ -2,10 +2,12 @@ package electric
 
 import (
 	"cmp"
+	"container/list"
 	"math"
 	"slices"
 	"strconv"
 	"sync"
+	"sync/atomic"
 )
 
 // inputYear is one input's share of a year (or the share of the modules with converters of
@@ -29,8 +31,11 @@ type inputYear struct {
 // inverters and options (they are part of each entry's key). Entries are dropped first in,
 // first out; what is kept never changes a result, only how long it takes.
 type EvalCache struct {
-	// MaxBytes bounds the memory the entries take; zero means 64 MB.
+	// MaxBytes bounds the memory the inputs' entries take; zero means 64 MB.
 	MaxBytes int64
+	// MaxStringBytes bounds the memory the strings' years take (see stringYear); zero means
+	// 160 MB, room for the strings of a large roof's layout and the parents of its neighbours.
+	MaxStringBytes int64
 
 	mu    sync.Mutex
 	m     map[cacheKey]*inputYear
@@ -38,6 +43,7 @@ type EvalCache struct {
 	bytes int64
 	hits  int64
 	calls int64
+	strs  stringCache
 }
 
 type cacheKey struct {
@@ -129,6 +135,7 @@ func (y *Year) parts(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) []*i
 	prefix = append(prefix, ':')
 	var sc *evalScratch
 	var out []*inputYear
+	var strs []stringRecipe
 	for _, in := range l.Inputs {
 		if len(in) == 0 {
 			continue
@@ -144,7 +151,13 @@ func (y *Year) parts(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) []*i
 			if sc == nil {
 				sc = &evalScratch{}
 			}
-			pt = y.inputPart(canon, inv, opt, sc)
+			strs = strs[:0]
+			if c != nil && !opt.ModuleLevel {
+				for _, str := range canon {
+					strs = append(strs, c.stringRecipe(y, str))
+				}
+			}
+			pt = y.inputPart(canon, strs, inv, opt, sc)
 			pt.key = key
 			if c != nil {
 				pt = c.put(k, pt)
@@ -189,8 +202,9 @@ func appendInputKey(b []byte, in [][]int) []byte {
 
 // inputPart computes one input's share of the year: at every step the strings' curves added
 // (series) and put in parallel, the operating point the tracker finds inside the window and
-// the current limit, and the loss terms.
-func (y *Year) inputPart(in [][]int, inv Inverter, opt EvalOptions, sc *evalScratch) *inputYear {
+// the current limit, and the loss terms. strs says how to read each string (nil, or a recipe
+// without a year: add it up step by step).
+func (y *Year) inputPart(in [][]int, strs []stringRecipe, inv Inverter, opt EvalOptions, sc *evalScratch) *inputYear {
 	pt := &inputYear{p: make([]float64, y.steps), pv: make([]float64, y.steps), un: make([]float64, y.steps), volts: !opt.ModuleLevel}
 	vmin, vmax, imax := inv.MPPTMinV, inv.MPPTMaxV, inv.MaxInputCurrentA
 	prevV := math.NaN()
@@ -216,7 +230,7 @@ func (y *Year) inputPart(in [][]int, inv Inverter, opt EvalOptions, sc *evalScra
 			continue
 		}
 		sc.gi = y.grid(s)
-		is, vs := y.inputCurve(sc, row, in)
+		is, vs := y.inputCurve(sc, s, in, strs)
 		pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
 		pW, pC, vC := pG, pG, vG
 		// Usually the global maximum is inside the window and the current limit: then the
@@ -261,4 +275,286 @@ func (y *Year) converterPart(mods []int, eff float64) *inputYear {
 		pt.globalWh += dc * h
 	}
 	return pt
+}
+
+// stringYear is one string's voltages over the whole year: at every step, on the step's
+// current grid, the sum of its modules' curves (units of voltQuantum), laid out as Year.gridI.
+// A layout search's neighbour differs from its parent in one or two strings, each one module
+// in and one out (or only one of the two): such a string is read as its parent's voltages plus
+// one module's curve less another's, three passes over a step instead of one a module. A
+// string's year is built (v) the second time it is asked for, itself or as a parent: a string
+// asked for once (most of a search's starts) is only added up, as without a cache.
+type stringYear struct {
+	y    *Year
+	mods []int // sorted
+	key  string
+	elem *list.Element // in the cache's use order
+
+	// Guarded by the cache's lock: base, add and sub say the string is base plus module add
+	// less module sub (−1: none); a nil base: added up module by module.
+	base     *stringYear
+	add, sub int
+	derived  []*stringYear // the kept strings whose base this is
+	counted  bool          // v's bytes are in the cache's total
+	asked    int           // times asked for, itself or as a parent
+
+	once  sync.Once
+	ready atomic.Bool
+	v     []int64 // the year's voltages, once ready; never written after
+}
+
+// nominalBytes is what a kept string costs besides its voltages.
+const nominalBytes = 256
+
+// stringRecipe is how inputCurve reads a string at a step: a year of voltages (v), plus
+// module add and less module sub (−1: none); a nil v: add the string up.
+type stringRecipe struct {
+	v        []int64
+	add, sub int
+}
+
+// stringCache keeps strings, the least recently used dropped first, and finds for a string a
+// kept one that differs by a module moved in, moved out or swapped.
+type stringCache struct {
+	byKey  map[stringKey]*stringYear
+	minus  map[stringKey]*stringYear // key of the string less one module → the string
+	order  list.List                 // most recently used first
+	bytes  int64
+	built  int64 // years built
+	recipe int64 // strings read from a parent one module away
+}
+
+type stringKey struct {
+	y   *Year
+	key string
+}
+
+// modsKey encodes sorted module indices, leaving out the one at position skip (−1: none).
+func modsKey(buf []byte, mods []int, skip int) []byte {
+	buf = buf[:0]
+	for j, k := range mods {
+		if j != skip {
+			buf = append(buf, byte(k), byte(k>>8), byte(k>>16), byte(k>>24))
+		}
+	}
+	return buf
+}
+
+// StringStats returns how many strings' years were built and how many strings were read
+// from a parent one module away.
+func (c *EvalCache) StringStats() (built, fromParent int64) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	return c.strs.built, c.strs.recipe
+}
+
+// stringRecipe returns how to read the string (sorted module indices) of year y at each
+// step, and keeps the string for later lookups.
+func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
+	buf := modsKey(nil, mods, -1)
+	key := string(buf)
+	c.mu.Lock()
+	cs := &c.strs
+	if cs.byKey == nil {
+		cs.byKey = map[stringKey]*stringYear{}
+		cs.minus = map[stringKey]*stringYear{}
+	}
+	if sy := cs.byKey[stringKey{y, key}]; sy != nil {
+		cs.order.MoveToFront(sy.elem)
+		sy.asked++
+		base, add, sub, asked := sy.base, sy.add, sy.sub, sy.asked
+		c.mu.Unlock()
+		if !sy.ready.Load() && asked >= 2 {
+			c.build(sy, base, add, sub)
+		}
+		if sy.ready.Load() {
+			return stringRecipe{v: sy.v, add: -1, sub: -1}
+		}
+		if base != nil {
+			return stringRecipe{v: base.v, add: add, sub: sub}
+		}
+		return stringRecipe{add: -1, sub: -1}
+	}
+	var b *stringYear
+	add, sub := -1, -1
+	for j := range mods {
+		k := string(modsKey(buf, mods, j))
+		if e := cs.byKey[stringKey{y, k}]; e != nil {
+			b, add = e, mods[j] // one module moved in
+			break
+		}
+		if e := cs.minus[stringKey{y, k}]; e != nil {
+			if x, ok := oneMore(e.mods, mods, mods[j]); ok {
+				b, add, sub = e, mods[j], x // one module swapped
+				break
+			}
+		}
+	}
+	if b == nil {
+		if e := cs.minus[stringKey{y, key}]; e != nil {
+			if x, ok := oneMore(e.mods, mods, -1); ok {
+				b, sub = e, x // one module moved out
+			}
+		}
+	}
+	var bb *stringYear
+	ba, bs := -1, -1
+	if b != nil {
+		cs.order.MoveToFront(b.elem)
+		b.asked++
+		bb, ba, bs = b.base, b.add, b.sub
+		// Building a year costs about what adding the string up over the year costs, and
+		// pays only when it is read again: a parent asked for the first time is not built.
+		if b.asked < 2 && !b.ready.Load() {
+			b = nil
+		}
+	}
+	c.mu.Unlock()
+	if b != nil {
+		c.build(b, bb, ba, bs)
+	}
+	sy := &stringYear{y: y, mods: slices.Clone(mods), key: key, base: b, add: add, sub: sub}
+	if b == nil {
+		sy.add, sy.sub = -1, -1
+	}
+	c.mu.Lock()
+	c.putString(sy)
+	if b != nil {
+		c.strs.recipe++
+	}
+	c.mu.Unlock()
+	if b == nil {
+		return stringRecipe{add: -1, sub: -1}
+	}
+	return stringRecipe{v: b.v, add: add, sub: sub}
+}
+
+// build computes sy's year once, from base (plus add, less sub) when base's year is ready,
+// else module by module, and counts its bytes if sy is still kept.
+func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
+	did := false
+	sy.once.Do(func() {
+		did = true
+		y := sy.y
+		v := make([]int64, len(y.gridI))
+		if base != nil && base.ready.Load() {
+			copy(v, base.v)
+			for s := range y.steps {
+				off, np := int(y.gridOff[s]), int(y.gridOff[s+1]-y.gridOff[s])
+				row := s * y.n
+				if add >= 0 {
+					addCurve(v[off:off+np], y.curve(y.modCurve[row+add], np), 1)
+				}
+				if sub >= 0 {
+					addCurve(v[off:off+np], y.curve(y.modCurve[row+sub], np), -1)
+				}
+			}
+		} else {
+			var pr []curveCount
+			for s := range y.steps {
+				off, np := int(y.gridOff[s]), int(y.gridOff[s+1]-y.gridOff[s])
+				pr = y.appendPairs(pr[:0], s*y.n, sy.mods)
+				for _, p := range pr {
+					addCurve(v[off:off+np], y.curve(p.c, np), int64(p.n))
+				}
+			}
+		}
+		sy.v = v
+		sy.ready.Store(true)
+	})
+	if !did {
+		return
+	}
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	c.strs.built++
+	if c.strs.byKey[stringKey{sy.y, sy.key}] == sy && !sy.counted {
+		sy.counted = true
+		c.strs.bytes += int64(len(sy.v)) * 8
+		c.trimStrings()
+	}
+}
+
+// oneMore reports the one module of big (sorted) that is not in small (sorted) once skip is
+// left out of small, if big is small less skip plus that module.
+func oneMore(big, small []int, skip int) (int, bool) {
+	extra, found := 0, false
+	i := 0
+	for _, k := range big {
+		for i < len(small) && small[i] == skip {
+			i++
+		}
+		if i < len(small) && small[i] == k {
+			i++
+			continue
+		}
+		if found {
+			return 0, false
+		}
+		extra, found = k, true
+	}
+	for i < len(small) && small[i] == skip {
+		i++
+	}
+	return extra, found && i == len(small)
+}
+
+// putString keeps sy (unless another goroutine kept the same string meanwhile). c.mu is held.
+func (c *EvalCache) putString(sy *stringYear) {
+	cs := &c.strs
+	k := stringKey{sy.y, sy.key}
+	if cs.byKey[k] != nil {
+		return
+	}
+	sy.elem = cs.order.PushFront(sy)
+	cs.byKey[k] = sy
+	cs.bytes += nominalBytes
+	var buf []byte
+	for j := range sy.mods {
+		cs.minus[stringKey{sy.y, string(modsKey(buf, sy.mods, j))}] = sy
+	}
+	if sy.base != nil {
+		sy.base.derived = append(sy.base.derived, sy)
+	}
+	c.trimStrings()
+}
+
+// trimStrings drops the least recently used strings over the budget. c.mu is held.
+func (c *EvalCache) trimStrings() {
+	limit := c.MaxStringBytes
+	if limit <= 0 {
+		limit = 160 << 20
+	}
+	cs := &c.strs
+	for cs.bytes > limit && cs.order.Len() > 1 {
+		c.dropString(cs.order.Back().Value.(*stringYear))
+	}
+}
+
+// dropString forgets a kept string. Strings read from it are then added up module by module;
+// what a reader already holds stays valid (years are never written once ready). c.mu is held.
+func (c *EvalCache) dropString(e *stringYear) {
+	cs := &c.strs
+	cs.order.Remove(e.elem)
+	delete(cs.byKey, stringKey{e.y, e.key})
+	cs.bytes -= nominalBytes
+	if e.counted {
+		cs.bytes -= int64(len(e.v)) * 8
+	}
+	var buf []byte
+	for j := range e.mods {
+		mk := stringKey{e.y, string(modsKey(buf, e.mods, j))}
+		if cs.minus[mk] == e {
+			delete(cs.minus, mk)
+		}
+	}
+	for _, d := range e.derived {
+		if d.base == e {
+			d.base, d.add, d.sub = nil, -1, -1
+		}
+	}
+	e.derived = nil
+	if e.base != nil {
+		e.base.derived = slices.DeleteFunc(e.base.derived, func(d *stringYear) bool { return d == e })
+	}
 }

@@ -2,6 +2,7 @@ package electric
 
 import (
 	"slices"
+	"sync"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -154,4 +155,106 @@ func cloneLayout(l Layout) Layout {
 		}
 	}
 	return out
+}
+
+// A string one module away from a kept one (a module swapped, moved in or moved out) is read
+// from it by adding and taking away single modules' curves: whole units of voltQuantum add
+// exactly, so the result is the bit-for-bit result of adding the string up afresh, however
+// the strings were reached.
+func TestEvaluateCachedNearStrings(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	y := shadeYear(t, m, 120, 80, 0.7, 5)
+	base := layout6x20()
+	swap := cloneLayout(base)
+	swap.Inputs[0][0][3], swap.Inputs[0][2][9] = swap.Inputs[0][2][9], swap.Inputs[0][0][3]
+	swap2 := cloneLayout(base)
+	swap2.Inputs[0][0][4], swap2.Inputs[0][2][8] = swap2.Inputs[0][2][8], swap2.Inputs[0][0][4]
+	move := cloneLayout(swap)
+	k := move.Inputs[0][1][0]
+	move.Inputs[0][1] = move.Inputs[0][1][1:]
+	move.Inputs[1][0] = append(move.Inputs[1][0], k)
+	out := cloneLayout(move)
+	out.Inputs[1][1] = out.Inputs[1][1][:19]
+	var c EvalCache
+	for _, tc := range []struct {
+		name string
+		l    Layout
+	}{
+		{"base", base},
+		{"two modules swapped between strings", swap},
+		{"two other modules swapped", swap2},
+		{"a module moved to the other input", move},
+		{"a module left out", out},
+		{"base again", base},
+		{"first swap again", swap},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			fresh, err := y.Evaluate(tc.l, bigInverter, EvalOptions{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			cached, err := y.EvaluateCached(tc.l, bigInverter, EvalOptions{}, &c)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if fresh.ACWh != cached.ACWh || fresh.GlobalDCWh != cached.GlobalDCWh || !slices.Equal(fresh.StepDCWh, cached.StepDCWh) {
+				t.Errorf("cached %v Wh, fresh %v Wh: must agree to the bit", cached.ACWh, fresh.ACWh)
+			}
+		})
+	}
+	// The second swap reads both its strings from the base's, built once asked for twice.
+	if built, near := c.StringStats(); built == 0 || near < 2 {
+		t.Errorf("%d strings' years built, %d strings read from a parent: the cache read none from a near string", built, near)
+	}
+}
+
+// Goroutines sharing a cache, with a budget small enough that strings are dropped while
+// others read from them, give every layout the fresh result to the bit.
+func TestEvalCacheConcurrent(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	y := shadeYear(t, m, 120, 60, 0.7, 9)
+	base := layout6x20()
+	var layouts []Layout
+	for i := range 24 {
+		l := cloneLayout(base)
+		a, b := i%3, (i+1)%3
+		l.Inputs[0][a][i%20], l.Inputs[1][b][(7*i)%20] = l.Inputs[1][b][(7*i)%20], l.Inputs[0][a][i%20]
+		layouts = append(layouts, l)
+	}
+	want := make([]float64, len(layouts))
+	for i, l := range layouts {
+		r, err := y.Evaluate(l, bigInverter, EvalOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		want[i] = r.ACWh
+	}
+	// About three strings' years (60 steps × ~70 points × 8 bytes each).
+	c := EvalCache{MaxStringBytes: 3 * 60 * 80 * 8}
+	var wg sync.WaitGroup
+	got := make([]float64, 2*len(layouts))
+	for g := range 4 {
+		wg.Go(func() {
+			for i := g; i < len(got); i += 4 {
+				r, err := y.EvaluateCached(layouts[i%len(layouts)], bigInverter, EvalOptions{}, &c)
+				if err != nil {
+					t.Error(err)
+					return
+				}
+				got[i] = r.ACWh
+			}
+		})
+	}
+	wg.Wait()
+	for i, g := range got {
+		if g != want[i%len(layouts)] {
+			t.Errorf("layout %d: cached %v Wh, fresh %v Wh", i%len(layouts), g, want[i%len(layouts)])
+		}
+	}
 }

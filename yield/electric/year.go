@@ -95,15 +95,15 @@ type YearResult struct {
 type Year struct {
 	m          *Module
 	n, steps   int
-	gridOff    []int32     // per step and one more: the step's points are gridI[gridOff[s]:gridOff[s+1]]
-	gridI      []float64   // every step's current grid (A), shared by its curves
-	curveV     [][]float32 // blocks of curveBlockLen voltages (V); a curve lies in one block
-	curveAt    []int64     // per curve: block·curveBlockLen + offset of its first voltage
-	curveMPP   []float32   // per curve: module maximum power (W)
-	modCurve   []int32     // steps × n: curve index
-	unshadedW  []float32   // steps × n: unshaded module maximum power (W)
-	hours      []float32   // per step (h)
-	moduleDCWh []float64   // per module over the year
+	gridOff    []int32   // per step and one more: the step's points are gridI[gridOff[s]:gridOff[s+1]]
+	gridI      []float64 // every step's current grid (A), shared by its curves
+	curveV     [][]int32 // blocks of curveBlockLen voltages (units of voltQuantum); a curve lies in one block
+	curveAt    []int64   // per curve: block·curveBlockLen + offset of its first voltage
+	curveMPP   []float32 // per curve: module maximum power (W)
+	modCurve   []int32   // steps × n: curve index
+	unshadedW  []float32 // steps × n: unshaded module maximum power (W)
+	hours      []float32 // per step (h)
+	moduleDCWh []float64 // per module over the year
 	moduleUnWh []float64
 }
 
@@ -237,7 +237,7 @@ type yearBatch struct {
 // stepCurves is one step's result with curve indices local to the step.
 type stepCurves struct {
 	grid []float64 // current grid (A)
-	v    []float32 // local curves × len(grid)
+	v    []int32   // local curves × len(grid), units of voltQuantum
 	mpp  []float32 // per local curve
 	mod  []int32   // per module: local curve
 	unW  []float32 // per module: unshaded maximum power
@@ -300,19 +300,33 @@ func (y *Year) merge(b *yearBatch) {
 // curvePoints): the store grows a block at a time and is never copied.
 const curveBlockLen = 1024 * curvePoints
 
+// voltQuantum is the unit the stored curves' voltages are counted in: 2⁻²⁰ V ≈ 0.95 µV, finer
+// than a float32 voltage near 50 V (3.8 µV) and far below anything the energy notices
+// (0.95 µV × 15 A ≈ 14 µW). Whole units add exactly and in any order, so a string's voltages
+// can be built from a kept string by adding one module's curve and taking another's away
+// (see stringYear) and give the same bits as adding the string up afresh.
+const voltQuantum = 0x1p-20
+
+// quantV returns v (V) in units of voltQuantum, held inside int32 (±2048 V, above any one
+// module's voltage).
+func quantV(v float64) int32 {
+	q := math.Round(v / voltQuantum)
+	return int32(math.Max(math.Min(q, math.MaxInt32), math.MinInt32))
+}
+
 // addCurve appends one curve's voltages to the store.
-func (y *Year) addCurve(v []float32) {
+func (y *Year) addCurve(v []int32) {
 	nb := len(y.curveV)
 	if nb == 0 || len(y.curveV[nb-1])+len(v) > curveBlockLen {
-		y.curveV = append(y.curveV, make([]float32, 0, curveBlockLen))
+		y.curveV = append(y.curveV, make([]int32, 0, curveBlockLen))
 		nb++
 	}
 	y.curveAt = append(y.curveAt, int64(nb-1)*curveBlockLen+int64(len(y.curveV[nb-1])))
 	y.curveV[nb-1] = append(y.curveV[nb-1], v...)
 }
 
-// curve returns curve c's n voltages on its step's grid.
-func (y *Year) curve(c int32, n int) []float32 {
+// curve returns curve c's n voltages on its step's grid, in units of voltQuantum.
+func (y *Year) curve(c int32, n int) []int32 {
 	at := y.curveAt[c]
 	b, k := at/curveBlockLen, int(at%curveBlockLen)
 	return y.curveV[b][k : k+n]
@@ -448,7 +462,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	for _, r := range w.repr {
 		m.curveOnGrid(qirr(r), w.qt[r], o.grid, w.v, &w.sc)
 		for _, x := range w.v {
-			o.v = append(o.v, float32(x))
+			o.v = append(o.v, quantV(x))
 		}
 		p, _, _ := polyMax(o.grid, w.v, 0, math.Inf(1), math.Inf(1))
 		o.mpp = append(o.mpp, float32(p))
@@ -530,7 +544,8 @@ func (y *Year) CheckLayout(l Layout, inv Inverter) error {
 // evalScratch is per-call working space.
 type evalScratch struct {
 	pairs [][]curveCount // per string of an input
-	sums  [][]float64    // per string: voltage sums on the step grid
+	isums [][]int64      // per string: voltage sums on the step grid (voltQuantum)
+	sums  [][]float64    // per string: the same in volts
 	is    [][]float64
 	gi    []float64
 	gs    []float64 // grid scaled for identical parallel strings
@@ -630,36 +645,44 @@ func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCa
 	return res, nil
 }
 
-// inputCurve returns the polyline (current, voltage) of the strings of one
-// input in parallel at step row/y.n. Modules sharing a curve are added as
-// count × curve, and identical strings in parallel scale the current.
-func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []float64) {
+// inputCurve returns the polyline (current, voltage) of the strings of one input in parallel
+// at step s. A string with a recipe (strs[b], see stringYear) is read from a kept year of
+// voltages, plus and less a module; any other is added up here, modules sharing a curve as
+// count × curve. Identical strings in parallel scale the current.
+func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecipe) ([]float64, []float64) {
 	ns := len(in)
 	for len(sc.pairs) < ns {
 		sc.pairs = append(sc.pairs, nil)
+		sc.isums = append(sc.isums, nil)
 		sc.sums = append(sc.sums, nil)
 		sc.is = append(sc.is, nil)
 	}
 	np := len(sc.gi)
+	row := s * y.n
+	off := int(y.gridOff[s])
 	for b, str := range in {
-		pr := sc.pairs[b][:0]
-	modules:
-		for _, k := range str {
-			c := y.modCurve[row+k]
-			for j := range pr {
-				if pr[j].c == c {
-					pr[j].n++
-					continue modules
-				}
+		sc.isums[b] = growInt64(sc.isums[b], np)
+		isum := sc.isums[b]
+		if strs != nil && strs[b].v != nil {
+			r := strs[b]
+			copy(isum, r.v[off:off+np])
+			if r.add >= 0 {
+				addCurve(isum, y.curve(y.modCurve[row+r.add], np), 1)
 			}
-			pr = append(pr, curveCount{c, 1})
+			if r.sub >= 0 {
+				addCurve(isum, y.curve(y.modCurve[row+r.sub], np), -1)
+			}
+			continue
 		}
-		slices.SortFunc(pr, func(a, b curveCount) int { return int(a.c - b.c) })
-		sc.pairs[b] = pr
+		sc.pairs[b] = y.appendPairs(sc.pairs[b][:0], row, str)
+		clear(isum)
+		for _, p := range sc.pairs[b] {
+			addCurve(isum, y.curve(p.c, np), int64(p.n))
+		}
 	}
 	same := true
 	for b := 1; b < ns && same; b++ {
-		same = slices.Equal(sc.pairs[b], sc.pairs[0])
+		same = slices.Equal(sc.isums[b], sc.isums[0])
 	}
 	last := ns
 	if same {
@@ -668,13 +691,8 @@ func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []fl
 	for b := range last {
 		sc.sums[b] = grow(sc.sums[b], np)
 		sum := sc.sums[b]
-		clear(sum)
-		for _, p := range sc.pairs[b] {
-			cv := y.curve(p.c, np)
-			f := float64(p.n)
-			for k, x := range cv {
-				sum[k] += f * float64(x)
-			}
+		for k, x := range sc.isums[b] {
+			sum[k] = float64(x) * voltQuantum
 		}
 		sc.is[b] = sc.gi
 	}
@@ -689,6 +707,45 @@ func (y *Year) inputCurve(sc *evalScratch, row int, in [][]int) ([]float64, []fl
 		return sc.gs, sc.sums[0]
 	}
 	return sc.m.parallel(sc.is[:ns], sc.sums[:ns])
+}
+
+// appendPairs appends the distinct curves of the string's modules at the step starting at
+// row, each with the number of modules that have it, in curve order.
+func (y *Year) appendPairs(pr []curveCount, row int, str []int) []curveCount {
+modules:
+	for _, k := range str {
+		c := y.modCurve[row+k]
+		for j := range pr {
+			if pr[j].c == c {
+				pr[j].n++
+				continue modules
+			}
+		}
+		pr = append(pr, curveCount{c, 1})
+	}
+	slices.SortFunc(pr, func(a, b curveCount) int { return int(a.c - b.c) })
+	return pr
+}
+
+// addCurve adds f × cv to sum, point by point.
+func addCurve(sum []int64, cv []int32, f int64) {
+	sum = sum[:len(cv)]
+	if f == 1 {
+		for k, x := range cv {
+			sum[k] += int64(x)
+		}
+		return
+	}
+	for k, x := range cv {
+		sum[k] += f * int64(x)
+	}
+}
+
+func growInt64(s []int64, n int) []int64 {
+	if cap(s) < n {
+		return make([]int64, n)
+	}
+	return s[:n]
 }
 
 // climb models a hill-climbing tracker: from the previous voltage (or 80 %

@@ -119,7 +119,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 			Inputs: p.Inverter.Inputs, Order: order, Starts: append([]electric.Layout{seq}, p.fixed...),
 		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
 			CableWeightWh: weightWh, Keep: 40, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
-			Screen: layout.ModelScreen(m, electric.EvalOptions{}, screenStride), ScreenCost: screenStride,
+			Screen: layout.ModelScreen(m, electric.EvalOptions{}, screenStride), ScreenCost: screenStride, MaxEvals: searchBudget,
 		})
 		if err != nil {
 			return nil, fmt.Errorf("layout search: %w", err)
@@ -177,6 +177,11 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 // within a few tenths of a percent of the year's energy of the whole year's (see the layout
 // package's screening test).
 const screenStride = 4
+
+// searchBudget is the search's budget at each level of freedom, in whole-year evaluations
+// (four screens count as one): 800 layouts screened and the most promising evaluated, more
+// layouts looked at than 400 whole-year evaluations used to see, at half their cost.
+const searchBudget = 200
 
 // roofOrderName names the plain layout in the ranking; userNote marks the user's layouts,
 // which are always reported.
