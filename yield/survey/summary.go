@@ -2,6 +2,7 @@ package survey
 
 import (
 	"cmp"
+	"errors"
 	"fmt"
 	"slices"
 	"strconv"
@@ -14,6 +15,7 @@ import (
 	"sunstring/yield/layout"
 	"sunstring/yield/plausible"
 	"sunstring/yield/report"
+	"sync"
 )
 
 // Faces summarizes each roof face with its modules and their power.
@@ -50,7 +52,7 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 	}
 	var out []report.Alternative
 	var every float64
-	for _, a := range []struct {
+	alts := []struct {
 		name, note string
 		opt        electric.EvalOptions
 	}{
@@ -58,15 +60,28 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 			electric.EvalOptions{Tracker: electric.LocalClimb}},
 		{"module-level converters", fmt.Sprintf("a DC converter on every module holding it at its own maximum power point (%.1f %% conversion efficiency assumed), the inverter's AC stage unchanged", 100*moduleConverterEff),
 			electric.EvalOptions{ModuleLevel: true, ModuleLevelEff: moduleConverterEff}},
-	} {
-		r, err := m.Evaluate(best.Layout, a.opt)
-		if err != nil {
-			return nil, fmt.Errorf("alternative %q: %w", a.name, err)
-		}
-		alt := report.Alternative{Name: a.name, AnnualACkWh: r.ACkWh, DifferenceKWh: r.ACkWh - best.ACkWh, Note: a.note}
+	}
+	// Only the annual energy is reported: no unshaded reference, and both on their own core.
+	wh := make([]float64, len(alts))
+	errs := make([]error, len(alts))
+	var wg sync.WaitGroup
+	for i, a := range alts {
+		wg.Go(func() {
+			if wh[i], errs[i] = m.EvaluateACWh(best.Layout, a.opt); errs[i] != nil {
+				errs[i] = fmt.Errorf("alternative %q: %w", a.name, errs[i])
+			}
+		})
+	}
+	wg.Wait()
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
+	}
+	for i, a := range alts {
+		ac := wh[i] / 1000
+		alt := report.Alternative{Name: a.name, AnnualACkWh: ac, DifferenceKWh: ac - best.ACkWh, Note: a.note}
 		if a.opt.ModuleLevel {
 			alt.ConvertersOn = ids(modulesOf(best.Layout))
-			every = r.ACkWh - best.ACkWh
+			every = ac - best.ACkWh
 		}
 		out = append(out, alt)
 	}
@@ -96,6 +111,9 @@ func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every 
 	idx := modulesOf(best.Layout)
 	slices.SortStableFunc(idx, func(a, b int) int { return cmp.Compare(m.Stats[b].ShadeLossPct, m.Stats[a].ShadeLossPct) })
 	var found *report.Alternative
+	// Each set adds one module to the last: the strings it changes are read from the last
+	// set's through the cache, the others not computed again.
+	cache := &electric.EvalCache{}
 	for k := 1; k <= min(12, len(idx)-1); k++ {
 		conv := slices.Clone(idx[:k])
 		if m.Stats[conv[k-1]].ShadeLossPct <= 0 {
@@ -124,18 +142,19 @@ func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every 
 			}
 			rest = l
 		}
-		r, err := m.Evaluate(rest, electric.EvalOptions{ConvertersOn: conv, ModuleLevelEff: moduleConverterEff})
+		wh, err := m.EvaluateACWhCached(rest, electric.EvalOptions{ConvertersOn: conv, ModuleLevelEff: moduleConverterEff}, cache)
 		if err != nil {
 			return nil, fmt.Errorf("alternative: converters on %d modules: %w", k, err)
 		}
-		gain := r.ACkWh - best.ACkWh
+		ac := wh / 1000
+		gain := ac - best.ACkWh
 		names := make([]string, k)
 		for i, x := range conv {
 			names[i] = p.Modules[x].ID
 		}
 		alt := report.Alternative{
 			Name:          fmt.Sprintf("module-level converters on the %d most shaded modules", k),
-			AnnualACkWh:   r.ACkWh,
+			AnnualACkWh:   ac,
 			DifferenceKWh: gain,
 			Note: fmt.Sprintf("converters (%.1f %% efficiency) on %s only, the other modules on plain strings: %s kWh a year, %.0f %% of the %s kWh that converters on every module gain",
 				100*moduleConverterEff, joinWords(names), report.Thousands(gain, 0), 100*gain/every, report.Thousands(every, 0)),
