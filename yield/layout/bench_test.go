@@ -61,6 +61,40 @@ func BenchmarkSearch120(b *testing.B) {
 	b.ReportMetric(float64(evals)/float64(b.N), "layouts/op")
 }
 
+// BenchmarkSearch120Screened is BenchmarkSearch120 with the survey's screening: layouts
+// screened on every fourth step (electric.Year.Thin) before the most promising are evaluated
+// on the whole year, a budget of 100 whole-year evaluations a level (four screens count as
+// one). evals/s counts whole-year evaluations, screens/s the screened layouts, and
+// layout-years/s both in whole years (a screen a quarter).
+func BenchmarkSearch120Screened(b *testing.B) {
+	y, r, inv := benchYear(b)
+	thin := y.Thin(4)
+	p := Problem{Features: r.features(), Positions: r.pos, Bounds: Bounds{MinSeries: 8, MaxSeries: 22, MaxParallel: 3}, Inputs: 3}
+	evals, screens := 0, 0
+	b.ReportAllocs()
+	for b.Loop() {
+		c, ct := &electric.EvalCache{}, &electric.EvalCache{}
+		eval := func(l electric.Layout) (float64, error) {
+			res, err := y.EvaluateCached(l, inv, electric.EvalOptions{}, c)
+			return res.ACWh, err
+		}
+		screen := func(l electric.Layout) (float64, error) {
+			res, err := thin.EvaluateCached(l, inv, electric.EvalOptions{}, ct)
+			return res.ACWh, err
+		}
+		res, err := Search(context.Background(), p, eval, Options{MaxEvals: 100, Screen: screen, ScreenCost: 4})
+		if err != nil {
+			b.Fatal(err)
+		}
+		evals += res.Evaluated
+		screens += res.Screened
+	}
+	sec := b.Elapsed().Seconds()
+	b.ReportMetric(float64(evals)/sec, "evals/s")
+	b.ReportMetric(float64(screens)/sec, "screens/s")
+	b.ReportMetric((float64(evals)+float64(screens)/4)/sec, "layout-years/s")
+}
+
 // BenchmarkEvaluate120 is one full-year evaluation of a 120-module layout (3 inputs × 2
 // strings of 20), on one core.
 func BenchmarkEvaluate120(b *testing.B) {
