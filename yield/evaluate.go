@@ -139,9 +139,16 @@ func (m *Model) EvaluateACWhCached(l electric.Layout, opt electric.EvalOptions, 
 // Evaluate runs a layout over the prepared year, and the same layout over the unshaded
 // reference year for its shade loss.
 func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutResult, error) {
+	return m.EvaluateCached(l, opt, nil)
+}
+
+// EvaluateCached is Evaluate through a cache of the inputs' and strings' shares of both years
+// (electric.EvalCache), for evaluating several layouts that share strings; the result is the
+// same to the bit. A nil cache computes everything.
+func (m *Model) EvaluateCached(l electric.Layout, opt electric.EvalOptions, c *electric.EvalCache) (LayoutResult, error) {
 	sys := m.In.System
 	opt = m.options(opt)
-	yr, err := m.Year.Evaluate(l, sys.Inverter, opt)
+	yr, err := m.Year.EvaluateCached(l, sys.Inverter, opt, c)
 	if err != nil {
 		return LayoutResult{}, fmt.Errorf("yield: layout: %w", err)
 	}
@@ -151,7 +158,7 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 	r.ACkWh = net(yr)
 	var yu electric.YearResult
 	if m.YearUnshaded != nil {
-		if yu, err = m.YearUnshaded.Evaluate(l, sys.Inverter, opt); err != nil {
+		if yu, err = m.YearUnshaded.EvaluateCached(l, sys.Inverter, opt, c); err != nil {
 			return LayoutResult{}, fmt.Errorf("yield: layout, unshaded: %w", err)
 		}
 		r.UnshadedACkWh = net(yu)

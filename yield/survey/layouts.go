@@ -44,6 +44,9 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 	seen := map[string]bool{}
 	firstName := map[string]string{} // a layout's key → the name it was first listed under
 	names := map[string]bool{}
+	// The listed layouts share many strings (a variant changes a few of the best's), so their
+	// evaluations go through one cache.
+	cache := &electric.EvalCache{}
 	eval := func(name string, l electric.Layout, note string) error {
 		// A user's layout may repeat the roof order or another user's layout: it is still
 		// listed under its own name, and says so, so that two names for one wiring do not read
@@ -53,7 +56,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 		} else {
 			firstName[layoutKey(l)] = name
 		}
-		r, err := m.Evaluate(l, electric.EvalOptions{})
+		r, err := m.EvaluateCached(l, electric.EvalOptions{}, cache)
 		if err != nil {
 			return fmt.Errorf("layout %q: %w", name, err)
 		}
