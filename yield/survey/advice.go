@@ -143,6 +143,57 @@ func (p *Project) variants(base electric.Layout, order []int, shaded []int) []el
 			break
 		}
 	}
+	// A shaded row on its own string (the eave row in a neighbour's winter shadow, say): the
+	// row takes a string slot of its length, the other modules fill the rest in roof order.
+	// The first two such rows, in roof order.
+	if len(shaded) >= 1 {
+		conn := connected(base)
+		isShaded := map[int]bool{}
+		for _, k := range shaded {
+			isShaded[k] = true
+		}
+		type rowKey struct {
+			face string
+			row  int
+		}
+		var keys []rowKey
+		rows := map[rowKey][]int{}
+		for _, k := range order {
+			if !conn[k] {
+				continue
+			}
+			rk := rowKey{p.Modules[k].Face, p.Modules[k].Row}
+			if _, ok := rows[rk]; !ok {
+				keys = append(keys, rk)
+			}
+			rows[rk] = append(rows[rk], k)
+		}
+		tried := 0
+		for _, rk := range keys {
+			row := rows[rk]
+			if tried == 2 || !slices.ContainsFunc(row, func(k int) bool { return isShaded[k] }) {
+				continue
+			}
+			l, ok := ownString(base, order, row, conn)
+			if !ok && p.Inverter.Inputs >= 2 {
+				// No slot of the row's length: the row on an input of its own, the other
+				// modules over the other inputs.
+				var rest []int
+				for _, k := range order {
+					if conn[k] && !slices.Contains(row, k) {
+						rest = append(rest, k)
+					}
+				}
+				if r, left, err := layout.Sequential(rest, p.Inverter.Inputs-1, p.bounds); err == nil && left == 0 {
+					l, ok = electric.Layout{Inputs: append(r.Inputs, [][]int{slices.Clone(row)})}, true
+				}
+			}
+			if ok && p.fits(l) {
+				add(l)
+				tried++
+			}
+		}
+	}
 	// Strings moved to other inputs: an input's parallel strings split onto free inputs, or
 	// two single strings of equal length joined on one input.
 	free := p.Inverter.Inputs - len(base.Inputs)
@@ -549,4 +600,39 @@ func when(m *yield.Model, mods []int) string {
 		return day + " all year round"
 	}
 	return fmt.Sprintf("%s, %s", day, joinWords(ms))
+}
+
+// ownString returns base with mods on a string slot of their own (the first slot of their
+// length) and the other connected modules filling the other slots in roof order; false when
+// base has no slot of that length.
+func ownString(base electric.Layout, order, mods []int, conn map[int]bool) (electric.Layout, bool) {
+	sa, sb := -1, -1
+	for a, in := range base.Inputs {
+		for b, str := range in {
+			if sa < 0 && len(str) == len(mods) {
+				sa, sb = a, b
+			}
+		}
+	}
+	if sa < 0 {
+		return electric.Layout{}, false
+	}
+	var rest []int
+	for _, k := range order {
+		if conn[k] && !slices.Contains(mods, k) {
+			rest = append(rest, k)
+		}
+	}
+	l := electric.Layout{Inputs: make([][][]int, len(base.Inputs))}
+	for a, in := range base.Inputs {
+		for b, str := range in {
+			if a == sa && b == sb {
+				l.Inputs[a] = append(l.Inputs[a], slices.Clone(mods))
+				continue
+			}
+			l.Inputs[a] = append(l.Inputs[a], slices.Clone(rest[:len(str)]))
+			rest = rest[len(str):]
+		}
+	}
+	return l, true
 }
