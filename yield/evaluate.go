@@ -119,6 +119,7 @@ func (m *Model) flat() (dcKeep, avail float64) {
 }
 
 // EvaluateACWh is the layout's annual AC energy (Wh) net of every loss, as Evaluate's ACkWh,
+// its inputs the plant's in order, inverter by inverter (System.Plant, electric.Plant.Split),
 // without the unshaded reference and the breakdown: the layout search's objective.
 func (m *Model) EvaluateACWh(l electric.Layout, opt electric.EvalOptions) (float64, error) {
 	return m.EvaluateACWhCached(l, opt, nil)
@@ -128,7 +129,7 @@ func (m *Model) EvaluateACWh(l electric.Layout, opt electric.EvalOptions) (float
 // that a search that changes one or two inputs at a time recomputes only those; the value is
 // the same to the bit. A nil cache computes everything.
 func (m *Model) EvaluateACWhCached(l electric.Layout, opt electric.EvalOptions, c *electric.EvalCache) (float64, error) {
-	yr, err := m.Year.EvaluateCached(l, m.In.System.Inverter, m.options(opt), c)
+	yr, err := m.Year.EvaluatePlantCached(l, m.In.System.Plant(), m.options(opt), c)
 	if err != nil {
 		return 0, fmt.Errorf("yield: layout: %w", err)
 	}
@@ -137,7 +138,9 @@ func (m *Model) EvaluateACWhCached(l electric.Layout, opt electric.EvalOptions, 
 }
 
 // Evaluate runs a layout over the prepared year, and the same layout over the unshaded
-// reference year for its shade loss.
+// reference year for its shade loss. The layout's inputs are the plant's in order, inverter by
+// inverter (System.Plant, electric.Plant.Split): each inverter clips at its own AC limit and
+// counts its own night consumption, and the results add up.
 func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutResult, error) {
 	return m.EvaluateCached(l, opt, nil)
 }
@@ -148,7 +151,8 @@ func (m *Model) Evaluate(l electric.Layout, opt electric.EvalOptions) (LayoutRes
 func (m *Model) EvaluateCached(l electric.Layout, opt electric.EvalOptions, c *electric.EvalCache) (LayoutResult, error) {
 	sys := m.In.System
 	opt = m.options(opt)
-	yr, err := m.Year.EvaluateCached(l, sys.Inverter, opt, c)
+	plant := sys.Plant()
+	yr, err := m.Year.EvaluatePlantCached(l, plant, opt, c)
 	if err != nil {
 		return LayoutResult{}, fmt.Errorf("yield: layout: %w", err)
 	}
@@ -158,7 +162,7 @@ func (m *Model) EvaluateCached(l electric.Layout, opt electric.EvalOptions, c *e
 	r.ACkWh = net(yr)
 	var yu electric.YearResult
 	if m.YearUnshaded != nil {
-		if yu, err = m.YearUnshaded.EvaluateCached(l, sys.Inverter, opt, c); err != nil {
+		if yu, err = m.YearUnshaded.EvaluatePlantCached(l, plant, opt, c); err != nil {
 			return LayoutResult{}, fmt.Errorf("yield: layout, unshaded: %w", err)
 		}
 		r.UnshadedACkWh = net(yu)

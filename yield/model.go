@@ -37,14 +37,21 @@ type Losses struct {
 type System struct {
 	Module   electric.Datasheet
 	Inverter electric.Inverter
-	Losses   Losses
-	Albedo   float64
-	Sky      irradiance.SkyModel
-	IAM      IAMModel
+	// Inverters is how many inverters of the Inverter's model share the modules; zero means
+	// one. A layout's inputs are then the plant's, inverter by inverter (electric.Plant.Split),
+	// and each inverter clips at its own AC limit.
+	Inverters int
+	Losses    Losses
+	Albedo    float64
+	Sky       irradiance.SkyModel
+	IAM       IAMModel
 	// Mounting sets the cell temperature model; the zero value is modules on rails over a
 	// pitched roof.
 	Mounting irradiance.Mounting
 }
+
+// Plant returns the system's inverters.
+func (s System) Plant() electric.Plant { return electric.Identical(s.Inverter, max(s.Inverters, 1)) }
 
 // Input is everything a simulation needs.
 type Input struct {

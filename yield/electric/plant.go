@@ -130,9 +130,15 @@ func modules(l Layout) int {
 // of modules, so that a layout search may treat the plant's inputs as interchangeable. Balanced
 // inverters clip least on a roof of one orientation; the largest-first rule is the common
 // heuristic for balancing loads (Graham 1969, SIAM J. Appl. Math. 17(2), from memory). A plant of one
-// inverter, or a layout with more inputs than the plant, is returned as it is.
+// inverter, or a layout with more (non-empty) inputs than the plant, is returned as it is.
 func (p Plant) Deal(l Layout) Layout {
-	if len(p) <= 1 || len(l.Inputs) > p.Inputs() {
+	used := 0
+	for _, in := range l.Inputs {
+		if len(in) > 0 {
+			used++
+		}
+	}
+	if len(p) <= 1 || used > p.Inputs() {
 		return l
 	}
 	type input struct {
@@ -160,11 +166,11 @@ func (p Plant) Deal(l Layout) Layout {
 		return slices.Compare(a.key, b.key)
 	})
 	load := make([]int, len(p))
-	used := make([][][][]int, len(p))
+	on := make([][][][]int, len(p))
 	for _, x := range ins {
 		best := -1
 		for k, inv := range p {
-			if len(used[k]) == inv.Inputs {
+			if len(on[k]) == inv.Inputs {
 				continue
 			}
 			// Fewest modules per watt: a·AC_b < b·AC_a without division.
@@ -173,12 +179,12 @@ func (p Plant) Deal(l Layout) Layout {
 			}
 		}
 		load[best] += x.n
-		used[best] = append(used[best], x.strs)
+		on[best] = append(on[best], x.strs)
 	}
 	out := Layout{Inputs: make([][][]int, 0, p.Inputs())}
 	for k, inv := range p {
-		out.Inputs = append(out.Inputs, used[k]...)
-		for range inv.Inputs - len(used[k]) {
+		out.Inputs = append(out.Inputs, on[k]...)
+		for range inv.Inputs - len(on[k]) {
 			out.Inputs = append(out.Inputs, nil)
 		}
 	}

@@ -60,10 +60,16 @@ func ShadeFeatures(m *yield.Model) [][]float64 {
 // report shows. The model's year of module curves is shared by all calls, and each input's
 // share of the year is kept (electric.EvalCache, 64 MB at most), so that a layout that
 // differs from an earlier one in one or two inputs costs only those inputs.
+//
+// With several inverters (yield.System.Inverters) the search's inputs are all the plant's,
+// taken as interchangeable: each layout's inputs are dealt to the inverters by
+// electric.Plant.Deal before it is evaluated, and each inverter clips at its own AC limit.
+// A caller reports a found layout dealt the same way.
 func ModelEvaluator(m *yield.Model, opt electric.EvalOptions) Evaluator {
 	c := &electric.EvalCache{}
+	plant := m.In.System.Plant()
 	return func(l electric.Layout) (float64, error) {
-		return m.EvaluateACWhCached(l, opt, c)
+		return m.EvaluateACWhCached(plant.Deal(l), opt, c)
 	}
 }
 

@@ -25,8 +25,11 @@ type Plan struct {
 	// Strings lists, for each string of the chosen layout, indices into Modules in wiring
 	// order.
 	Strings [][]int
-	// Inputs is the inverter input (1-based) of each string; may be nil.
-	Inputs []int
+	// Inputs is the inverter input (1-based) of each string; may be nil. With several
+	// inverters (Inverters above 1) InverterOf is each string's inverter (1-based).
+	Inputs     []int
+	Inverters  int
+	InverterOf []int
 }
 
 // Shape is a named outline, a closed ring of east-north points in metres.
@@ -894,7 +897,11 @@ func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 		addLabels(p, path, nums, math.Min(6, 1.15*float64(radius)), white, text.XCenter, text.YCenter)
 		name := fmt.Sprintf("string %d: %s", k+1, Count(len(path), "module", "modules"))
 		if k < len(pl.Inputs) {
-			name = fmt.Sprintf("string %d, input %d: %s", k+1, pl.Inputs[k], Count(len(path), "module", "modules"))
+			inv := 1
+			if k < len(pl.InverterOf) {
+				inv = pl.InverterOf[k]
+			}
+			name = fmt.Sprintf("string %d, %s: %s", k+1, InputLabel(pl.Inverters, inv, pl.Inputs[k]), Count(len(path), "module", "modules"))
 		}
 		p.Legend.Add(name, ln)
 	}

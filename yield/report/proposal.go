@@ -46,8 +46,9 @@ type Equipment struct {
 	CellsSeries            int  // as the datasheet counts them
 	HalfCut                bool // two halves in parallel: CellsSeries/2 in series
 	BypassDiodes           int
-	InverterACW            float64
-	InverterInputs         int
+	Inverters              int     // identical inverters; zero means one
+	InverterACW            float64 // each
+	InverterInputs         int     // each
 	InverterMaxDCV         float64
 	MPPTMinV, MPPTMaxV     float64
 	InverterEfficiencyNote string // e.g. "97 % (flat)"; may be empty
@@ -373,7 +374,7 @@ func (pr *Proposal) wiring(d *pdfDoc, charts map[string][]byte) {
 	}
 	l := s.Layouts[0]
 	d.heading("How the modules are wired", fmt.Sprintf("The modules are joined in %s: each colour is one string, numbered in the order the cable runs.%s",
-		Count(len(l.Strings), "string", "strings"), stringsText(l)))
+		Count(len(l.Strings), "string", "strings"), stringsText(l, s.Inverters)))
 	if charts["strings"] != nil {
 		d.image("strings", charts["strings"], 0.92)
 	}
@@ -404,11 +405,13 @@ func (pr *Proposal) wiring(d *pdfDoc, charts map[string][]byte) {
 }
 
 // stringsText lists the strings of a layout in plain words.
-func stringsText(l Layout) string {
+func stringsText(l Layout, inverters int) string {
 	var parts []string
 	for i, st := range l.Strings {
 		in := ""
-		if i < len(l.Inputs) {
+		if i < len(l.Inputs) && inverters > 1 {
+			in = fmt.Sprintf(" on inverter %d, input %d", inverterOf(l, i), l.Inputs[i])
+		} else if i < len(l.Inputs) {
 			in = fmt.Sprintf(" on inverter input %d", l.Inputs[i])
 		}
 		parts = append(parts, fmt.Sprintf("string %d has %s%s", i+1, Count(len(st), "module", "modules"), in))

@@ -47,8 +47,7 @@ func (pr *Proposal) system(d *pdfDoc) {
 		{"Climate", fmt.Sprintf("%s; %s kWh/m² global horizontal irradiation per year", climateText(s.Climate), Thousands(s.Climate.AnnualGHIkWhM2, 0))},
 		{"Modules", fmt.Sprintf("%s × %s W (%s kWp), %s m × %s m, %s, %s", ModulesText(s), Thousands(e.ModulePowerW, 0),
 			Thousands(s.DCkWp, 2), Thousands(e.ModuleLengthM, 2), Thousands(e.ModuleWidthM, 2), cellsText(e), Count(e.BypassDiodes, "bypass diode", "bypass diodes"))},
-		{"Inverter", fmt.Sprintf("%s W AC, %s, %s to %s V MPPT window, %s V DC maximum", Thousands(e.InverterACW, 0), Count(e.InverterInputs, "MPPT input", "MPPT inputs"),
-			Thousands(e.MPPTMinV, 0), Thousands(e.MPPTMaxV, 0), Thousands(e.InverterMaxDCV, 0))},
+		{"Inverter", inverterText(e)},
 		{"Yield", fmt.Sprintf("%s kWh AC a year; specific yield %s kWh/kWp; performance ratio %s (IEC 61724-1, over the connected modules)",
 			Thousands(s.AnnualACkWh, 0), Thousands(s.SpecificYield, 0), Thousands(s.PerformanceRatio, 2))},
 	}
@@ -145,17 +144,18 @@ func (pr *Proposal) layouts(d *pdfDoc, charts map[string][]byte) {
 		if l.Note != "" {
 			d.small(fmt.Sprintf("%d. %s: %s", i+1, l.Name, sentence(l.Note)))
 		}
-		d.small(fmt.Sprintf("   strings: %s", stringsIDs(l)))
+		d.small(fmt.Sprintf("   strings: %s", stringsIDs(l, s.Inverters)))
 	}
 }
 
-// stringsIDs lists a layout's strings as module ids with their inputs.
-func stringsIDs(l Layout) string {
+// stringsIDs lists a layout's strings as module ids with their inputs (and inverters, when
+// there are several).
+func stringsIDs(l Layout, inverters int) string {
 	var parts []string
 	for i, st := range l.Strings {
 		in := ""
 		if i < len(l.Inputs) {
-			in = fmt.Sprintf(" (input %d)", l.Inputs[i])
+			in = fmt.Sprintf(" (%s)", InputLabel(inverters, inverterOf(l, i), l.Inputs[i]))
 		}
 		parts = append(parts, fmt.Sprintf("%d%s: %s", i+1, in, strings.Join(st, " ")))
 	}
@@ -294,4 +294,22 @@ func (d *pdfDoc) indicative(figures string) {
 	d.colour(Warn)
 	d.multi(lineMM, "INDICATIVE ONLY: no climate data was given; "+figures+" assume a cloudless year and over-state what the system will deliver.", false)
 	d.Ln(2)
+}
+
+// inverterOf returns the inverter (1-based) of string i of l: the first when l does not say.
+func inverterOf(l Layout, i int) int {
+	if i < len(l.Inverters) {
+		return l.Inverters[i]
+	}
+	return 1
+}
+
+// inverterText describes the inverter, or the inverters and their AC power together.
+func inverterText(e Equipment) string {
+	t := fmt.Sprintf("%s W AC, %s, %s to %s V MPPT window, %s V DC maximum", Thousands(e.InverterACW, 0), Count(e.InverterInputs, "MPPT input", "MPPT inputs"),
+		Thousands(e.MPPTMinV, 0), Thousands(e.MPPTMaxV, 0), Thousands(e.InverterMaxDCV, 0))
+	if e.Inverters > 1 {
+		t = fmt.Sprintf("%d inverters, %s W AC together; each %s", e.Inverters, Thousands(float64(e.Inverters)*e.InverterACW, 0), t)
+	}
+	return t
 }

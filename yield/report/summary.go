@@ -3,6 +3,7 @@ package report
 import (
 	"bytes"
 	"encoding/json"
+	"fmt"
 	"math"
 
 	"sunstring/yield/finding"
@@ -11,9 +12,12 @@ import (
 // Summary is the summary.json document. Field names and meanings are the contract stated in
 // README.md (Outputs, summary.json).
 type Summary struct {
-	Site             SiteInfo    `json:"site"`
-	Modules          int         `json:"modules"`
-	DCkWp            float64     `json:"dc_kwp"`
+	Site    SiteInfo `json:"site"`
+	Modules int      `json:"modules"`
+	DCkWp   float64  `json:"dc_kwp"`
+	// Inverters is how many inverters share the modules; ACkW their AC power together.
+	Inverters        int         `json:"inverters"`
+	ACkW             float64     `json:"ac_kw"`
 	Climate          ClimateInfo `json:"climate"`
 	AnnualACkWh      float64     `json:"annual_ac_kwh"`
 	SpecificYield    float64     `json:"specific_yield_kwh_per_kwp"`
@@ -121,7 +125,9 @@ type Layout struct {
 	CableM        float64    `json:"cable_m"`
 	Strings       [][]string `json:"strings"`
 	Inputs        []int      `json:"inputs"` // inverter input (1-based) of each string
-	Note          string     `json:"note,omitempty"`
+	// Inverters is the inverter (1-based) of each string: Inputs count each inverter's own.
+	Inverters []int  `json:"inverters"`
+	Note      string `json:"note,omitempty"`
 	// EquivalentToBest reports whether the layout's energy lies within the equivalence
 	// margin of the best's.
 	EquivalentToBest bool `json:"equivalent_to_best"`
@@ -151,6 +157,8 @@ type ModuleResult struct {
 	SolarAccessPct   float64 `json:"solar_access_pct"`
 	SkyViewPct       float64 `json:"sky_view_pct"`
 	String           string  `json:"string,omitempty"`
+	// Inverter is the inverter (1-based) of String; absent when unconnected.
+	Inverter int `json:"inverter,omitempty"`
 }
 
 // Face is one roof face's summary.
@@ -317,4 +325,13 @@ type Override struct {
 	Key    string `json:"key"`    // the site file's key, e.g. "inverter.ac_power_w"
 	Value  string `json:"value"`  // as given
 	Source string `json:"source"` // "environment variable SUNSTRING_…" or "flag --…"
+}
+
+// InputLabel names input in of inverter inv (both 1-based) as the documents print it: "input
+// 2", or "inverter 1, input 2" when several inverters share the modules.
+func InputLabel(inverters, inv, in int) string {
+	if inverters > 1 {
+		return fmt.Sprintf("inverter %d, input %d", inv, in)
+	}
+	return fmt.Sprintf("input %d", in)
 }

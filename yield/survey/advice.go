@@ -63,7 +63,7 @@ func (p *Project) variants(base electric.Layout, order []int, shaded []int) []el
 		}
 		face[i] = faceNo[mod.Face]
 	}
-	if l, ok := layout.FaceOrder(order, face, p.Inverter.Inputs, p.bounds); ok {
+	if l, ok := layout.FaceOrder(order, face, p.inputs(), p.bounds); ok {
 		add(l)
 	}
 	// Fill base's string slots in a given order of modules.
@@ -196,7 +196,7 @@ func (p *Project) variants(base electric.Layout, order []int, shaded []int) []el
 	}
 	// Strings moved to other inputs: an input's parallel strings split onto free inputs, or
 	// two single strings of equal length joined on one input.
-	free := p.Inverter.Inputs - len(base.Inputs)
+	free := p.inputs() - countInputs(base)
 	for a, in := range base.Inputs {
 		if len(in) >= 2 && free > 0 {
 			l := cloneLayout(base)
@@ -224,11 +224,14 @@ func (p *Project) variants(base electric.Layout, order []int, shaded []int) []el
 // fits reports whether a layout keeps the string bounds.
 func (p *Project) fits(l electric.Layout) bool {
 	b := p.bounds
-	if len(l.Inputs) > p.Inverter.Inputs {
+	if countInputs(l) > p.inputs() {
 		return false
 	}
 	for _, in := range l.Inputs {
-		if len(in) == 0 || len(in) > b.MaxParallel {
+		if len(in) == 0 {
+			continue // an inverter's input left free (electric.Plant.Deal)
+		}
+		if len(in) > b.MaxParallel {
 			return false
 		}
 		for _, s := range in {

@@ -23,7 +23,7 @@ func exampleConfig() *survey.Config {
 	cfg.Module = survey.Module{PowerW: 410, VocV: 37.4, IscA: 13.9, VmpV: 31.3, ImpA: 13.1,
 		TempCoeffVocPct: -0.27, TempCoeffIscPct: 0.048, TempCoeffPmaxPct: -0.34, CellsSeries: 120, HalfCut: true, BypassDiodes: 3,
 		LengthM: 1.72, WidthM: 1.134, MaxSystemVoltage: 1000, Mounting: "rails"}
-	cfg.Inverter = survey.Inverter{ACPowerW: 6000, MaxDCVoltageV: 600, MPPTMinV: 90, MPPTMaxV: 560, Inputs: 2, MaxInputCurrentA: 16,
+	cfg.Inverter = survey.Inverter{Count: 1, ACPowerW: 6000, MaxDCVoltageV: 600, MPPTMinV: 90, MPPTMaxV: 560, Inputs: 2, MaxInputCurrentA: 16,
 		EfficiencyPct: []any{[]any{0.05, 92.0}, []any{0.1, 94.8}, []any{0.2, 96.4}, []any{0.3, 96.9}, []any{0.5, 97.2}, []any{1.0, 96.8}},
 		NightW:        1, Transformerless: true}
 	cfg.Fill.Orientation, cfg.Fill.SetbackM = "best", 0.4
@@ -35,7 +35,7 @@ func hallConfig(inputs int) *survey.Config {
 	cfg := exampleConfig()
 	lat, lon := roofgen.LatDeg, roofgen.LonDeg
 	cfg.Name, cfg.Latitude, cfg.Longitude = "Large hall roof (invented)", &lat, &lon
-	cfg.Inverter = survey.Inverter{ACPowerW: 150000, MaxDCVoltageV: 1000, MPPTMinV: 200, MPPTMaxV: 850, Inputs: float64(inputs),
+	cfg.Inverter = survey.Inverter{Count: 1, ACPowerW: 150000, MaxDCVoltageV: 1000, MPPTMinV: 200, MPPTMaxV: 850, Inputs: float64(inputs),
 		MaxInputCurrentA: 30, EfficiencyPct: []any{[]any{0.05, 93.0}, []any{0.1, 95.5}, []any{0.2, 97.0}, []any{0.3, 97.6}, []any{0.5, 98.0}, []any{1.0, 97.7}},
 		NightW: 5, Transformerless: true}
 	cfg.Fill.Orientation = "portrait"

@@ -22,6 +22,7 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 	if err != nil {
 		return nil, nil, err
 	}
+	seq = p.Plant().Deal(seq) // as the survey wires it
 	connected := 0
 	for _, ls := range lengths(seq) {
 		for _, n := range ls {
@@ -30,8 +31,8 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 	}
 	if connected < len(p.Modules) {
 		checks = append(checks, report.Check{Severity: "warning", Subject: "inverter", Unit: "modules", Value: float64(len(p.Modules)), Limit: float64(connected),
-			Message: fmt.Sprintf("the inverter takes at most %d of the %d placed modules (%s × %s × %s); the rest stay unconnected unless the inverter changes",
-				connected, len(p.Modules), report.Count(p.Inverter.Inputs, "input", "inputs"), report.Count(b.MaxParallel, "string", "strings"), report.Count(b.MaxSeries, "module", "modules"))})
+			Message: fmt.Sprintf("the inverter takes at most %d of the %d placed modules (%s × %s × %s); the rest stay unconnected unless the inverter or inverter.count changes",
+				connected, len(p.Modules), p.inputsText(), report.Count(b.MaxParallel, "string", "strings"), report.Count(b.MaxSeries, "module", "modules"))})
 	}
 	checks = append(checks, p.electricalChecks(roofOrderName, lengths(seq))...)
 	for i, fl := range cfg.Layouts.Fixed {
@@ -43,6 +44,6 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 		}
 		checks = append(checks, cs...)
 	}
-	checks = append(checks, p.leakageChecks(connected)...)
+	checks = append(checks, p.leakageChecks(seq)...)
 	return checks, bad, nil
 }

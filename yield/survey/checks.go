@@ -23,7 +23,27 @@ func (p *Project) hotCellC() float64 { return p.Mounting().HotCellC(p.Cfg.Climat
 // electricalChecks gives, for a layout's string lengths per inverter input, the numbers a
 // surveyor must see (open-circuit voltage at the coldest, MPP voltage at the hottest, input
 // current) and every limit broken, each in volts or amperes.
+//
+// lens are the plant's inputs in order, inverter by inverter (electric.Plant.Split): with
+// several inverters each is checked against its own limits and named in the subject.
 func (p *Project) electricalChecks(name string, lens [][]int) []report.Check {
+	per := p.Inverter.Inputs
+	if p.Inverters() == 1 || len(lens) <= per {
+		subject := name
+		if p.Inverters() > 1 {
+			subject += ", inverter 1"
+		}
+		return p.inverterChecks(subject, lens)
+	}
+	var out []report.Check
+	for k := 0; k*per < len(lens); k++ {
+		out = append(out, p.inverterChecks(fmt.Sprintf("%s, inverter %d", name, k+1), lens[k*per:min((k+1)*per, len(lens))])...)
+	}
+	return out
+}
+
+// inverterChecks is electricalChecks for one inverter's inputs.
+func (p *Project) inverterChecks(name string, lens [][]int) []report.Check {
 	ds, inv := p.Datasheet, p.Inverter
 	low, hot := p.Cfg.Climate.LowTempC, p.hotCellC()
 	var out []report.Check
@@ -57,18 +77,37 @@ func (p *Project) electricalChecks(name string, lens [][]int) []report.Check {
 }
 
 // leakageChecks is the capacitive leakage estimate for a transformerless inverter, over the
-// connected modules.
-func (p *Project) leakageChecks(connected int) []report.Check {
+// modules a layout (its inputs the plant's, in order) connects: with several inverters, each
+// inverter's own modules against its own residual-current monitoring.
+func (p *Project) leakageChecks(l electric.Layout) []report.Check {
 	var out []report.Check
 	inv := p.Inverter
-	if p.Cfg.Inverter.Transformerless && len(p.Modules) > 0 && connected > 0 {
+	if !p.Cfg.Inverter.Transformerless || len(p.Modules) == 0 {
+		return out
+	}
+	on := make([]int, p.Inverters())
+	plant := p.Plant()
+	for a, in := range l.Inputs {
+		k, _ := plant.Locate(a)
+		for _, s := range in {
+			on[k] += len(s)
+		}
+	}
+	for k, connected := range on {
+		if connected == 0 {
+			continue
+		}
+		subject := "array"
+		if len(on) > 1 {
+			subject = fmt.Sprintf("inverter %d", k+1)
+		}
 		area := float64(connected) * p.Modules[0].AreaM2()
 		if lr, err := electric.Leakage(area, electric.LeakageAssumptions{RatedKVA: inv.ACPowerW / 1000}); err == nil {
-			out = append(out, report.Check{Severity: "info", Subject: "array", Unit: "mA", Value: lr.WetmA, Limit: lr.ContinuousLimitmA,
+			out = append(out, report.Check{Severity: "info", Subject: subject, Unit: "mA", Value: lr.WetmA, Limit: lr.ContinuousLimitmA,
 				Message: fmt.Sprintf("capacitive leakage with a transformerless inverter: about %.0f mA dry, %.0f mA wet (%.0f / %.0f nF to earth; assumed 20 / 100 nF per m² of module and 115 V common-mode at 50 Hz)",
 					lr.DrymA, lr.WetmA, lr.CapDryNF, lr.CapWetNF)})
 			for _, f := range lr.Findings {
-				out = append(out, fromFinding("array", f))
+				out = append(out, fromFinding(subject, f))
 			}
 		}
 	}
@@ -84,7 +123,7 @@ func fromFinding(subject string, f electric.Finding) report.Check {
 		sev = "warning"
 	}
 	msg := f.Message
-	if f.Input >= 0 && subject != "array" {
+	if f.Input >= 0 && subject != "array" && !strings.HasPrefix(subject, "inverter ") {
 		subject = fmt.Sprintf("%s, input %d", subject, f.Input+1)
 		msg = strings.TrimPrefix(msg, fmt.Sprintf("input %d: ", f.Input+1))
 	}
@@ -108,4 +147,15 @@ func lengths(l electric.Layout) [][]int {
 		}
 	}
 	return out
+}
+
+// countInputs returns how many inputs of a layout have strings.
+func countInputs(l electric.Layout) int {
+	n := 0
+	for _, in := range l.Inputs {
+		if len(in) > 0 {
+			n++
+		}
+	}
+	return n
 }

@@ -84,9 +84,15 @@ type Module struct {
 	Mounting string `mapstructure:"mounting"`
 }
 
+// MaxInverters is the most inverters the site file may give (inverter.count): enough for a
+// large roof of a few hundred kilowatts with inverters of the usual sizes.
+const MaxInverters = 20
+
 // Inverter is the inverter datasheet. EfficiencyPct is a number (flat) or a list of
-// [load fraction, efficiency %] pairs.
+// [load fraction, efficiency %] pairs. Count inverters of this model share the modules (1 to
+// MaxInverters; Defaults gives 1).
 type Inverter struct {
+	Count            float64 `mapstructure:"count"`
 	ACPowerW         float64 `mapstructure:"ac_power_w"`
 	MaxDCVoltageV    float64 `mapstructure:"max_dc_voltage_v"`
 	MPPTMinV         float64 `mapstructure:"mppt_min_v"`
@@ -123,11 +129,14 @@ type Layouts struct {
 }
 
 // FixedLayout is a layout drawn by the user: strings of module ids, optionally assigned to
-// inverter inputs (1-based; 0 or missing spreads them over the inputs in order).
+// inverter inputs (1-based, each inverter's own; missing spreads them over the inputs in
+// order) and, with several inverters, to inverters (1-based; missing spreads them over the
+// inverters in turn, and then inputs must be missing too).
 type FixedLayout struct {
-	Name    string     `mapstructure:"name"`
-	Strings [][]string `mapstructure:"strings"`
-	Inputs  []float64  `mapstructure:"inputs"`
+	Name      string     `mapstructure:"name"`
+	Strings   [][]string `mapstructure:"strings"`
+	Inputs    []float64  `mapstructure:"inputs"`
+	Inverters []float64  `mapstructure:"inverters"`
 }
 
 // Losses are the usual flat loss factors, in percent.
@@ -310,6 +319,7 @@ func (s *Config) Validate() Errors {
 	if inv.MPPTMaxV > inv.MaxDCVoltageV && inv.MaxDCVoltageV > 0 {
 		bad("inverter.mppt_max_v", "%g must not exceed max_dc_voltage_v (%g)", inv.MPPTMaxV, inv.MaxDCVoltageV)
 	}
+	whole("inverter.count", inv.Count, 1, MaxInverters)
 	whole("inverter.inputs", inv.Inputs, 1, 12)
 	positive("inverter.max_input_current_a", inv.MaxInputCurrentA, " A")
 	rng("inverter.night_w", inv.NightW, 0, 100, " W")
@@ -352,6 +362,15 @@ func (s *Config) Validate() Errors {
 		}
 		for j, in := range fl.Inputs {
 			whole(fmt.Sprintf("%s.inputs[%d]", key, j), in, 1, inv.Inputs)
+		}
+		if len(fl.Inverters) != 0 && len(fl.Inverters) != len(fl.Strings) {
+			bad(key+".inverters", "has %d entries for %d strings; give one inverter (1-based) per string", len(fl.Inverters), len(fl.Strings))
+		}
+		for j, k := range fl.Inverters {
+			whole(fmt.Sprintf("%s.inverters[%d]", key, j), k, 1, max(inv.Count, 1))
+		}
+		if len(fl.Inputs) != 0 && len(fl.Inverters) == 0 && inv.Count > 1 {
+			bad(key+".inputs", "with inverter.count %g, say which inverter each string is on (inverters: [1, 2, …], one per string, beside inputs), or give neither to spread the strings over the inverters in turn", inv.Count)
 		}
 	}
 	l := s.Losses

@@ -54,9 +54,9 @@ func (p *Project) loadFindings(mapPath string, fitNotes, fillNotes []string) fin
 			LowTempC: cfg.Climate.LowTempC, HighTempC: cfg.Climate.HighTempC, MaxSystemVoltage: cfg.Module.MaxSystemVoltage,
 			Mounting: p.Mounting(),
 		}); err == nil {
-			n = min(n, p.Inverter.Inputs*b.MaxParallel*b.MaxSeries)
+			n = min(n, p.inputs()*b.MaxParallel*b.MaxSeries)
 		}
-		_, fs = plausible.DCAC(cfg.File+": inverter.ac_power_w", float64(n)*m.PowerW, cfg.Inverter.ACPowerW)
+		_, fs = plausible.DCAC(cfg.File+": inverter.ac_power_w", float64(n)*m.PowerW, float64(p.Inverters())*cfg.Inverter.ACPowerW)
 		out = append(out, fs...)
 	}
 	where := mapPath + " (the map's centre)"

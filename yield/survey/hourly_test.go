@@ -24,7 +24,7 @@ func exampleProject(t *testing.T) *survey.Project {
 	cfg.Module = survey.Module{PowerW: 410, VocV: 37.4, IscA: 13.9, VmpV: 31.3, ImpA: 13.1,
 		TempCoeffVocPct: -0.27, TempCoeffIscPct: 0.048, TempCoeffPmaxPct: -0.34,
 		CellsSeries: 120, HalfCut: true, BypassDiodes: 3, LengthM: 1.72, WidthM: 1.134, MaxSystemVoltage: 1000, Mounting: "rails"}
-	cfg.Inverter = survey.Inverter{ACPowerW: 6000, MaxDCVoltageV: 600, MPPTMinV: 90, MPPTMaxV: 560,
+	cfg.Inverter = survey.Inverter{Count: 1, ACPowerW: 6000, MaxDCVoltageV: 600, MPPTMinV: 90, MPPTMaxV: 560,
 		Inputs: 2, MaxInputCurrentA: 16, EfficiencyPct: 97.0}
 	cfg.Layouts.Search = false
 	if errs := cfg.Validate(); len(errs) > 0 {

@@ -9,7 +9,6 @@ import (
 	"sunstring/yield"
 	"sunstring/yield/electric"
 	"sunstring/yield/layout"
-	"sunstring/yield/report"
 )
 
 // layouts evaluates the roof-order layout, the user's fixed layouts and (when layouts.search
@@ -47,7 +46,14 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 	// The listed layouts share many strings (a variant changes a few of the best's), so their
 	// evaluations go through one cache.
 	cache := &electric.EvalCache{}
+	plant := p.Plant()
+	// eval ranks a layout. The user's fixed layouts say which inverter each string is on;
+	// every other layout's inputs are dealt to the inverters as the search's evaluator deals
+	// them (electric.Plant.Deal), so that the energy is the one the search ranked.
 	eval := func(name string, l electric.Layout, note string) error {
+		if !strings.HasPrefix(note, userNote) {
+			l = plant.Deal(l)
+		}
 		// A user's layout may repeat the roof order or another user's layout: it is still
 		// listed under its own name, and says so, so that two names for one wiring do not read
 		// as two choices.
@@ -62,6 +68,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 		}
 		rl := RankedLayout{Name: name, Result: r, Note: note, CableM: layout.ExtraCableM(l, pos, reach)}
 		for in, strs := range l.Inputs {
+			inv, at := plant.Locate(in)
 			for _, s := range strs {
 				s = layout.Chain(s, pos)
 				ids := make([]string, len(s))
@@ -69,7 +76,8 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 					ids[k] = p.Modules[i].ID
 				}
 				rl.Strings = append(rl.Strings, ids)
-				rl.Inputs = append(rl.Inputs, in+1)
+				rl.Inverters = append(rl.Inverters, inv+1)
+				rl.Inputs = append(rl.Inputs, at+1)
 			}
 		}
 		seen[layoutKey(l)] = true
@@ -119,7 +127,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 		}
 		res, err = layout.Search(ctx, layout.Problem{
 			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b, Faces: faces,
-			Inputs: p.Inverter.Inputs, Order: order, Starts: append([]electric.Layout{seq}, p.fixed...),
+			Inputs: p.inputs(), Order: order, Starts: append([]electric.Layout{seq}, p.fixed...),
 		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
 			CableWeightWh: weightWh, Keep: 40, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
 			Screen: layout.ModelScreen(m, electric.EvalOptions{}, screenStride), ScreenCost: screenStride, MaxEvals: searchBudget,
@@ -228,11 +236,11 @@ func (p *Project) roofOrder() (electric.Layout, string, error) {
 		}
 		face[i] = faceNo[mod.Face]
 	}
-	seq, onFaces := layout.FaceOrder(order, face, p.Inverter.Inputs, p.bounds)
+	seq, onFaces := layout.FaceOrder(order, face, p.inputs(), p.bounds)
 	if onFaces {
 		return seq, "modules wired in roof order (face, row, column), each string on one roof face", nil
 	}
-	seq, left, err := layout.Sequential(order, p.Inverter.Inputs, p.bounds)
+	seq, left, err := layout.Sequential(order, p.inputs(), p.bounds)
 	if err != nil {
 		return seq, "", badInput{fmt.Errorf("%s: %w", p.Cfg.File, err)}
 	}
@@ -264,14 +272,14 @@ func (p *Project) prepareLayouts() error {
 	// Some layout must take the modules (all of them, unless modules may be left out or the
 	// inverter cannot take them all), or the long run would end in nothing to report.
 	n := len(p.Modules)
-	capacity := p.Inverter.Inputs * b.MaxParallel * b.MaxSeries
+	capacity := p.inputs() * b.MaxParallel * b.MaxSeries
 	minMods := n
 	if cfg.Layouts.LeaveOut || capacity < n {
 		minMods = min(n, capacity) - n/4
 	}
-	if n > 0 && len(layout.Shapes(n, minMods, p.Inverter.Inputs, b)) == 0 {
-		return badInput{fmt.Errorf("%s: no string layout takes the %d modules: strings of %d to %d modules (from inverter.max_dc_voltage_v, inverter.mppt_min_v and inverter.mppt_max_v at climate.low_temp_c and climate.high_temp_c), at most %d in parallel (inverter.max_input_current_a), %s (inverter.inputs); change the inverter, or allow layouts.leave_out",
-			cfg.File, n, b.MinSeries, b.MaxSeries, b.MaxParallel, report.Count(p.Inverter.Inputs, "input", "inputs"))}
+	if n > 0 && len(layout.Shapes(n, minMods, p.inputs(), b)) == 0 {
+		return badInput{fmt.Errorf("%s: no string layout takes the %d modules: strings of %d to %d modules (from inverter.max_dc_voltage_v, inverter.mppt_min_v and inverter.mppt_max_v at climate.low_temp_c and climate.high_temp_c), at most %d in parallel (inverter.max_input_current_a), %s (inverter.count, inverter.inputs); change the inverter or their number, or allow layouts.leave_out",
+			cfg.File, n, b.MinSeries, b.MaxSeries, b.MaxParallel, p.inputsText())}
 	}
 	index := make(map[string]int, len(p.Modules))
 	for i, mod := range p.Modules {
@@ -280,7 +288,7 @@ func (p *Project) prepareLayouts() error {
 	var fixed []electric.Layout
 	var probs []string
 	for i, fl := range cfg.Layouts.Fixed {
-		l, err := fixedLayout(cfg.File, i, fl.Name, fl.Strings, fl.Inputs, index, p.Inverter.Inputs, b)
+		l, err := fixedLayout(cfg.File, i, fl, index, p.Inverters(), p.Inverter.Inputs, b)
 		if err != nil {
 			probs = append(probs, err.Error())
 			continue
@@ -294,19 +302,27 @@ func (p *Project) prepareLayouts() error {
 	return nil
 }
 
-// fixedLayout turns a user's layout of module ids into indices, and refuses one that breaks
-// a limit: a fixed layout is never silently changed or used out of bounds.
-func fixedLayout(file string, li int, name string, strs [][]string, inputs []float64, index map[string]int, nInputs int, b layout.Bounds) (electric.Layout, error) {
+// fixedLayout turns a user's layout of module ids into indices, its inputs the plant's in
+// order (inverter by inverter, electric.Plant.Split), and refuses one that breaks a limit: a
+// fixed layout is never silently changed or used out of bounds. Strings without inputs are
+// spread over the inverters in turn, then over each inverter's inputs.
+func fixedLayout(file string, li int, fl FixedLayout, index map[string]int, inverters, perInv int, b layout.Bounds) (electric.Layout, error) {
 	var probs []string
+	name, strs, inputs := fl.Name, fl.Strings, fl.Inputs
 	key := fmt.Sprintf("layouts.fixed[%d] (%q)", li, name)
 	used := map[string]string{}
+	nInputs := inverters * perInv
 	l := electric.Layout{Inputs: make([][][]int, nInputs)}
 	perInput := make([][]int, nInputs) // string lengths per input
 	for si, s := range strs {
-		in := si % nInputs
+		inv, in := si%inverters, (si/inverters)%perInv
+		if len(fl.Inverters) == len(strs) {
+			inv = int(fl.Inverters[si]) - 1
+		}
 		if len(inputs) == len(strs) {
 			in = int(inputs[si]) - 1
 		}
+		in += inv * perInv
 		var idx []int
 		for _, id := range s {
 			k, ok := index[id]
@@ -331,12 +347,16 @@ func fixedLayout(file string, li int, name string, strs [][]string, inputs []flo
 		}
 	}
 	for in, lens := range perInput {
+		where := fmt.Sprintf("input %d", in%perInv+1)
+		if inverters > 1 {
+			where = fmt.Sprintf("inverter %d, %s", in/perInv+1, where)
+		}
 		if len(lens) > b.MaxParallel {
-			probs = append(probs, fmt.Sprintf("%s: %s: input %d has %d strings in parallel; its current limit allows %d", file, key, in+1, len(lens), b.MaxParallel))
+			probs = append(probs, fmt.Sprintf("%s: %s: %s has %d strings in parallel; its current limit allows %d", file, key, where, len(lens), b.MaxParallel))
 		}
 		for _, n := range lens {
 			if n != lens[0] {
-				probs = append(probs, fmt.Sprintf("%s: %s: input %d has parallel strings of %v modules; strings in parallel must be of equal length", file, key, in+1, lens))
+				probs = append(probs, fmt.Sprintf("%s: %s: %s has parallel strings of %v modules; strings in parallel must be of equal length", file, key, where, lens))
 				break
 			}
 		}

@@ -46,6 +46,26 @@ type Project struct {
 	advice *report.LayoutAdvice
 }
 
+// Inverters returns how many inverters of the model share the modules (inverter.count).
+func (p *Project) Inverters() int { return max(int(p.Cfg.Inverter.Count), 1) }
+
+// Plant returns the inverters.
+func (p *Project) Plant() electric.Plant { return electric.Identical(p.Inverter, p.Inverters()) }
+
+// inputs returns how many inputs all the inverters have together: the layouts' inputs, the
+// first inverter's first (electric.Plant.Split).
+func (p *Project) inputs() int { return p.Inverters() * p.Inverter.Inputs }
+
+// inputsText says how many inputs the inverters have, as messages give it: "2 inputs", or
+// "2 inverters × 12 inputs".
+func (p *Project) inputsText() string {
+	in := report.Count(p.Inverter.Inputs, "input", "inputs")
+	if n := p.Inverters(); n > 1 {
+		return fmt.Sprintf("%d inverters × %s", n, in)
+	}
+	return in
+}
+
 // Load reads the map and (optionally) the horizon that a validated site file names, through
 // read, checks the module and the inverter, and places the modules. Every problem found is
 // reported, not just the first.

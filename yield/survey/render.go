@@ -75,6 +75,7 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 		}
 		if r.String != "" {
 			props["string"] = r.String
+			props["inverter"] = r.Inverter
 		}
 		if s.Climate.Source == "indicative" {
 			props["warning"] = IndicativeWarning
@@ -247,7 +248,7 @@ func (p *Project) plan(s *report.Summary, ls []RankedLayout) *report.Plan {
 			}
 			pl.Strings = append(pl.Strings, idx)
 		}
-		pl.Inputs = ls[0].Inputs
+		pl.Inputs, pl.Inverters, pl.InverterOf = ls[0].Inputs, p.Inverters(), ls[0].Inverters
 	}
 	return pl
 }
@@ -290,7 +291,7 @@ func (p *Project) equipment() report.Equipment {
 	return report.Equipment{
 		ModulePowerW: c.Module.PowerW, ModuleLengthM: c.Module.LengthM, ModuleWidthM: c.Module.WidthM,
 		CellsSeries: int(c.Module.CellsSeries), HalfCut: c.Module.HalfCut, BypassDiodes: int(c.Module.BypassDiodes),
-		InverterACW: c.Inverter.ACPowerW, InverterInputs: int(c.Inverter.Inputs), InverterMaxDCV: c.Inverter.MaxDCVoltageV,
+		Inverters: p.Inverters(), InverterACW: c.Inverter.ACPowerW, InverterInputs: int(c.Inverter.Inputs), InverterMaxDCV: c.Inverter.MaxDCVoltageV,
 		MPPTMinV: c.Inverter.MPPTMinV, MPPTMaxV: c.Inverter.MPPTMaxV,
 	}
 }
@@ -321,9 +322,16 @@ func hourlyTable(m *yield.Model, best RankedLayout) report.HourlyTable {
 	}
 	var strs [][]int
 	var used []int
+	plant := m.In.System.Plant()
 	for a, in := range best.Result.Layout.Inputs {
+		k, j := plant.Locate(a)
 		for b, str := range in {
-			t.Strings = append(t.Strings, fmt.Sprintf("%d.%d", a+1, b+1))
+			// "<input>.<string>", and "<inverter>.<input>.<string>" with several inverters.
+			label := fmt.Sprintf("%d.%d", j+1, b+1)
+			if len(plant) > 1 {
+				label = fmt.Sprintf("%d.%s", k+1, label)
+			}
+			t.Strings = append(t.Strings, label)
 			strs = append(strs, str)
 			used = append(used, str...)
 		}

@@ -63,7 +63,7 @@ func (p *Project) Run(ctx context.Context, opt Options) (*Result, error) {
 		Site: p.Site, Modules: p.Modules, Weather: ws, Observer: p.Observer, Zone: p.Cfg.Zone,
 		Horizon: p.Horizon, Progress: opt.Progress,
 		System: yield.System{
-			Module: p.Datasheet, Inverter: p.Inverter, Albedo: p.Cfg.Climate.Albedo, Sky: sky, IAM: iam,
+			Module: p.Datasheet, Inverter: p.Inverter, Inverters: p.Inverters(), Albedo: p.Cfg.Climate.Albedo, Sky: sky, IAM: iam,
 			Mounting: mounting,
 			Losses: yield.Losses{
 				SoilingPct: p.Cfg.Losses.SoilingPct, WiringPct: p.Cfg.Losses.WiringPct,

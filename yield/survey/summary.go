@@ -136,7 +136,7 @@ func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every 
 					}
 				}
 			}
-			l, left, err := layout.Sequential(order, p.Inverter.Inputs, p.bounds)
+			l, left, err := layout.Sequential(order, p.inputs(), p.bounds)
 			if err != nil || left > 0 || !p.fits(l) {
 				continue
 			}
@@ -214,15 +214,16 @@ func modulesOf(l electric.Layout) []int {
 	return out
 }
 
-// RankedLayout is one evaluated layout with its module ids: Strings[i] is wired to the
-// inverter input Inputs[i] (1-based).
+// RankedLayout is one evaluated layout with its module ids: Strings[i] is wired to input
+// Inputs[i] of inverter Inverters[i] (both 1-based).
 type RankedLayout struct {
-	Name    string
-	Strings [][]string
-	Inputs  []int
-	Result  yield.LayoutResult
-	CableM  float64
-	Note    string
+	Name      string
+	Strings   [][]string
+	Inputs    []int
+	Inverters []int
+	Result    yield.LayoutResult
+	CableM    float64
+	Note      string
 	// Equivalent reports whether the layout's energy is within EquivalenceMarginPct of the
 	// best's; Crossings counts the hops between roof faces along its strings.
 	Equivalent bool
@@ -270,6 +271,8 @@ func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *rep
 		Site:      report.SiteInfo{Name: p.Cfg.Name, Latitude: p.LatDeg, Longitude: p.LonDeg, Timezone: p.Cfg.Timezone},
 		Modules:   len(p.Modules),
 		DCkWp:     kwp,
+		Inverters: p.Inverters(),
+		ACkW:      float64(p.Inverters()) * p.Inverter.ACPowerW / 1000,
 		Climate:   report.ClimateInfo{Source: string(ws.Source), File: p.Cfg.Climate.File},
 		Models:    ModelSources(p.Cfg.Model.Sky, p.Cfg.Model.IAM, p.Mounting()),
 		Cautions:  report.Cautions,
@@ -295,6 +298,7 @@ func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *rep
 		}
 	}
 	stringOf := map[string]string{}
+	inverterOf := map[string]int{}
 	if len(ls) > 0 {
 		best := ls[0]
 		r := best.Result
@@ -304,7 +308,7 @@ func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *rep
 			connected += len(st)
 		}
 		if connected < len(p.Modules) {
-			found.Add(finding.Warning, "unconnected", p.Cfg.File+": inverter", "the best layout leaves %d of the %d placed modules unconnected; the figures are for the %d connected ones; choose an inverter with more inputs or a wider voltage window to connect them",
+			found.Add(finding.Warning, "unconnected", p.Cfg.File+": inverter", "the best layout leaves %d of the %d placed modules unconnected; the figures are for the %d connected ones; choose an inverter with more inputs or a wider voltage window, or more inverters (inverter.count), to connect them",
 				len(p.Modules)-connected, len(p.Modules), connected)
 			s.Modules = connected
 			kwp = float64(connected) * p.Datasheet.PowerW / 1000
@@ -328,13 +332,15 @@ func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *rep
 			sh.Parts = append(sh.Parts, report.ShadePart{Cause: part.Cause, KWh: part.KWh, Pct: part.Pct})
 		}
 		s.Shade = sh
-		s.Checks = append(p.electricalChecks(best.Name, lengths(best.Result.Layout)), p.leakageChecks(connected)...)
-		// "<input>.<string on that input>", both counted from 1.
-		nth := map[int]int{}
+		s.Checks = append(p.electricalChecks(best.Name, lengths(best.Result.Layout)), p.leakageChecks(best.Result.Layout)...)
+		// "<input>.<string on that input>", both counted from 1; the inverter beside it.
+		nth := map[[2]int]int{}
 		for i, st := range best.Strings {
-			nth[best.Inputs[i]]++
+			at := [2]int{best.Inverters[i], best.Inputs[i]}
+			nth[at]++
 			for _, id := range st {
-				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], nth[best.Inputs[i]])
+				stringOf[id] = fmt.Sprintf("%d.%d", best.Inputs[i], nth[at])
+				inverterOf[id] = best.Inverters[i]
 			}
 		}
 		// One reference for every layout's shade loss, so that the column agrees with the
@@ -348,7 +354,7 @@ func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *rep
 			s.Layouts = append(s.Layouts, report.Layout{
 				Name: l.Name, AnnualACkWh: l.Result.ACkWh, ShadeLossPct: loss,
 				BehindBestKWh: best.Result.ACkWh - l.Result.ACkWh, CableM: l.CableM,
-				Strings: l.Strings, Inputs: l.Inputs, Note: l.Note,
+				Strings: l.Strings, Inputs: l.Inputs, Inverters: l.Inverters, Note: l.Note,
 				EquivalentToBest: l.Equivalent, FaceCrossings: l.Crossings,
 			})
 		}
@@ -370,7 +376,7 @@ func (p *Project) summary(m *yield.Model, pf *Preflight, ls []RankedLayout) *rep
 		s.ModuleResults = append(s.ModuleResults, report.ModuleResult{
 			ID: mod.ID, Face: mod.Face, AnnualPOAkWhM2: st.POAKWhM2, ShadeLossPct: st.ShadeLossPct,
 			BeamShadeLossPct: st.BeamShadeLossPct, SolarAccessPct: 100 - st.ShadeLossPct, SkyViewPct: 100 * st.SkyView,
-			String: stringOf[mod.ID],
+			String: stringOf[mod.ID], Inverter: inverterOf[mod.ID],
 		})
 	}
 	return s
