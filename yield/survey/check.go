@@ -17,6 +17,13 @@ func (p *Project) Checks() (checks []report.Check, bad error, err error) {
 	checks = append(checks, report.Check{Severity: "info", Subject: "strings", Unit: "modules", Value: float64(b.MaxSeries), Limit: float64(b.MinSeries),
 		Message: fmt.Sprintf("%d to %d modules per string (open circuit %.2f V a module at %g °C; MPP %.2f V a module at %.0f °C cell); at most %s per input",
 			b.MinSeries, b.MaxSeries, b.VocColdV, cfg.Climate.LowTempC, b.VmpHotV, p.hotCellC(), report.Count(b.MaxParallel, "string", "strings"))})
+	inv := p.Inverter
+	msg := fmt.Sprintf("one inverter of %s W AC with %s", report.Thousands(inv.ACPowerW, 0), report.Count(inv.Inputs, "input", "inputs"))
+	if n := p.Inverters(); n > 1 {
+		msg = fmt.Sprintf("%d inverters of %s W AC each (%s W together), %s each: the strings share %d inputs, and each inverter clips at its own AC power",
+			n, report.Thousands(inv.ACPowerW, 0), report.Thousands(float64(n)*inv.ACPowerW, 0), report.Count(inv.Inputs, "input", "inputs"), p.inputs())
+	}
+	checks = append(checks, report.Check{Severity: "info", Subject: "inverters", Unit: "W", Value: float64(p.Inverters()) * inv.ACPowerW, Limit: inv.ACPowerW, Message: msg})
 	// The roof-order layout's strings, which a survey always reports.
 	seq, _, err := p.roofOrder()
 	if err != nil {

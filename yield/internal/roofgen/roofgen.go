@@ -150,13 +150,22 @@ func round(x float64, d int) float64 {
 type SiteOptions struct {
 	Map    string // the map's file name, relative to the site file
 	Inputs int    // inverter inputs; 0 means 10
+	// Inverters shares the 150 kW among that many identical inverters (inverter.count), each
+	// with Inputs inputs; 0 means one.
+	Inverters int
 }
 
-// Site returns a site file for the roof: the invented 410 W module of the example, a
-// 150 kW inverter with Inputs inputs taking two strings each (up to 23 modules a string).
+// Site returns a site file for the roof: the invented 410 W module of the example, 150 kW of
+// inverters with Inputs inputs each taking two strings (up to 23 modules a string).
 func Site(opt SiteOptions) []byte {
 	if opt.Inputs <= 0 {
 		opt.Inputs = 10
+	}
+	count := ""
+	acW := 150000
+	if opt.Inverters > 1 {
+		count = fmt.Sprintf("\n  count: %d", opt.Inverters)
+		acW /= opt.Inverters
 	}
 	if opt.Map == "" {
 		opt.Map = "roof.geojson"
@@ -189,8 +198,8 @@ module:
   bypass_diodes: 3
   length_m: %g
   width_m: %g
-inverter:
-  ac_power_w: 150000
+inverter:%s
+  ac_power_w: %d
   max_dc_voltage_v: 1000
   mppt_min_v: 200
   mppt_max_v: 850
@@ -205,7 +214,7 @@ fill:
 layouts:
   search: true
   keep: 5
-`, opt.Map, LatDeg, LonDeg, moduleL, moduleW, opt.Inputs, setbackM, gapM)
+`, opt.Map, LatDeg, LonDeg, moduleL, moduleW, count, acW, opt.Inputs, setbackM, gapM)
 	b.WriteString(`losses:
   soiling_pct: 2
   wiring_pct: 1

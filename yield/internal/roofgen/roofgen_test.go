@@ -49,6 +49,8 @@ func TestFixture(t *testing.T) {
 		"roof.geojson":        Map(Options{}),
 		"site.yaml":           Site(SiteOptions{}),
 		"site-12-inputs.yaml": Site(SiteOptions{Inputs: 12}),
+		// Two 75 kW inverters of six inputs: the roof needs more inputs than one takes.
+		"site-2-inverters.yaml": Site(SiteOptions{Inputs: 6, Inverters: 2}),
 	}
 	for name, want := range files {
 		path := filepath.Join(fixtureDir, name)
