@@ -2,7 +2,8 @@
 // single-diode curve fitted to its datasheet, cells and bypass diodes under
 // per-cell irradiance, modules in series, strings in parallel on MPPT
 // inputs, the inverter (window, current limit, efficiency, clipping, night
-// consumption), the annual engine that evaluates string layouts, and the
+// consumption), several inverters side by side (Plant, each clipping on its
+// own), the annual engine that evaluates string layouts, and the
 // string-sizing and leakage checks. It does no I/O and does not log.
 //
 // Published methods:
@@ -32,6 +33,10 @@
 //     Sandia report SAND2007-5036, as an option; otherwise a curve of
 //     efficiency against load. The report states the model within about
 //     0.1 % of measured efficiency over the inverter's operating range.
+//   - Several inverters: a layout's inputs are dealt to them by the
+//     largest-first rule for balancing loads, R. L. Graham (1969), "Bounds on
+//     multiprocessing timing anomalies", SIAM J. Appl. Math. 17(2):416–429
+//     (from memory); a heuristic, not an optimum.
 //   - String checks: the voltage window of IEC 62548-1 (N·Voc at the coldest
 //     temperature, N·Vmp at the hottest cell) and its 1.25·Isc factor
 //     (from memory); the residual-current limits of IEC 62109-2 for

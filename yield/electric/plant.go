@@ -124,13 +124,13 @@ func modules(l Layout) int {
 // Deal places a layout's inputs, in any order, on the plant's inverters so that each carries
 // as nearly the same number of modules per watt of AC power as whole inputs allow: the
 // inputs with the most modules first, each to the inverter least loaded so far that has an
-// input free (the first of equal ones). It returns the layout in the plant's order of inputs
-// (see Split), one entry per input of the plant, empty where no string is wired. The result
-// depends only on which strings share an input, not on the order of inputs, of strings or
-// of modules, so that a layout search may treat the plant's inputs as interchangeable. Balanced
-// inverters clip least on a roof of one orientation; the largest-first rule is the common
-// heuristic for balancing loads (Graham 1969, SIAM J. Appl. Math. 17(2), from memory). A plant of one
-// inverter, or a layout with more (non-empty) inputs than the plant, is returned as it is.
+// input free (the first of equal ones), the largest-first rule for balancing loads (Graham
+// 1969, SIAM J. Appl. Math. 17(2):416–429; from memory). Balanced inverters clip least on a
+// roof of one orientation. It returns the layout in the plant's order of inputs (see Split),
+// one entry per input of the plant, empty where no string is wired. The result depends only
+// on which strings share an input, not on the order of inputs, so that a layout search may
+// treat the plant's inputs as interchangeable. A plant of one inverter, or a layout with more
+// (non-empty) inputs than the plant, is returned as it is.
 func (p Plant) Deal(l Layout) Layout {
 	used := 0
 	for _, in := range l.Inputs {

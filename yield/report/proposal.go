@@ -152,6 +152,15 @@ func ModulesText(s *Summary) string {
 	return fmt.Sprintf("%d connected of %d placed", s.Modules, p)
 }
 
+// sizeText is the system size's unit line: the modules, and with several inverters their
+// number and AC power together.
+func sizeText(s *Summary) string {
+	if s.Inverters > 1 {
+		return fmt.Sprintf("%s on %d inverters, %s kW AC", ModulesText(s), s.Inverters, Thousands(s.ACkW, 0))
+	}
+	return ModulesText(s)
+}
+
 // mostShaded returns the connected modules (all, without a layout), most shaded first;
 // ties keep the module order.
 func mostShaded(s *Summary) []ModuleResult {
@@ -211,7 +220,7 @@ func (pr *Proposal) PDF() ([]byte, error) {
 	}
 	d.figures([]figure{
 		{"Energy a year", Thousands(s.AnnualACkWh, 0), "kWh of AC"},
-		{"System size", Thousands(s.DCkWp, 2) + " kWp", ModulesText(s)},
+		{"System size", Thousands(s.DCkWp, 2) + " kWp", sizeText(s)},
 		{"Per kWp", Thousands(s.SpecificYield, 0), "kWh a year per kWp"},
 		{"Shade costs", shade, shadeUnit},
 	})

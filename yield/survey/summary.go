@@ -140,7 +140,7 @@ func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every 
 			if err != nil || left > 0 || !p.fits(l) {
 				continue
 			}
-			rest = l
+			rest = p.Plant().Deal(l) // as the layouts are dealt to the inverters
 		}
 		wh, err := m.EvaluateACWhCached(rest, electric.EvalOptions{ConvertersOn: conv, ModuleLevelEff: moduleConverterEff}, cache)
 		if err != nil {

@@ -105,7 +105,11 @@ Estimates only: local codes and a licensed installer have the final word.`,
 			fmt.Fprintln(w, survey.IndicativeWarning)
 		}
 		// connected and placed, as the documents count them
-		fmt.Fprintf(w, "%s: %s, %.2f kWp\n", p.Cfg.Name, report.ModulesText(best), best.DCkWp)
+		fmt.Fprintf(w, "%s: %s, %.2f kWp", p.Cfg.Name, report.ModulesText(best), best.DCkWp)
+		if best.Inverters > 1 {
+			fmt.Fprintf(w, " on %d inverters, %s kW AC", best.Inverters, report.Thousands(best.ACkW, 0))
+		}
+		fmt.Fprintln(w)
 		fmt.Fprintf(w, "annual AC energy %s kWh, specific yield %s kWh/kWp, performance ratio %.2f\n",
 			report.Thousands(best.AnnualACkWh, 0), report.Thousands(best.SpecificYield, 0), best.PerformanceRatio)
 		if len(best.Layouts) > 0 {
