@@ -101,10 +101,26 @@ func TestSurveyExampleContract(t *testing.T) {
 		t.Fatal(err)
 	}
 	// Every key of the summary.json contract in README.md (Outputs).
-	for _, k := range []string{"site", "modules", "dc_kwp", "climate", "annual_ac_kwh", "specific_yield_kwh_per_kwp",
+	for _, k := range []string{"site", "modules", "dc_kwp", "inverters", "ac_kw", "climate", "annual_ac_kwh", "specific_yield_kwh_per_kwp",
 		"performance_ratio", "monthly_ac_kwh", "losses", "layouts", "module_results", "warnings"} {
 		if _, ok := s[k]; !ok {
 			t.Errorf("summary.json lacks %q", k)
+		}
+	}
+	// One inverter of 6 kW (examples/sample-house/site.yaml); every string on it.
+	if s["inverters"] != 1.0 || s["ac_kw"] != 6.0 {
+		t.Errorf("inverters %v, ac_kw %v: want 1 and 6", s["inverters"], s["ac_kw"])
+	}
+	for _, x := range s["layouts"].([]any) {
+		l := x.(map[string]any)
+		strs, invs := l["strings"].([]any), l["inverters"].([]any)
+		if len(invs) != len(strs) {
+			t.Errorf("layout %v: %d inverters for %d strings", l["name"], len(invs), len(strs))
+		}
+		for _, k := range invs {
+			if k != 1.0 {
+				t.Errorf("layout %v: a string on inverter %v of one", l["name"], k)
+			}
 		}
 	}
 	site := s["site"].(map[string]any)
