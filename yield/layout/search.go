@@ -193,12 +193,19 @@ type level struct {
 
 // levels lists the searches to run, narrowest first, ending with the one asked for: every
 // level but the last is exactly the search the next one would run first on its own. The
-// narrowest uses the fewest inputs that take the modules without leaving any out.
+// narrowest uses the fewest inputs that take the modules without leaving any out, each next
+// one twice as many, so that several inverters' many inputs cost a few levels, not one level
+// an input; none uses more inputs than the modules can make strings (no layout could use
+// them).
 func (s *searcher) levels(inputs int, leaveOut bool) []level {
 	var out []level
-	for k := 1; k < inputs; k++ {
+	most := s.n / max(s.p.Bounds.MinSeries, 1)
+	for k := 1; k < inputs && k <= most; k++ {
 		if AnyShape(s.n, s.n, k, s.p.Bounds) {
-			out = append(out, level{k, false})
+			for ; k < inputs && k <= most; k *= 2 {
+				out = append(out, level{k, false})
+			}
+			break
 		}
 	}
 	if len(shapesForInputs(s.p, s.n, false, inputs)) > 0 {
