@@ -175,7 +175,7 @@ func (p *Project) variants(base electric.Layout, order []int, shaded []int) []el
 				continue
 			}
 			l, ok := ownString(base, order, row, conn)
-			if !ok && p.Inverter.Inputs >= 2 {
+			if !ok && p.inputs() >= 2 {
 				// No slot of the row's length: the row on an input of its own, the other
 				// modules over the other inputs.
 				var rest []int
@@ -184,7 +184,7 @@ func (p *Project) variants(base electric.Layout, order []int, shaded []int) []el
 						rest = append(rest, k)
 					}
 				}
-				if r, left, err := layout.Sequential(rest, p.Inverter.Inputs-1, p.bounds); err == nil && left == 0 {
+				if r, left, err := layout.Sequential(rest, p.inputs()-1, p.bounds); err == nil && left == 0 {
 					l, ok = electric.Layout{Inputs: append(r.Inputs, [][]int{slices.Clone(row)})}, true
 				}
 			}
