@@ -28,7 +28,7 @@ type Problem struct {
 	// zero means 1.8 m, about a module's length (common practice).
 	ReachM float64
 	Bounds Bounds
-	Inputs int // inverter inputs (identical)
+	Inputs int // inverter inputs (identical); with several inverters, all of theirs together
 	// Faces label each module's roof face (optional, any integers): modules on different
 	// faces are never taken as alike, since their orientations differ.
 	Faces []int

@@ -61,7 +61,7 @@ func TestSurveyProgress(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, st := range []string{"shading", "module curves", "unshaded reference"} {
+	for _, st := range []string{"shading", "module curves", "unshaded reference", survey.AlternativesStage} {
 		run.check(t, st)
 	}
 	// The search counts whole-year evaluations, and screens on every fourth step at a quarter

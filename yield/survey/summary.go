@@ -28,6 +28,9 @@ func (p *Project) Faces() []report.Face {
 	return out
 }
 
+// AlternativesStage names the alternatives' evaluations in Options.Progress.
+const AlternativesStage = "alternatives"
+
 // moduleConverterEff is the efficiency assumed for module-level DC converters (common
 // practice: 98–99 % for current products' weighted efficiency).
 const moduleConverterEff = 0.985
@@ -52,6 +55,16 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 	}
 	var out []report.Alternative
 	var every float64
+	// Progress counts evaluations: the two alternatives, then at most one for each set of
+	// converters someConverters tries; the total shrinks to what was done when it stops early.
+	done, total := 0, 2+min(12, max(len(modulesOf(best.Layout))-1, 0))
+	tell := func(n int) {
+		done += n
+		if m.In.Progress != nil {
+			m.In.Progress(AlternativesStage, done, total)
+		}
+	}
+	tell(0)
 	alts := []struct {
 		name, note string
 		opt        electric.EvalOptions
@@ -76,6 +89,7 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 	if err := errors.Join(errs...); err != nil {
 		return nil, err
 	}
+	tell(len(alts))
 	for i, a := range alts {
 		ac := wh[i] / 1000
 		alt := report.Alternative{Name: a.name, AnnualACkWh: ac, DifferenceKWh: ac - best.ACkWh, Note: a.note}
@@ -85,10 +99,12 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 		}
 		out = append(out, alt)
 	}
-	part, err := p.someConverters(m, best, every)
+	part, err := p.someConverters(m, best, every, func() { tell(1) })
 	if err != nil {
 		return nil, err
 	}
+	total = done
+	tell(0)
 	if part != nil {
 		out = append(out, *part)
 	}
@@ -103,7 +119,8 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 // the best layout on plain strings (the converters' modules taken out of their strings, or
 // the rest rewired in the same order when that breaks the string bounds). Nil when
 // converters everywhere gain nothing or no set of up to 12 modules keeps valid strings.
-func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every float64) (*report.Alternative, error) {
+// evaluated is told after each evaluation.
+func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every float64, evaluated func()) (*report.Alternative, error) {
 	if every <= 0 {
 		return nil, nil
 	}
@@ -146,6 +163,7 @@ func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every 
 		if err != nil {
 			return nil, fmt.Errorf("alternative: converters on %d modules: %w", k, err)
 		}
+		evaluated()
 		ac := wh / 1000
 		gain := ac - best.ACkWh
 		names := make([]string, k)
