@@ -66,18 +66,25 @@ func ShadeFeatures(m *yield.Model) [][]float64 {
 // electric.Plant.Deal before it is evaluated, and each inverter clips at its own AC limit.
 // A caller reports a found layout dealt the same way.
 func ModelEvaluator(m *yield.Model, opt electric.EvalOptions) Evaluator {
-	c := &electric.EvalCache{}
+	return ModelEvaluatorCached(m, opt, &electric.EvalCache{})
+}
+
+// ModelEvaluatorCached is ModelEvaluator through the caller's cache, which may serve other
+// evaluators too (its entries are told apart by year, inverter and options): one cache for a
+// whole survey bounds the memory the caches take together.
+func ModelEvaluatorCached(m *yield.Model, opt electric.EvalOptions, c *electric.EvalCache) Evaluator {
 	plant := m.In.System.Plant()
 	return func(l electric.Layout) (float64, error) {
 		return m.EvaluateACWhCached(plant.Deal(l), opt, c)
 	}
 }
 
-// ModelScreen is ModelEvaluator on every k-th step of the model's year (electric.Year.Thin):
-// an estimate of the same energy at about 1/k of the cost, for Options.Screen.
-func ModelScreen(m *yield.Model, opt electric.EvalOptions, k int) Evaluator {
+// ModelScreen is ModelEvaluatorCached on every k-th step of the model's year
+// (electric.Year.Thin): an estimate of the same energy at about 1/k of the cost, for
+// Options.Screen.
+func ModelScreen(m *yield.Model, opt electric.EvalOptions, k int, c *electric.EvalCache) Evaluator {
 	mt := *m
 	mt.Year = m.Year.Thin(k)
 	mt.YearUnshaded = nil
-	return ModelEvaluator(&mt, opt)
+	return ModelEvaluatorCached(&mt, opt, c)
 }

@@ -45,7 +45,7 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 	names := map[string]bool{}
 	// The listed layouts share many strings (a variant changes a few of the best's), so their
 	// evaluations go through one cache.
-	cache := &electric.EvalCache{}
+	cache := p.evalCache()
 	plant := p.Plant()
 	// eval ranks a layout. The user's fixed layouts say which inverter each string is on;
 	// every other layout's inputs are dealt to the inverters as the search's evaluator deals
@@ -128,9 +128,9 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 		res, err = layout.Search(ctx, layout.Problem{
 			Features: layout.ShadeFeatures(m), Positions: pos, ReachM: reach, Bounds: b, Faces: faces,
 			Inputs: p.inputs(), Order: order, Starts: append([]electric.Layout{seq}, p.fixed...),
-		}, layout.ModelEvaluator(m, electric.EvalOptions{}), layout.Options{
+		}, layout.ModelEvaluatorCached(m, electric.EvalOptions{}, cache), layout.Options{
 			CableWeightWh: weightWh, Keep: 40, Progress: prog, LeaveOut: cfg.Layouts.LeaveOut,
-			Screen: layout.ModelScreen(m, electric.EvalOptions{}, screenStride), ScreenCost: screenStride, MaxEvals: searchBudget,
+			Screen: layout.ModelScreen(m, electric.EvalOptions{}, screenStride, cache), ScreenCost: screenStride, MaxEvals: searchBudget,
 		})
 		if err != nil {
 			return nil, fmt.Errorf("layout search: %w", err)

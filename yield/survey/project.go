@@ -44,6 +44,18 @@ type Project struct {
 	read     ReadFunc
 	// Set by layouts: which layout to wire and why.
 	advice *report.LayoutAdvice
+	// cache serves every layout evaluation of a run (the search, its screen, the listed
+	// layouts, the alternatives), so that the memory the kept inputs and strings take is
+	// bounded once for the run.
+	cache *electric.EvalCache
+}
+
+// evalCache returns the run's evaluation cache.
+func (p *Project) evalCache() *electric.EvalCache {
+	if p.cache == nil {
+		p.cache = &electric.EvalCache{}
+	}
+	return p.cache
 }
 
 // Inverters returns how many inverters of the model share the modules (inverter.count).

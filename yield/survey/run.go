@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"sunstring/yield"
+	"sunstring/yield/electric"
 	"sunstring/yield/irradiance"
 	"sunstring/yield/report"
 	"sunstring/yield/weather"
@@ -45,6 +46,9 @@ func (p *Project) Run(ctx context.Context, opt Options) (*Result, error) {
 	if err := p.prepareLayouts(); err != nil {
 		return nil, err
 	}
+	// One cache for the run's evaluations, let go before the report is drawn.
+	p.cache = &electric.EvalCache{}
+	defer func() { p.cache = nil }()
 	pf, err := p.Preflight()
 	if err != nil {
 		return nil, err

@@ -130,7 +130,7 @@ func (p *Project) someConverters(m *yield.Model, best yield.LayoutResult, every 
 	var found *report.Alternative
 	// Each set adds one module to the last: the strings it changes are read from the last
 	// set's through the cache, the others not computed again.
-	cache := &electric.EvalCache{}
+	cache := p.evalCache()
 	for k := 1; k <= min(12, len(idx)-1); k++ {
 		conv := slices.Clone(idx[:k])
 		if m.Stats[conv[k-1]].ShadeLossPct <= 0 {
