@@ -537,12 +537,33 @@ func (p *Project) reason(m *yield.Model, ls []RankedLayout, chosen int, shaded [
 		}
 	}
 	if len(eq) > 0 {
-		fmt.Fprintf(&b, " It and %s are within %.1f %% of the best, closer than the model tells layouts apart; %q is the easiest to wire (%d face crossings, %.1f m of extra cable).",
-			joinWords(eq), EquivalenceMarginPct, ch.Name, ch.Crossings, ch.CableM)
+		fmt.Fprintf(&b, " %q and %s are within %.1f %% of the best, closer than the model tells layouts apart; %q is the easiest to wire (%d face crossings, %.1f m of extra cable).",
+			ch.Name, joinWords(eq), EquivalenceMarginPct, ch.Name, ch.Crossings, ch.CableM)
 	} else {
 		fmt.Fprintf(&b, " No other layout comes within %.1f %% of it.", EquivalenceMarginPct)
 	}
+	b.WriteString(cableNote(ls, chosen))
 	return b.String()
+}
+
+// cableNote says, when the chosen layout needs much more string cable than the plain roof
+// order (more than 20 m and half as much again), what the extra energy costs in cable, so
+// that a surveyor weighs it: grouping alike-shaded modules across a large roof can gain a
+// percent or two for hundreds of metres of cable, which the energy alone does not show.
+func cableNote(ls []RankedLayout, chosen int) string {
+	ch := ls[chosen]
+	for _, l := range ls {
+		if l.Name != roofOrderName {
+			continue
+		}
+		extra := ch.CableM - l.CableM
+		if extra <= 20 || ch.CableM <= 1.5*l.CableM {
+			return ""
+		}
+		return fmt.Sprintf(" It needs about %s m more string cable than %q for %s kWh a year more; where the cable and its laying cost more than that energy is worth, wire %q or weigh the cable in the ranking (layouts.cable_weight_kwh_per_m).",
+			report.Thousands(extra, 0), roofOrderName, report.Thousands(ch.Result.ACkWh-l.Result.ACkWh, 0), roofOrderName)
+	}
+	return ""
 }
 
 // when says in which months and at which time of day the shade falls on the modules, from
