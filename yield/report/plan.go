@@ -902,6 +902,14 @@ func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 				inv = pl.InverterOf[k]
 			}
 			name = fmt.Sprintf("string %d, %s: %s", k+1, InputLabel(pl.Inverters, inv, pl.Inputs[k]), Count(len(path), "module", "modules"))
+			if pl.Inverters > 1 {
+				// "inverter 2, input 6" makes the legend wider than the room kept for it:
+				// inputs are written inverter.input, as the legend's first line says.
+				name = fmt.Sprintf("string %d, input %d.%d: %s", k+1, inv, pl.Inputs[k], Count(len(path), "module", "modules"))
+			}
+		}
+		if k == 0 && pl.Inverters > 1 {
+			p.Legend.Add("input: inverter.input")
 		}
 		p.Legend.Add(name, ln)
 	}
