@@ -92,13 +92,17 @@ func BenchmarkSurvey(b *testing.B) {
 }
 
 // BenchmarkSurveyGrowth is the whole survey of hall roofs of about 120 to 1,000 modules (the
-// same density of rooftop units), with an inverter of as many inputs as two strings of up to
-// 23 modules an input need.
+// same density of rooftop units), with as many inputs as two strings of up to 23 modules an
+// input need: one inverter of up to 12 inputs, else several alike (inverter.count) that share
+// the inputs and the AC power.
 func BenchmarkSurveyGrowth(b *testing.B) {
 	for _, n := range []int{120, 250, 430, 700, 1000} {
 		b.Run(fmt.Sprintf("modules=%d", n), func(b *testing.B) {
-			cfg := hallConfig(min(12, (n+45)/46))
-			cfg.Inverter.ACPowerW = 410 * float64(n) * 0.85
+			need := (n + 45) / 46
+			count := (need + 11) / 12
+			cfg := hallConfig((need + count - 1) / count)
+			cfg.Inverter.Count = float64(count)
+			cfg.Inverter.ACPowerW = 410 * float64(n) * 0.85 / float64(count)
 			benchSurvey(b, cfg, roofgen.Map(roofgen.Options{Modules: n}))
 		})
 	}
