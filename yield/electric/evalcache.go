@@ -452,11 +452,7 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
 		} else {
 			var pr []curveCount
 			for s := range y.steps {
-				off, np := int(y.gridOff[s]), int(y.gridOff[s+1]-y.gridOff[s])
-				pr = y.appendPairs(pr[:0], s*y.n, sy.mods)
-				for _, p := range pr {
-					addCurve(v[off:off+np], y.curve(p.c, np), int64(p.n))
-				}
+				pr = y.addString(v[y.gridOff[s]:y.gridOff[s+1]], s*y.n, sy.mods, pr)
 			}
 		}
 		sy.v = v

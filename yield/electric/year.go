@@ -674,11 +674,8 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 			}
 			continue
 		}
-		sc.pairs[b] = y.appendPairs(sc.pairs[b][:0], row, str)
 		clear(isum)
-		for _, p := range sc.pairs[b] {
-			addCurve(isum, y.curve(p.c, np), int64(p.n))
-		}
+		sc.pairs[b] = y.addString(isum, row, str, sc.pairs[b])
 	}
 	same := true
 	for b := 1; b < ns && same; b++ {
@@ -724,6 +721,17 @@ modules:
 		pr = append(pr, curveCount{c, 1})
 	}
 	slices.SortFunc(pr, func(a, b curveCount) int { return int(a.c - b.c) })
+	return pr
+}
+
+// addString adds the string's modules' curves at the step starting at row to sum (the step's
+// grid), each distinct curve once times the modules that have it; pr is scratch space, returned
+// for reuse.
+func (y *Year) addString(sum []int64, row int, str []int, pr []curveCount) []curveCount {
+	pr = y.appendPairs(pr[:0], row, str)
+	for _, p := range pr {
+		addCurve(sum, y.curve(p.c, len(sum)), int64(p.n))
+	}
 	return pr
 }
 

@@ -225,21 +225,28 @@ func (s *searcher) sorted() []state {
 	return all
 }
 
+// unseen puts the states in canonical form and returns those not yet known (seen) and not
+// repeated in the batch, each once.
+func unseen(sts []*state, seen func(key string) bool) []*state {
+	var todo []*state
+	inBatch := map[string]bool{}
+	for _, st := range sts {
+		st.canon()
+		if !seen(st.key) && !inBatch[st.key] {
+			inBatch[st.key] = true
+			todo = append(todo, st)
+		}
+	}
+	return todo
+}
+
 // scoreAll evaluates states concurrently, through the cache; new ones count against the
 // budget.
 func (s *searcher) scoreAll(sts []*state) error {
 	if err := s.ctx.Err(); err != nil {
 		return err
 	}
-	var todo []*state
-	inBatch := map[string]bool{}
-	for _, st := range sts {
-		st.canon()
-		if _, ok := s.cache[st.key]; !ok && !inBatch[st.key] {
-			inBatch[st.key] = true
-			todo = append(todo, st)
-		}
-	}
+	todo := unseen(sts, func(key string) bool { _, ok := s.cache[key]; return ok })
 	if err := s.runAll(len(todo), func(i int) error {
 		st := todo[i]
 		e, err := s.eval(st.layout)
@@ -304,15 +311,7 @@ func (s *searcher) screenStarts(starts []state) ([]state, error) {
 // screenAll scores states with the screen concurrently, through its own cache; new ones count
 // against the budget at 1/ScreenCost of an evaluation.
 func (s *searcher) screenAll(sts []*state) error {
-	var todo []*state
-	inBatch := map[string]bool{}
-	for _, st := range sts {
-		st.canon()
-		if _, ok := s.screened[st.key]; !ok && !inBatch[st.key] {
-			inBatch[st.key] = true
-			todo = append(todo, st)
-		}
-	}
+	todo := unseen(sts, func(key string) bool { _, ok := s.screened[key]; return ok })
 	vals := make([]float64, len(todo))
 	if err := s.runAll(len(todo), func(i int) error {
 		e, err := s.opt.Screen(todo[i].layout)
