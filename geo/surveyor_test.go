@@ -12,29 +12,35 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
+// testRing writes points (east and north, metres, from 47.05° N, 15.43° E) as a closed GeoJSON
+// polygon ring.
+func testRing(pts ...[2]float64) string {
+	const lat0, lon0 = 47.05, 15.43
+	mLat := 1 / 111195.0
+	mLon := mLat / math.Cos(lat0*math.Pi/180)
+	var parts []string
+	for _, p := range append(pts, pts[0]) {
+		parts = append(parts, fmt.Sprintf("[%.9f,%.9f]", lon0+p[0]*mLon, lat0+p[1]*mLat))
+	}
+	return "[[" + strings.Join(parts, ",") + "]]"
+}
+
+// testFeature is a GeoJSON polygon feature of the ring geom with the properties props (JSON
+// members without braces).
+func testFeature(geom, props string) string {
+	return `{"type":"Feature","geometry":{"type":"Polygon","coordinates":` + geom + `},"properties":{` + props + `}}`
+}
+
 // houseMap is an invented gable house at 47.05° N, 15.43° E: faces "S" and "N", 10 × 4 m in
 // plan, pitch 35°, eaves at 6 m; extraS and extraBlock are added to the south face's and the
 // chimney's properties (the chimney stands 2.5–3.1 m up the south slope).
 func houseMap(extraS, extraBlock string) string {
-	const lat0, lon0 = 47.05, 15.43
-	mLat := 1 / 111195.0
-	mLon := mLat / math.Cos(lat0*math.Pi/180)
-	ring := func(pts ...[2]float64) string {
-		var parts []string
-		for _, p := range append(pts, pts[0]) {
-			parts = append(parts, fmt.Sprintf("[%.8f,%.8f]", lon0+p[0]*mLon, lat0+p[1]*mLat))
-		}
-		return "[[" + strings.Join(parts, ",") + "]]"
-	}
-	feat := func(geom, props string) string {
-		return `{"type":"Feature","geometry":{"type":"Polygon","coordinates":` + geom + `},"properties":{` + props + `}}`
-	}
 	return `{"type":"FeatureCollection","features":[` +
-		feat(ring([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 4}, [2]float64{0, 4}),
+		testFeature(testRing([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 4}, [2]float64{0, 4}),
 			`"kind":"roof","id":"S","pitch_deg":35,"aspect_deg":180,"eave_height_m":6`+extraS) + "," +
-		feat(ring([2]float64{0, 4}, [2]float64{10, 4}, [2]float64{10, 8}, [2]float64{0, 8}),
+		testFeature(testRing([2]float64{0, 4}, [2]float64{10, 4}, [2]float64{10, 8}, [2]float64{0, 8}),
 			`"kind":"roof","id":"N","pitch_deg":35,"aspect_deg":0,"eave_height_m":6`) + "," +
-		feat(ring([2]float64{6, 2.5}, [2]float64{6.6, 2.5}, [2]float64{6.6, 3.1}, [2]float64{6, 3.1}),
+		testFeature(testRing([2]float64{6, 2.5}, [2]float64{6.6, 2.5}, [2]float64{6.6, 3.1}, [2]float64{6, 3.1}),
 			`"kind":"block","id":"C1"`+extraBlock) + `]}`
 }
 
@@ -112,29 +118,16 @@ func TestHeightAboveRoof(t *testing.T) {
 // south face, and two hand-drawn panels on the north face shifted by gap metres apart
 // (negative: overlapping).
 func overlapMap(depth, gap float64) string {
-	const lat0, lon0 = 47.05, 15.43
-	mLat := 1 / 111195.0
-	mLon := mLat / math.Cos(lat0*math.Pi/180)
-	ring := func(pts ...[2]float64) string {
-		var parts []string
-		for _, p := range append(pts, pts[0]) {
-			parts = append(parts, fmt.Sprintf("[%.8f,%.8f]", lon0+p[0]*mLon, lat0+p[1]*mLat))
-		}
-		return "[[" + strings.Join(parts, ",") + "]]"
-	}
-	feat := func(geom, props string) string {
-		return `{"type":"Feature","geometry":{"type":"Polygon","coordinates":` + geom + `},"properties":{` + props + `}}`
-	}
 	y0 := 4 - depth
 	x1 := 1 + 1.134 + gap
 	return `{"type":"FeatureCollection","features":[` +
-		feat(ring([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 4}, [2]float64{0, 4}),
+		testFeature(testRing([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 4}, [2]float64{0, 4}),
 			`"kind":"roof","id":"S","pitch_deg":35,"aspect_deg":180,"eave_height_m":6`) + "," +
-		feat(ring([2]float64{0, y0}, [2]float64{10, y0}, [2]float64{10, 8}, [2]float64{0, 8}),
+		testFeature(testRing([2]float64{0, y0}, [2]float64{10, y0}, [2]float64{10, 8}, [2]float64{0, 8}),
 			`"kind":"roof","id":"N","pitch_deg":35,"aspect_deg":0,"eave_height_m":6`) + "," +
-		feat(ring([2]float64{1, 5}, [2]float64{1 + 1.134, 5}, [2]float64{1 + 1.134, 6.4}, [2]float64{1, 6.4}),
+		testFeature(testRing([2]float64{1, 5}, [2]float64{1 + 1.134, 5}, [2]float64{1 + 1.134, 6.4}, [2]float64{1, 6.4}),
 			`"kind":"panel","id":"P1"`) + "," +
-		feat(ring([2]float64{x1, 5}, [2]float64{x1 + 1.134, 5}, [2]float64{x1 + 1.134, 6.4}, [2]float64{x1, 6.4}),
+		testFeature(testRing([2]float64{x1, 5}, [2]float64{x1 + 1.134, 5}, [2]float64{x1 + 1.134, 6.4}, [2]float64{x1, 6.4}),
 			`"kind":"panel","id":"P2"`) + `]}`
 }
 
@@ -273,24 +266,11 @@ func TestTrimFaceOverlaps(t *testing.T) {
 // gableMap is a gable roof 10 m long: the south face 4 m deep (y 0 … 4), the north face
 // drawn from 4 − depth to 8.25 m north, so depth metres over the south face.
 func gableMap(depth float64) string {
-	const lat0, lon0 = 47.05, 15.43
-	mLat := 1 / 111195.0
-	mLon := mLat / math.Cos(lat0*math.Pi/180)
-	ring := func(pts ...[2]float64) string {
-		var parts []string
-		for _, p := range append(pts, pts[0]) {
-			parts = append(parts, fmt.Sprintf("[%.9f,%.9f]", lon0+p[0]*mLon, lat0+p[1]*mLat))
-		}
-		return "[[" + strings.Join(parts, ",") + "]]"
-	}
-	feat := func(geom, props string) string {
-		return `{"type":"Feature","geometry":{"type":"Polygon","coordinates":` + geom + `},"properties":{` + props + `}}`
-	}
 	y0 := 4 - depth
 	return `{"type":"FeatureCollection","features":[` +
-		feat(ring([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 4}, [2]float64{0, 4}),
+		testFeature(testRing([2]float64{0, 0}, [2]float64{10, 0}, [2]float64{10, 4}, [2]float64{0, 4}),
 			`"kind":"roof","id":"S","pitch_deg":35,"aspect_deg":180,"eave_height_m":6`) + "," +
-		feat(ring([2]float64{0, y0}, [2]float64{10, y0}, [2]float64{10, 8.25}, [2]float64{0, 8.25}),
+		testFeature(testRing([2]float64{0, y0}, [2]float64{10, y0}, [2]float64{10, 8.25}, [2]float64{0, 8.25}),
 			`"kind":"roof","id":"N","pitch_deg":35,"aspect_deg":0,"eave_height_m":6`) + `]}`
 }
 
