@@ -48,6 +48,7 @@ type Module struct {
 	sub        []int8 // cell → substring
 	subCells   []int  // substring → cells in it (in one half for half-cut)
 	halfOf     []int8 // cell → half (0 or 1)
+	slot       []int8 // cell → 2·substring + half
 	// kneeW is the relative width of a bypass knee: a cell's open-circuit voltage over
 	// the voltage its light current makes across its shunt, at STC (the shunt scales as
 	// 1/irradiance and the light current as irradiance, so the ratio holds at any light).
@@ -83,6 +84,7 @@ func newModuleCells(cols, rows, nSub int, half bool, cell Params, alphaCell floa
 	m.kneeW = cell.A * math.Log(cell.IL/cell.I0+1) / (cell.Rsh * cell.IL)
 	m.sub = make([]int8, cols*rows)
 	m.halfOf = make([]int8, cols*rows)
+	m.slot = make([]int8, cols*rows)
 	m.subCells = make([]int, nSub)
 	for r := range rows {
 		for c := range cols {
@@ -93,6 +95,7 @@ func newModuleCells(cols, rows, nSub int, half bool, cell Params, alphaCell floa
 			} else {
 				m.subCells[m.sub[k]]++
 			}
+			m.slot[k] = 2*m.sub[k] + m.halfOf[k]
 		}
 	}
 	return m
@@ -214,28 +217,34 @@ const maxKnees = 4
 // half-cells: the darkest cell of each half, the halves in parallel) runs out of light
 // current, so that it turns to reverse bias and the substring's bypass diode soon conducts.
 func (m *Module) appendKnees(dst, cellIrr []float64, tempC float64) []float64 {
-	smax := 0.0
-	for _, g := range cellIrr {
-		smax = fmax(smax, g)
+	// One pass over the cells: the brightest, and the darkest of each substring and half
+	// (slot 2·substring + half).
+	var buf [12]float64
+	lo := buf[:]
+	if 2*m.nSub > len(buf) {
+		lo = make([]float64, 2*m.nSub)
 	}
-	var lo [2]float64
+	lo = lo[:2*m.nSub]
+	for k := range lo {
+		lo[k] = math.Inf(1)
+	}
+	smax := 0.0
+	for c, g := range cellIrr {
+		smax = fmax(smax, g)
+		k := m.slot[c]
+		lo[k] = fmin(lo[k], g)
+	}
 	for s := range m.nSub {
-		lo = [2]float64{math.Inf(1), math.Inf(1)}
-		for c, g := range cellIrr {
-			if int(m.sub[c]) == s {
-				h := m.halfOf[c]
-				lo[h] = fmin(lo[h], g)
-			}
-		}
+		l0, l1 := lo[2*s], lo[2*s+1]
 		if !m.half {
-			lo[1] = lo[0]
+			l1 = l0
 		}
-		if lo[0] >= smax && lo[1] >= smax {
+		if l0 >= smax && l1 >= smax {
 			continue
 		}
-		ik := lightCurrent(m.cell.IL, m.alphaCell, lo[0], tempC)
+		ik := lightCurrent(m.cell.IL, m.alphaCell, l0, tempC)
 		if m.half {
-			ik += lightCurrent(m.cell.IL, m.alphaCell, lo[1], tempC)
+			ik += lightCurrent(m.cell.IL, m.alphaCell, l1, tempC)
 		}
 		if ik > 0 {
 			dst = append(dst, ik)

@@ -97,7 +97,7 @@ type Year struct {
 	n, steps   int
 	gridOff    []int32   // per step and one more: the step's points are gridI[gridOff[s]:gridOff[s+1]]
 	gridI      []float64 // every step's current grid (A), shared by its curves
-	curveV     [][]int32 // blocks of curveBlockLen voltages (units of voltQuantum); a curve lies in one block
+	curveV     [][]int32 // blocks of at most curveBlockLen voltages (units of voltQuantum); a curve lies in one block
 	curveAt    []int64   // per curve: block·curveBlockLen + offset of its first voltage
 	curveMPP   []float32 // per curve: module maximum power (W)
 	modCurve   []int32   // steps × n: curve index
@@ -280,11 +280,9 @@ func (y *Year) merge(b *yearBatch) {
 		h := b.hours[j]
 		y.gridI = append(y.gridI, o.grid...)
 		y.gridOff = append(y.gridOff, int32(len(y.gridI)))
-		np := len(o.grid)
 		base := int32(len(y.curveMPP))
-		for c := range o.mpp {
-			y.addCurve(o.v[c*np : (c+1)*np])
-		}
+		y.adoptCurves(o.v, len(o.grid))
+		o.v = nil // the year keeps it
 		y.curveMPP = append(y.curveMPP, o.mpp...)
 		for k := range y.n {
 			c := o.mod[k]
@@ -296,8 +294,9 @@ func (y *Year) merge(b *yearBatch) {
 	}
 }
 
-// curveBlockLen is the number of voltages in one block of Year.curveV (1024 curves of
-// curvePoints): the store grows a block at a time and is never copied.
+// curveBlockLen is the most voltages in one block of Year.curveV (1024 curves of
+// curvePoints): a block is one step's curves as its worker wrote them (see adoptCurves), and
+// the store is never copied.
 const curveBlockLen = 1024 * curvePoints
 
 // voltQuantum is the unit the stored curves' voltages are counted in: 2⁻²⁰ V ≈ 0.95 µV, finer
@@ -314,15 +313,20 @@ func quantV(v float64) int32 {
 	return int32(math.Max(math.Min(q, math.MaxInt32), math.MinInt32))
 }
 
-// addCurve appends one curve's voltages to the store.
-func (y *Year) addCurve(v []int32) {
-	nb := len(y.curveV)
-	if nb == 0 || len(y.curveV[nb-1])+len(v) > curveBlockLen {
-		y.curveV = append(y.curveV, make([]int32, 0, curveBlockLen))
-		nb++
+// adoptCurves takes a step's curves of np voltages each, v, into the store without copying
+// them: v becomes one block, or several if it is longer than curveBlockLen, each a whole
+// number of curves.
+func (y *Year) adoptCurves(v []int32, np int) {
+	per := curveBlockLen / np * np
+	for len(v) > 0 {
+		b := v[:min(per, len(v)):min(per, len(v))]
+		v = v[len(b):]
+		at := int64(len(y.curveV)) * curveBlockLen
+		for k := 0; k < len(b); k += np {
+			y.curveAt = append(y.curveAt, at+int64(k))
+		}
+		y.curveV = append(y.curveV, b)
 	}
-	y.curveAt = append(y.curveAt, int64(nb-1)*curveBlockLen+int64(len(y.curveV[nb-1])))
-	y.curveV[nb-1] = append(y.curveV[nb-1], v...)
 }
 
 // curve returns curve c's n voltages on its step's grid, in units of voltQuantum.
@@ -337,16 +341,19 @@ func (y *Year) grid(s int) []float64 { return y.gridI[y.gridOff[s]:y.gridOff[s+1
 
 // yearWorker is one goroutine's working space.
 type yearWorker struct {
-	sc     curveScratch
-	v      []float64
-	knees  []float64       // knee currents (A)
-	kneeN  map[float64]int // knee current → modules that have it
-	q      []float64       // n × nc: the step's quantised cell irradiances
-	qt     []float64       // n: quantised temperatures
-	seen   map[uint64]int32
-	repr   []int // local curve → module that defined it
-	unSeen map[[2]float64]float32
-	exact  bool // no rounding (NewYearExact)
+	sc    curveScratch
+	v     []float64
+	knees []float64       // knee currents (A)
+	kneeN map[float64]int // knee current → modules that have it
+	q     []float64       // n × nc: the step's quantised cell irradiances
+	qt    []float64       // n: quantised temperatures
+	seen  map[uint64]int32
+	repr  []int // local curve → module that defined it
+	// curveKnees[kneeOff[c]:kneeOff[c+1]] are local curve c's knee currents (A).
+	curveKnees []float64
+	kneeOff    []int
+	unSeen     map[[2]float64]float32
+	exact      bool // no rounding (NewYearExact)
 }
 
 // Curves are shared between modules that see the same light: NewYear rounds each cell's
@@ -374,17 +381,41 @@ func roundIrr(g float64) float64 {
 // roundTemp rounds a temperature to TempStepC.
 func roundTemp(t float64) float64 { return math.Round(t/TempStepC) * TempStepC }
 
-// roundCells writes the rounded cell irradiances of irr into q. The cells of one module
-// usually take only two or three distinct values (lit, or shaded by one object), so the
-// previous rounding is reused while the value repeats.
-func roundCells(q, irr []float64) {
+// roundCellsHash writes the cell irradiances irr into q, rounded (roundIrr) if round is set,
+// and returns a hash of q, its largest value (at least 0) and its number of runs of equal
+// values. The cells of one module usually take only two or three distinct values (lit, or
+// shaded by one object), so the previous rounding is reused while the value repeats, and the
+// hash mixes only where q changes (position and value): equal q give equal hashes, and NewYear
+// compares the values on a hash match, so collisions cost only time.
+func roundCellsHash(q, irr []float64, round bool) (h uint64, qmax float64, runs int) {
+	h = 14695981039346656037
 	last, lastQ := math.NaN(), 0.0
+	var lastBits uint64
 	for i, g := range irr {
-		if g != last {
-			last, lastQ = g, roundIrr(g)
+		if g != last || !round && math.Float64bits(g) != math.Float64bits(last) {
+			last = g
+			x := g
+			if round {
+				x = roundIrr(g)
+			}
+			if b := math.Float64bits(x); runs == 0 || b != lastBits {
+				h = hashMix(hashMix(h, uint64(i)), b)
+				lastBits, lastQ = b, x
+				runs++
+				if x > qmax {
+					qmax = x
+				}
+			}
 		}
 		q[i] = lastQ
 	}
+	return h, qmax, runs
+}
+
+// hashMix mixes the 64-bit word x into the hash h (multiply and xor-shift).
+func hashMix(h, x uint64) uint64 {
+	h = (h ^ x) * 0x9E3779B97F4A7C15
+	return h ^ h>>29
 }
 
 // build computes step j of batch b: one curve per distinct rounded module input on the step's
@@ -406,25 +437,24 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	temp := b.temp[j*n : (j+1)*n]
 	un := b.un[j*n : (j+1)*n]
 	o := &b.out[j]
-	top := 0.0
-	for k := range n {
-		if w.exact {
-			copy(qirr(k), irr(k))
-			w.qt[k] = temp[k]
-		} else {
-			roundCells(qirr(k), irr(k))
-			w.qt[k] = roundTemp(temp[k])
-		}
-		top = math.Max(top, m.topCurrent(qirr(k), w.qt[k]))
-	}
 	o.mpp = o.mpp[:0]
 	o.mod = slices.Grow(o.mod[:0], n)[:n]
 	o.unW = slices.Grow(o.unW[:0], n)[:n]
 	clear(w.seen)
 	w.repr = w.repr[:0]
+	w.kneeOff = append(w.kneeOff[:0], 0)
+	w.curveKnees = w.curveKnees[:0]
 	clear(w.kneeN)
+	top := 0.0
 	for k := range n {
-		key := hashCells(qirr(k), w.qt[k])
+		key, smax, runs := roundCellsHash(qirr(k), irr(k), !w.exact)
+		if w.exact {
+			w.qt[k] = temp[k]
+		} else {
+			w.qt[k] = roundTemp(temp[k])
+		}
+		key = hashMix(key, math.Float64bits(w.qt[k]))
+		top = math.Max(top, m.topCurrentAt(lightCurrent(m.cell.IL, m.alphaCell, smax, w.qt[k])))
 		c, ok := w.seen[key]
 		if ok {
 			r := w.repr[c]
@@ -436,10 +466,14 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 			c = int32(len(w.repr))
 			w.seen[key] = c
 			w.repr = append(w.repr, k)
+			// A module lit evenly has no knee (appendKnees finds none).
+			if runs > 1 {
+				w.curveKnees = m.appendKnees(w.curveKnees, qirr(k), w.qt[k])
+			}
+			w.kneeOff = append(w.kneeOff, len(w.curveKnees))
 		}
 		o.mod[k] = c
-		w.knees = m.appendKnees(w.knees[:0], qirr(k), w.qt[k])
-		for _, ik := range w.knees {
+		for _, ik := range w.curveKnees[w.kneeOff[c]:w.kneeOff[c+1]] {
 			w.kneeN[ik]++
 		}
 	}
@@ -458,11 +492,12 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	o.grid = appendGrid(o.grid[:0], top, w.knees, m.kneeW)
 	np := len(o.grid)
 	w.v = grow(w.v, np)
-	o.v = o.v[:0]
-	for _, r := range w.repr {
+	// A fresh slice each step: the Year keeps it as it is (Year.adoptCurves).
+	o.v = make([]int32, len(w.repr)*np)
+	for c, r := range w.repr {
 		m.curveOnGrid(qirr(r), w.qt[r], o.grid, w.v, &w.sc)
-		for _, x := range w.v {
-			o.v = append(o.v, quantV(x))
+		for k, x := range w.v {
+			o.v[c*np+k] = quantV(x)
 		}
 		p, _, _ := polyMax(o.grid, w.v, 0, math.Inf(1), math.Inf(1))
 		o.mpp = append(o.mpp, float32(p))
@@ -482,19 +517,6 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 		}
 		o.unW[k] = p
 	}
-}
-
-// hashCells mixes the bits of the irradiances and temperature a 64-bit word
-// at a time (multiply and xor-shift); equal inputs give equal hashes, and
-// NewYear compares the values on a hash match, so collisions cost only time.
-func hashCells(irr []float64, t float64) uint64 {
-	h := uint64(14695981039346656037)
-	for _, x := range irr {
-		h = (h ^ math.Float64bits(x)) * 0x9E3779B97F4A7C15
-		h ^= h >> 29
-	}
-	h = (h ^ math.Float64bits(t)) * 0x9E3779B97F4A7C15
-	return h ^ h>>32
 }
 
 // Modules returns the number of modules.
