@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"runtime"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -367,4 +368,67 @@ func evenGrid(i0, h float64, n int) []float64 {
 		g[k] = i0 + float64(k)*h
 	}
 	return g
+}
+
+// TestCurveOnGridSharedCells: the cell curves curveOnGrid keeps for the next call on the same
+// module and grid, and the substrings lit alike it computes once, give every module the same
+// voltages to the bit as a fresh scratch does, in whatever order the modules come: the curves
+// of one step share cells (a shadow over several modules at the same temperature), and the
+// year's energy must not depend on which module came first.
+func TestCurveOnGridSharedCells(t *testing.T) {
+	full := testDatasheet
+	full.HalfCut, full.CellsSeries = false, 60
+	for _, ds := range []Datasheet{testDatasheet, full} {
+		m, err := NewModule(ds)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cols, rows := m.Grid()
+		rng := rand.New(rand.NewPCG(9, 10))
+		for trial := range 40 {
+			tc := -10 + 60*rng.Float64()
+			lit, dim, part := 200+900*rng.Float64(), 50+100*rng.Float64(), 300*rng.Float64()
+			// Several modules from three values: shadows of different shapes, one whole row
+			// (every substring and half alike), one unshaded.
+			var mods [][]float64
+			for range 6 {
+				irr := uniformIrr(m.Cells(), lit)
+				r0, c0 := rng.IntN(rows), rng.IntN(cols)
+				r1, c1 := r0+rng.IntN(rows-r0), c0+rng.IntN(cols-c0)
+				for r := r0; r <= r1; r++ {
+					for c := c0; c <= c1; c++ {
+						irr[r*cols+c] = dim
+					}
+				}
+				irr[rng.IntN(m.Cells())] = part
+				mods = append(mods, irr)
+			}
+			row := uniformIrr(m.Cells(), lit)
+			for c := range cols {
+				row[c] = dim
+			}
+			mods = append(mods, row, uniformIrr(m.Cells(), lit))
+			top := 0.0
+			for _, irr := range mods {
+				top = math.Max(top, m.topCurrent(irr, tc))
+			}
+			i0, h := gridFor(top)
+			grid := evenGrid(i0, h, curvePoints)
+			var shared curveScratch
+			got, want := make([]float64, curvePoints), make([]float64, curvePoints)
+			for _, k := range rng.Perm(len(mods)) {
+				// The caller may reuse its grid's memory once a call returns.
+				g := slices.Clone(grid)
+				m.curveOnGrid(mods[k], tc, g, got, &shared)
+				for j := range g {
+					g[j] = math.NaN()
+				}
+				var fresh curveScratch
+				m.curveOnGrid(mods[k], tc, grid, want, &fresh)
+				if !slices.Equal(got, want) {
+					t.Fatalf("%d cells, trial %d, module %d: shared cells give\n%v\nwant\n%v", m.Cells(), trial, k, got, want)
+				}
+			}
+		}
+	}
 }

@@ -290,17 +290,85 @@ func appendGrid(dst []float64, top float64, knees []float64, w float64) []float6
 
 // curveScratch is reusable working space for curveOnGrid.
 type curveScratch struct {
-	vals  []float64    // distinct irradiance values
-	idx   []int        // cell → index into vals
-	cells []cellGrid   // distinct value → its cell's voltage on the (half-)grid
-	bufs  [][]float64  // backing store of cells[u].v
-	cnt   []int        // [sub][half][u] cell counts
-	vh    [2][]float64 // half sums on the half grid
+	vals  []float64 // distinct irradiance values
+	idx   []int     // cell → index into vals
+	slot  []int32   // distinct value → its cell curve in cells
+	cnt   []int     // [sub][half][u] cell counts
+	terms []cellTerm
+	toff  []int       // [sub][half] → its terms are terms[toff[i]:toff[i+1]]
+	subV  [][]float64 // per substring: its voltage on the module grid
+	subOf []int       // per substring: the first substring lit alike, whose subV it takes
+	hs    [2]halfSums // halvesOnGrid's two halves
 	m     merger
 	out   []float64 // Curve's module voltages
-	hc    []float64 // half-cell current grid (A)
 	knees []float64 // Curve's knee currents (A)
 	grid  []float64 // Curve's current grid (A)
+
+	// The cell curves on the grid of the last call, kept while the module and the grid
+	// stay the same (curveOnGrid compares them): curves of one step share their grid, and
+	// cells with the same irradiance and temperature in different modules the same curve.
+	mod     *Module
+	gridCur []float64            // the grid (A)
+	hc      []float64            // cell current grid of a half-cut module (A)
+	cells   []cellGrid           // cell curves computed so far on this grid
+	bufs    [][]float64          // backing store of cells[k].v
+	cellKey map[[2]float64]int32 // (irradiance, temperature) → index into cells
+}
+
+// cellTerm is c cells alike, with curve g, in series.
+type cellTerm struct {
+	g *cellGrid
+	c float64
+}
+
+// sumTerms returns the voltage of the cells of ts in series at point k of their grid.
+func sumTerms(ts []cellTerm, k int) float64 {
+	var sum float64
+	for _, t := range ts {
+		sum += t.c * t.g.at(k)
+	}
+	return sum
+}
+
+// halfSums is one half of a substring: its cells' voltage on the half grid, computed on
+// demand in increasing points.
+type halfSums struct {
+	terms []cellTerm
+	v     []float64 // points 0..done−1
+	done  int
+}
+
+// at returns the half's voltage at point j.
+func (h *halfSums) at(j int) float64 {
+	if h.done <= j {
+		h.fill(j)
+	}
+	return h.v[j]
+}
+
+// fill computes the half's points up to j.
+func (h *halfSums) fill(j int) {
+	for ; h.done <= j; h.done++ {
+		h.v[h.done] = sumTerms(h.terms, h.done)
+	}
+}
+
+// cellGridFor returns the index in sc.cells of the curve of a cell at irradiance s and
+// temperature tempC on the current grid cc, starting it if it is new.
+func (m *Module) cellGridFor(sc *curveScratch, s, tempC float64, cc []float64) int32 {
+	key := [2]float64{s, tempC}
+	if k, ok := sc.cellKey[key]; ok {
+		return k
+	}
+	k := int32(len(sc.cellKey))
+	if int(k) == len(sc.cells) {
+		sc.cells = append(sc.cells, cellGrid{})
+		sc.bufs = append(sc.bufs, nil)
+	}
+	sc.bufs[k] = grow(sc.bufs[k], len(cc))
+	sc.cells[k].reset(translate(m.cell, m.alphaCell, s, tempC), cc, sc.bufs[k])
+	sc.cellKey[key] = k
+	return k
 }
 
 // curveOnGrid writes the module voltage at currents cur[k] (a grid from appendGrid, len(v)
@@ -309,9 +377,39 @@ type curveScratch struct {
 // Lambert-W evaluation per distinct irradiance and grid point; points are
 // computed on demand, and a substring stops asking once its bypass diode
 // conducts (every cell's voltage falls with current, so the substring stays
-// bypassed at every higher current).
+// bypassed at every higher current). The cell curves are kept in sc for the next
+// call on the same module and grid, and substrings lit alike are computed once.
 func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v []float64, sc *curveScratch) {
 	n := len(v)
+	if sc.mod != m || !slices.Equal(sc.gridCur, cur) {
+		sc.mod = m
+		// A copy: the cell curves keep reading their grid, and the caller may reuse cur.
+		sc.gridCur = append(sc.gridCur[:0], cur...)
+		if sc.cellKey == nil {
+			sc.cellKey = map[[2]float64]int32{}
+		}
+		clear(sc.cellKey)
+		// Cell current on the grid: the module current for full cells; for half-cells
+		// half the module current at points k < n, and beyond, up to twice the top (one
+		// half may carry nearly all of the module current), the even points continued:
+		// the grid starts at −2h and ends on an even point.
+		if m.half {
+			sc.hc = grow(sc.hc, 2*n)
+			for k, x := range cur {
+				sc.hc[k] = x / 2
+			}
+			i0 := cur[0]
+			h := -i0 / 2
+			last := math.Round((cur[n-1]-i0)/h) - float64(n-1) // index of the last even point, less n−1
+			for j := n; j < 2*n; j++ {
+				sc.hc[j] = (i0 + (float64(j)+last)*h) / 2
+			}
+		}
+	}
+	cc := sc.gridCur
+	if m.half {
+		cc = sc.hc
+	}
 	sc.vals = sc.vals[:0]
 	sc.idx = sc.idx[:0]
 	last := -1
@@ -334,9 +432,9 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 		last = u
 	}
 	nu := len(sc.vals)
-	for len(sc.cells) < nu {
-		sc.cells = append(sc.cells, cellGrid{})
-		sc.bufs = append(sc.bufs, nil)
+	sc.slot = sc.slot[:0]
+	for _, s := range sc.vals {
+		sc.slot = append(sc.slot, m.cellGridFor(sc, s, tempC, cc))
 	}
 	nh := 1
 	if m.half {
@@ -346,57 +444,63 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 	for c, u := range sc.idx {
 		sc.cnt[(int(m.sub[c])*nh+int(m.halfOf[c]))*nu+u]++
 	}
-	// Cell current on the grid: the module current for full cells; for half-cells half
-	// the module current at points k < n, and beyond, up to twice the top (one half may
-	// carry nearly all of the module current), the even points continued: the grid starts
-	// at −2h and ends on an even point.
-	cc := cur
-	if m.half {
-		sc.hc = grow(sc.hc, 2*n)
-		for k, x := range cur {
-			sc.hc[k] = x / 2
+	// Each substring's and half's cells, as counts of alike cells in order of value (the
+	// pointers into sc.cells taken once it has stopped growing).
+	sc.terms = sc.terms[:0]
+	sc.toff = append(sc.toff[:0], 0)
+	for i := range m.nSub * nh {
+		for u, c := range sc.cnt[i*nu : (i+1)*nu] {
+			if c != 0 {
+				sc.terms = append(sc.terms, cellTerm{&sc.cells[sc.slot[u]], float64(c)})
+			}
 		}
-		i0 := cur[0]
-		h := -i0 / 2
-		last := math.Round((cur[n-1]-i0)/h) - float64(n-1) // index of the last even point, less n−1
-		for j := n; j < 2*n; j++ {
-			sc.hc[j] = (i0 + (float64(j)+last)*h) / 2
-		}
-		cc = sc.hc
+		sc.toff = append(sc.toff, len(sc.terms))
 	}
-	for u := range nu {
-		sc.bufs[u] = grow(sc.bufs[u], 2*n)
-		sc.cells[u].reset(translate(m.cell, m.alphaCell, sc.vals[u], tempC), cc, sc.bufs[u])
+	for len(sc.subV) < m.nSub {
+		sc.subV = append(sc.subV, nil)
 	}
-	clear(v)
+	sc.subOf = sc.subOf[:0]
+subs:
 	for s := range m.nSub {
+		sc.subOf = append(sc.subOf, s)
+		cs := sc.cnt[s*nh*nu : (s+1)*nh*nu]
+		for r := range s {
+			if slices.Equal(cs, sc.cnt[r*nh*nu:(r+1)*nh*nu]) {
+				sc.subOf[s] = r
+				continue subs
+			}
+		}
+		sc.subV[s] = grow(sc.subV[s], n)
+		sv := sc.subV[s]
 		c0 := sc.cnt[s*nh*nu : (s*nh+1)*nu]
 		if !m.half || equalInts(c0, sc.cnt[(s*nh+1)*nu:(s*nh+2)*nu]) {
 			// Full cells, or two equal halves sharing the current evenly.
+			ts := sc.terms[sc.toff[s*nh]:sc.toff[s*nh+1]]
 			k := 0
 			for ; k < n; k++ {
-				var sum float64
-				for u, c := range c0 {
-					if c != 0 {
-						sum += float64(c) * sc.cells[u].at(k)
-					}
-				}
+				sum := sumTerms(ts, k)
 				if sum < -m.bypassV {
 					break
 				}
-				v[k] += sum
+				sv[k] = sum
 			}
 			for ; k < n; k++ {
-				v[k] -= m.bypassV
+				sv[k] = -m.bypassV
 			}
 			continue
 		}
-		m.halvesOnGrid(sc, sc.cnt[(s*nh)*nu:(s*nh+1)*nu], sc.cnt[(s*nh+1)*nu:(s*nh+2)*nu], cur, v)
+		m.halvesOnGrid(sc, sc.terms[sc.toff[s*nh]:sc.toff[s*nh+1]], sc.terms[sc.toff[s*nh+1]:sc.toff[s*nh+2]], cur, sv)
+	}
+	clear(v)
+	for _, r := range sc.subOf {
+		for k, x := range sc.subV[r][:n] {
+			v[k] += x
+		}
 	}
 }
 
-// halvesOnGrid adds to v the voltage of a substring whose two halves are
-// lit differently (cell counts c0 and c1 per distinct value). Each half may
+// halvesOnGrid writes into v the voltage of a substring whose two halves are
+// lit differently (cells t0 and t1). Each half may
 // carry more than half the module current, so its curve may reach up to
 // twice the half grid (2n points). The halves are put in parallel by the
 // merge of merger.parallel (breakpoints in descending voltage), run lazily:
@@ -404,54 +508,31 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 // grid is read off as soon as the merged polyline passes each current, and
 // the walk stops once every grid point is read or the substring is bypassed
 // (the merged voltage, falling with current, is below −bypassV).
-func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, mcur []float64, v []float64) {
+func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float64, v []float64) {
 	n := len(v)
-	cnts := [2][]int{c0, c1}
-	var done [2]int // half points computed
-	half := func(hh, j int) float64 {
-		for done[hh] <= j {
-			var sum float64
-			for u, c := range cnts[hh] {
-				if c != 0 {
-					sum += float64(c) * sc.cells[u].at(done[hh])
-				}
-			}
-			sc.vh[hh][done[hh]] = sum
-			done[hh]++
-		}
-		return sc.vh[hh][j]
+	hs := &sc.hs
+	for hh, ts := range [2][]cellTerm{t0, t1} {
+		hs[hh].terms = ts
+		hs[hh].v = grow(hs[hh].v, 2*n)
+		hs[hh].done = 0
 	}
-	for hh := range 2 {
-		sc.vh[hh] = grow(sc.vh[hh], 2*n)
-	}
-	cur := func(j int) float64 { return sc.hc[j] }
-	// currentAt is currentOn for half hh with next unvisited point j.
-	currentAt := func(hh, j int, x float64) float64 {
-		switch {
-		case j == 0:
-			dv := half(hh, 1) - half(hh, 0)
-			if dv == 0 {
-				return cur(0)
-			}
-			return cur(0) + (x-half(hh, 0))*(cur(1)-cur(0))/dv
-		case j >= 2*n:
-			return cur(2*n - 1)
-		}
-		dv := half(hh, j) - half(hh, j-1)
-		if dv == 0 {
-			return cur(j - 1)
-		}
-		return cur(j-1) + (x-half(hh, j-1))*(cur(j)-cur(j-1))/dv
-	}
+	cur := sc.hc[:2*n]
 	oi, ov := sc.m.oi[:0], sc.m.ov[:0]
-	var kk [2]int // next unvisited point of each half
+	// Per half: the next unvisited point kk, its voltage nx (read when fresh is false) and the
+	// voltage of the point before it, pv.
+	var kk [2]int
+	var nx, pv [2]float64
+	var fresh [2]bool
 	k, hint := 0, 0
 	for k < n {
 		best := -1
 		bv := math.Inf(-1)
 		for hh := range 2 {
 			if kk[hh] < 2*n {
-				if x := half(hh, kk[hh]); x > bv {
+				if !fresh[hh] {
+					nx[hh], fresh[hh] = hs[hh].at(kk[hh]), true
+				}
+				if x := nx[hh]; x > bv {
 					best, bv = hh, x
 				}
 			}
@@ -459,9 +540,33 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, mcur []float64, v 
 		if best < 0 {
 			break
 		}
-		tot := cur(kk[best]) + currentAt(1-best, kk[1-best], bv)
+		// The other half's current at bv (currentOn with its next unvisited point j).
+		o := 1 - best
+		var io float64
+		switch j := kk[o]; {
+		case j == 0:
+			h := &hs[o]
+			dv := h.at(1) - nx[o]
+			if dv == 0 {
+				io = cur[0]
+			} else {
+				io = cur[0] + (bv-nx[o])*(cur[1]-cur[0])/dv
+			}
+		case j >= 2*n:
+			io = cur[2*n-1]
+		default:
+			dv := nx[o] - pv[o]
+			if dv == 0 {
+				io = cur[j-1]
+			} else {
+				io = cur[j-1] + (bv-pv[o])*(cur[j]-cur[j-1])/dv
+			}
+		}
+		tot := cur[kk[best]] + io
 		oi, ov = append(oi, tot), append(ov, bv)
+		pv[best] = bv
 		kk[best]++
+		fresh[best] = false
 		if len(oi) < 2 {
 			continue
 		}
@@ -472,18 +577,18 @@ func (m *Module) halvesOnGrid(sc *curveScratch, c0, c1 []int, mcur []float64, v 
 			}
 			var vk float64
 			vk, hint = voltageOn(oi, ov, x, hint)
-			v[k] += fmax(vk, -m.bypassV)
+			v[k] = fmax(vk, -m.bypassV)
 		}
 		if bv < -m.bypassV {
 			for ; k < n; k++ {
-				v[k] -= m.bypassV
+				v[k] = -m.bypassV
 			}
 		}
 	}
 	for ; k < n; k++ {
 		var vk float64
 		vk, hint = voltageOn(oi, ov, mcur[k], hint)
-		v[k] += fmax(vk, -m.bypassV)
+		v[k] = fmax(vk, -m.bypassV)
 	}
 	sc.m.oi, sc.m.ov = oi, ov
 }

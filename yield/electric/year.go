@@ -309,7 +309,18 @@ const voltQuantum = 0x1p-20
 // quantV returns v (V) in units of voltQuantum, held inside int32 (±2048 V, above any one
 // module's voltage).
 func quantV(v float64) int32 {
-	q := math.Round(v / voltQuantum)
+	x := v / voltQuantum
+	if x > math.MinInt32-0.5 && x < math.MaxInt32+0.5 {
+		// math.Round (half away from zero) by truncation: x − i is exact.
+		i := int64(x)
+		if f := x - float64(i); f >= 0.5 {
+			i++
+		} else if f <= -0.5 {
+			i--
+		}
+		return int32(i)
+	}
+	q := math.Round(x)
 	return int32(math.Max(math.Min(q, math.MaxInt32), math.MinInt32))
 }
 

@@ -563,3 +563,52 @@ func TestThin(t *testing.T) {
 		}
 	}
 }
+
+// TestQuantV: the stored voltage is v/voltQuantum rounded half away from zero (as math.Round
+// rounds) and held inside int32; the cases are exact halves, their neighbours and the ends of
+// the range, where rounding by truncation must agree with math.Round to the unit.
+func TestQuantV(t *testing.T) {
+	q := voltQuantum
+	for _, tc := range []struct {
+		name string
+		v    float64
+		want int32
+	}{
+		{"zero", 0, 0},
+		{"negative zero", math.Copysign(0, -1), 0},
+		{"half up", 0.5 * q, 1},
+		{"half down", -0.5 * q, -1},
+		{"just under a half", math.Nextafter(0.5, 0) * q, 0},
+		{"just under minus a half", math.Nextafter(-0.5, 0) * q, 0},
+		{"two and a half", 2.5 * q, 3},
+		{"minus two and a half", -2.5 * q, -3},
+		{"a module's voltage", 41.25, 41<<20 + 1<<18},
+		{"largest unit", math.MaxInt32 * q, math.MaxInt32},
+		{"above the largest, held", 1e4, math.MaxInt32},
+		{"below the smallest, held", -1e4, math.MinInt32},
+		{"smallest unit", math.MinInt32 * q, math.MinInt32},
+		{"half above the largest", (math.MaxInt32 + 0.5) * q, math.MaxInt32},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			if got := quantV(tc.v); got != tc.want {
+				t.Errorf("quantV(%g) = %d, want %d", tc.v, got, tc.want)
+			}
+			// The same as the plain formula.
+			ref := int32(math.Max(math.Min(math.Round(tc.v/q), math.MaxInt32), math.MinInt32))
+			if got := quantV(tc.v); got != ref {
+				t.Errorf("quantV(%g) = %d, math.Round gives %d", tc.v, got, ref)
+			}
+		})
+	}
+	rng := rand.New(rand.NewPCG(3, 4))
+	for range 100000 {
+		v := (rng.Float64() - 0.5) * 200
+		if k := rng.IntN(4); k == 0 {
+			v = (math.Round(v/q) + 0.5) * q // exact halves
+		}
+		ref := int32(math.Max(math.Min(math.Round(v/q), math.MaxInt32), math.MinInt32))
+		if got := quantV(v); got != ref {
+			t.Fatalf("quantV(%v) = %d, math.Round gives %d", v, got, ref)
+		}
+	}
+}
