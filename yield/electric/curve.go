@@ -158,41 +158,153 @@ type merger struct {
 
 // parallel merges polylines (is[s], vs[s]) into the polyline of their
 // parallel connection. It walks the breakpoints of all inputs in descending
-// voltage; at each, every other input's current is interpolated on its
-// current segment. Cost O(S²·K) for S inputs of K points.
+// voltage (on equal voltages the lower input first); at each, every other
+// input's current is interpolated on its current segment and added in input
+// order. Cost O(S²·K) for S inputs of K points; two inputs, the usual case of
+// strings on one MPPT input, take a two-pointer walk of their own.
 func (m *merger) parallel(is, vs [][]float64) ([]float64, []float64) {
+	switch {
+	case len(is) == 2 && len(is[0]) > 1 && len(is[1]) > 1:
+		return m.parallel2(is[0], vs[0], is[1], vs[1])
+	case len(is) == 3 && len(is[0]) > 1 && len(is[1]) > 1 && len(is[2]) > 1:
+		return m.parallel3(is, vs)
+	}
+	return m.parallelN(is, vs)
+}
+
+// parallelN is parallel for any number of inputs.
+func (m *merger) parallelN(is, vs [][]float64) ([]float64, []float64) {
 	ns := len(is)
 	m.k = slices.Grow(m.k[:0], ns)[:ns]
 	clear(m.k)
 	m.oi, m.ov = m.oi[:0], m.ov[:0]
+	return m.walkFrom(is, vs)
+}
+
+// walkFrom continues the walk of parallelN from the inputs' next points m.k, appending to
+// m.oi and m.ov.
+func (m *merger) walkFrom(is, vs [][]float64) ([]float64, []float64) {
+	oi, ov := m.oi, m.ov
 	for {
 		// Next breakpoint: the highest voltage among the inputs' next points.
 		best := -1
 		bv := math.Inf(-1)
-		for s := range ns {
-			if m.k[s] < len(vs[s]) && vs[s][m.k[s]] > bv {
-				best, bv = s, vs[s][m.k[s]]
+		for s, k := range m.k {
+			if k < len(vs[s]) && vs[s][k] > bv {
+				best, bv = s, vs[s][k]
 			}
 		}
 		if best < 0 {
 			break
 		}
 		tot := is[best][m.k[best]]
-		for s := range ns {
-			if s != best {
-				tot += currentOn(is[s], vs[s], m.k[s], bv)
+		for s, k := range m.k {
+			switch {
+			case s == best:
+			case k > 0 && k < len(is[s]):
+				tot += onSegment(is[s], vs[s], k, bv)
+			default:
+				tot += currentOff(is[s], vs[s], k, bv)
 			}
 		}
-		m.oi = append(m.oi, tot)
-		m.ov = append(m.ov, bv)
+		oi = append(oi, tot)
+		ov = append(ov, bv)
 		m.k[best]++
 	}
-	return m.oi, m.ov
+	m.oi, m.ov = oi, ov
+	return oi, ov
+}
+
+// parallel3 is parallel for three inputs of at least two points each, to the bit: a walk of its own while every input
+// has points left (each other input's next point is then inside it), then parallelN's.
+func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
+	ia, ib, ic := is[0], is[1], is[2]
+	va, vb, vc := vs[0], vs[1], vs[2]
+	na, nb, nc := len(va), len(vb), len(vc)
+	oi, ov := slices.Grow(m.oi[:0], na+nb+nc), slices.Grow(m.ov[:0], na+nb+nc)
+	ka, kb, kc := 0, 0, 0
+	for ka < na && kb < nb && kc < nc {
+		xa, xb, xc := va[ka], vb[kb], vc[kc]
+		switch {
+		case xa >= xb && xa >= xc:
+			oi = append(oi, ia[ka]+inside(ib, vb, kb, xa)+inside(ic, vc, kc, xa))
+			ov = append(ov, xa)
+			ka++
+		case xb >= xc:
+			oi = append(oi, ib[kb]+inside(ia, va, ka, xb)+inside(ic, vc, kc, xb))
+			ov = append(ov, xb)
+			kb++
+		default:
+			oi = append(oi, ic[kc]+inside(ia, va, ka, xc)+inside(ib, vb, kb, xc))
+			ov = append(ov, xc)
+			kc++
+		}
+	}
+	m.k = append(m.k[:0], ka, kb, kc)
+	m.oi, m.ov = oi, ov
+	return m.walkFrom(is, vs)
+}
+
+// inside is currentOn for an input of at least two points whose next point k is not past its
+// last: above the first point (k = 0) the first segment is extended, as on the segment to
+// point 1.
+func inside(is, vs []float64, k int, v float64) float64 {
+	return onSegment(is, vs, max(k, 1), v)
+}
+
+// parallel2 is parallel for two inputs a and b of at least two points each, to the bit.
+// While both have points left, the other input's next point is not past its last (see
+// inside); once one is used up, the other's points see its last current.
+func (m *merger) parallel2(ia, va, ib, vb []float64) ([]float64, []float64) {
+	na, nb := len(va), len(vb)
+	oi, ov := slices.Grow(m.oi[:0], na+nb), slices.Grow(m.ov[:0], na+nb)
+	ka, kb := 0, 0
+	for ka < na && kb < nb {
+		if x := va[ka]; x >= vb[kb] {
+			oi = append(oi, ia[ka]+inside(ib, vb, kb, x))
+			ov = append(ov, x)
+			ka++
+		} else {
+			x = vb[kb]
+			oi = append(oi, ib[kb]+inside(ia, va, ka, x))
+			ov = append(ov, x)
+			kb++
+		}
+	}
+	for ; ka < na; ka++ {
+		oi = append(oi, ia[ka]+ib[nb-1])
+		ov = append(ov, va[ka])
+	}
+	for ; kb < nb; kb++ {
+		oi = append(oi, ib[kb]+ia[na-1])
+		ov = append(ov, vb[kb])
+	}
+	m.oi, m.ov = oi, ov
+	return oi, ov
 }
 
 // currentOn returns the current of polyline (is, vs) at voltage v, where k is
 // the index of its next unvisited point (vs[k] ≤ v ≤ vs[k−1]).
 func currentOn(is, vs []float64, k int, v float64) float64 {
+	if k > 0 && k < len(is) {
+		return onSegment(is, vs, k, v)
+	}
+	return currentOff(is, vs, k, v)
+}
+
+// onSegment is currentOn on the segment from point k−1 to point k (0 < k < len(is)).
+func onSegment(is, vs []float64, k int, v float64) float64 {
+	if dv := vs[k] - vs[k-1]; dv != 0 {
+		return is[k-1] + (v-vs[k-1])*(is[k]-is[k-1])/dv
+	}
+	return is[k-1]
+}
+
+// currentOff is currentOn before the first point and after the last; kept out of line so
+// that the loop of parallel2 stays small.
+//
+//go:noinline
+func currentOff(is, vs []float64, k int, v float64) float64 {
 	n := len(is)
 	switch {
 	case n == 1:
@@ -204,14 +316,8 @@ func currentOn(is, vs []float64, k int, v float64) float64 {
 			return is[0]
 		}
 		return is[0] + (v-vs[0])*(is[1]-is[0])/dv
-	case k >= n:
-		return is[n-1]
 	}
-	dv := vs[k] - vs[k-1]
-	if dv == 0 {
-		return is[k-1]
-	}
-	return is[k-1] + (v-vs[k-1])*(is[k]-is[k-1])/dv
+	return is[n-1]
 }
 
 // MaxPower returns the global maximum power point (W, V, A) of the curve with

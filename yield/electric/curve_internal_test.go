@@ -1,0 +1,167 @@
+package electric
+
+import (
+	"math"
+	"math/rand/v2"
+	"slices"
+	"testing"
+)
+
+// randomPolyline returns n points with current rising and voltage falling, some voltage
+// steps zero (flat parts, as a bypassed tail has) when flat is set.
+func randomPolyline(rng *rand.Rand, n int, vTop float64, flat bool) ([]float64, []float64) {
+	is, vs := make([]float64, n), make([]float64, n)
+	i, v := -0.5*rng.Float64(), vTop
+	for k := range n {
+		is[k], vs[k] = i, v
+		i += 0.01 + rng.Float64()
+		if !flat || rng.IntN(4) != 0 {
+			v -= 10 * rng.Float64()
+		}
+	}
+	return is, vs
+}
+
+// The two- and three-input walks of parallel give the general walk's polyline to the bit, ties and flat
+// segments included; and each of its points carries both inputs' currents at its voltage
+// (an independent reading with voltageOn's inverse: the current at which each input has that
+// voltage, found by bisection).
+func TestParallelTwoInputsAsGeneral(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 5))
+	tests := []struct {
+		name   string
+		na, nb int
+		vb     float64 // top voltage of b (a starts at 500 V)
+		flat   bool
+		ties   bool // b's voltages copied from a where they can be
+	}{
+		{"equal lengths", 64, 64, 490, false, false},
+		{"b above a", 40, 70, 800, false, false},
+		{"b mostly below a", 60, 30, 300, false, false},
+		{"flat segments", 64, 64, 500, true, false},
+		{"equal voltages", 50, 50, 500, false, true},
+		{"one point", 1, 20, 450, false, false}, // the general walk only
+		{"two points", 2, 20, 502, false, false},
+		{"both one point", 1, 1, 500, false, false}, // the general walk only
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			checked := 0
+			for trial := range 50 {
+				ia, va := randomPolyline(rng, tc.na, 500, tc.flat)
+				ib, vb := randomPolyline(rng, tc.nb, tc.vb, tc.flat)
+				if tc.ties {
+					for k := range min(len(va), len(vb)) {
+						if k%3 == 0 {
+							vb[k] = va[k]
+						}
+					}
+					slices.SortFunc(vb, func(x, y float64) int { return -cmpF(x, y) })
+				}
+				var m2, mn merger
+				gi, gv := m2.parallel([][]float64{ia, ib}, [][]float64{va, vb})
+				wi, wv := mn.parallelN([][]float64{ia, ib}, [][]float64{va, vb})
+				if !slices.Equal(gi, wi) || !slices.Equal(gv, wv) {
+					t.Fatalf("trial %d: two-input walk differs from the general one", trial)
+				}
+				ic, vc := randomPolyline(rng, tc.nb, tc.vb-5, tc.flat)
+				if tc.ties {
+					copy(vc, vb[:len(vb)/2])
+					slices.SortFunc(vc, func(x, y float64) int { return -cmpF(x, y) })
+				}
+				gi3, gv3 := m2.parallel([][]float64{ia, ib, ic}, [][]float64{va, vb, vc})
+				gi3, gv3 = slices.Clone(gi3), slices.Clone(gv3)
+				wi3, wv3 := mn.parallelN([][]float64{ia, ib, ic}, [][]float64{va, vb, vc})
+				if !slices.Equal(gi3, wi3) || !slices.Equal(gv3, wv3) {
+					t.Fatalf("trial %d: three-input walk differs from the general one", trial)
+				}
+				if tc.na < 2 || tc.nb < 2 {
+					continue
+				}
+				// Independent reading where both inputs are inside their polylines.
+				for k, v := range gv {
+					if v > va[0] || v > vb[0] || v < va[len(va)-1] || v < vb[len(vb)-1] {
+						continue
+					}
+					checked++
+					want := currentAtVoltage(ia, va, v) + currentAtVoltage(ib, vb, v)
+					// Tolerance: bisection to 1e-12 of the current range, rounding of a few ulps.
+					if math.Abs(gi[k]-want) > 1e-9*(1+math.Abs(want)) && !flatAt(va, v) && !flatAt(vb, v) {
+						t.Fatalf("trial %d, point %d at %.6g V: %.12g A, inputs' currents add to %.12g A", trial, k, v, gi[k], want)
+					}
+				}
+			}
+			if tc.na >= 2 && tc.nb >= 2 && checked < 50 {
+				t.Errorf("only %d points read independently", checked)
+			}
+		})
+	}
+}
+
+func cmpF(x, y float64) int {
+	switch {
+	case x < y:
+		return -1
+	case x > y:
+		return 1
+	}
+	return 0
+}
+
+// flatAt reports whether the polyline has a flat part at voltage v, where the current at
+// that voltage is not one value.
+func flatAt(vs []float64, v float64) bool {
+	for k := 1; k < len(vs); k++ {
+		if vs[k] == vs[k-1] && vs[k] == v {
+			return true
+		}
+	}
+	return false
+}
+
+// currentAtVoltage finds by bisection the current where the polyline's voltage is v (the
+// polyline's voltage falls with current; voltageOn reads it).
+func currentAtVoltage(is, vs []float64, v float64) float64 {
+	lo, hi := is[0], is[len(is)-1]
+	for range 200 {
+		mid := (lo + hi) / 2
+		if x, _ := voltageOn(is, vs, mid, 0); x > v {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
+}
+
+// BenchmarkParallel puts two strings' curves of 72 points in parallel, as an input of two
+// strings does at every step: the two-input walk against the general one.
+func BenchmarkParallel(b *testing.B) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	ia, va := randomPolyline(rng, 72, 800, false)
+	ib, vb := randomPolyline(rng, 72, 780, false)
+	var m merger
+	b.Run("walk=two", func(b *testing.B) {
+		for b.Loop() {
+			m.parallel2(ia, va, ib, vb)
+		}
+	})
+	is, vs := [][]float64{ia, ib}, [][]float64{va, vb}
+	b.Run("walk=general", func(b *testing.B) {
+		for b.Loop() {
+			m.parallelN(is, vs)
+		}
+	})
+	ic, vc := randomPolyline(rng, 72, 790, false)
+	is, vs = append(is, ic), append(vs, vc)
+	b.Run("walk=three", func(b *testing.B) {
+		for b.Loop() {
+			m.parallel3(is, vs)
+		}
+	})
+	b.Run("walk=general/inputs=3", func(b *testing.B) {
+		for b.Loop() {
+			m.parallelN(is, vs)
+		}
+	})
+}
