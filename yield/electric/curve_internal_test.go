@@ -165,3 +165,29 @@ func BenchmarkParallel(b *testing.B) {
 		}
 	})
 }
+
+// BenchmarkAddString adds a string of 22 modules with curves of their own at one step of 80
+// points, as a layout's first evaluation does at every step.
+func BenchmarkAddString(b *testing.B) {
+	const n, np = 22, 80
+	rng := rand.New(rand.NewPCG(4, 4))
+	y := &Year{n: n, steps: 1, modCurve: make([]int32, n)}
+	for k := range n {
+		v := make([]int32, np)
+		for j := range v {
+			v[j] = int32(rng.IntN(1 << 25))
+		}
+		y.addCurve(v)
+		y.modCurve[k] = int32(k)
+	}
+	str := make([]int, n)
+	for k := range str {
+		str[k] = k
+	}
+	sum := make([]int64, np)
+	var pr []curveCount
+	for b.Loop() {
+		clear(sum)
+		pr = y.addString(sum, 0, str, pr)
+	}
+}

@@ -133,9 +133,8 @@ func (y *Year) parts(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) []*i
 		prefix = strconv.AppendUint(append(prefix, ' '), math.Float64bits(x), 16)
 	}
 	prefix = append(prefix, ':')
-	var sc *evalScratch
 	var out []*inputYear
-	var strs []stringRecipe
+	var todo []inputJob
 	for _, in := range l.Inputs {
 		if len(in) == 0 {
 			continue
@@ -147,21 +146,22 @@ func (y *Year) parts(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) []*i
 		if c != nil {
 			pt = c.get(k)
 		}
-		if pt == nil {
-			if sc == nil {
-				sc = &evalScratch{}
+		if pt != nil {
+			out = append(out, pt)
+			continue
+		}
+		var strs []stringRecipe
+		if c != nil && !opt.ModuleLevel {
+			for _, str := range canon {
+				strs = append(strs, c.stringRecipe(y, str))
 			}
-			strs = strs[:0]
-			if c != nil && !opt.ModuleLevel {
-				for _, str := range canon {
-					strs = append(strs, c.stringRecipe(y, str))
-				}
-			}
-			pt = y.inputPart(canon, strs, inv, opt, sc)
-			pt.key = key
-			if c != nil {
-				pt = c.put(k, pt)
-			}
+		}
+		todo = append(todo, inputJob{in: canon, strs: strs, key: key})
+	}
+	for j, pt := range y.inputParts(todo, inv, opt) {
+		pt.key = todo[j].key
+		if c != nil {
+			pt = c.put(cacheKey{y, pt.key}, pt)
 		}
 		out = append(out, pt)
 	}
@@ -200,63 +200,83 @@ func appendInputKey(b []byte, in [][]int) []byte {
 	return b
 }
 
-// inputPart computes one input's share of the year: at every step the strings' curves added
+// inputJob is an input to compute: its strings (canonical order), how to read each (nil, or
+// recipes; see stringYear) and its cache key.
+type inputJob struct {
+	in   [][]int
+	strs []stringRecipe
+	key  string
+}
+
+// inputParts computes the inputs' shares of the year: at every step the strings' curves added
 // (series) and put in parallel, the operating point the tracker finds inside the window and
-// the current limit, and the loss terms. strs says how to read each string (nil, or a recipe
-// without a year: add it up step by step).
-func (y *Year) inputPart(in [][]int, strs []stringRecipe, inv Inverter, opt EvalOptions, sc *evalScratch) *inputYear {
-	pt := &inputYear{p: make([]float64, y.steps), pv: make([]float64, y.steps), un: make([]float64, y.steps), volts: !opt.ModuleLevel}
+// the current limit, and the loss terms. The inputs go through the steps together, so that a
+// step's curves are read from memory once for all of them; each input's share is what it
+// would be alone.
+func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) []*inputYear {
+	if len(jobs) == 0 {
+		return nil
+	}
+	pts := make([]*inputYear, len(jobs))
+	prevV := make([]float64, len(jobs))
+	for j := range jobs {
+		pts[j] = &inputYear{p: make([]float64, y.steps), pv: make([]float64, y.steps), un: make([]float64, y.steps), volts: !opt.ModuleLevel}
+		prevV[j] = math.NaN()
+	}
 	vmin, vmax, imax := inv.MPPTMinV, inv.MPPTMaxV, inv.MaxInputCurrentA
-	prevV := math.NaN()
+	var sc evalScratch
 	for s := range y.steps {
 		h := float64(y.hours[s])
 		row := s * y.n
-		var un float64
-		for _, str := range in {
-			for _, k := range str {
-				un += float64(y.unshadedW[row+k])
-			}
-		}
-		pt.un[s] = un
-		if opt.ModuleLevel {
-			var dc float64
-			for _, str := range in {
+		sc.gi = y.grid(s)
+		for j, job := range jobs {
+			pt := pts[j]
+			var un float64
+			for _, str := range job.in {
 				for _, k := range str {
-					dc += float64(y.curveMPP[y.modCurve[row+k]]) * opt.ModuleLevelEff
+					un += float64(y.unshadedW[row+k])
 				}
 			}
-			pt.p[s] = dc
-			pt.globalWh += dc * h
-			continue
-		}
-		sc.gi = y.grid(s)
-		is, vs := y.inputCurve(sc, s, in, strs)
-		pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
-		pW, pC, vC := pG, pG, vG
-		// Usually the global maximum is inside the window and the current limit: then the
-		// constrained searches are not needed.
-		if vG < vmin || vG > vmax {
-			pW, _, _ = polyMax(is, vs, vmin, vmax, math.Inf(1))
-			pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
-		} else if iG > imax {
-			pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
-		}
-		p, v := pC, vC
-		if opt.Tracker == LocalClimb {
-			p, v = climb(is, vs, prevV, vmin, vmax, imax)
-			prevV = v
-			if p <= 0 {
-				prevV = math.NaN()
+			pt.un[s] = un
+			if opt.ModuleLevel {
+				var dc float64
+				for _, str := range job.in {
+					for _, k := range str {
+						dc += float64(y.curveMPP[y.modCurve[row+k]]) * opt.ModuleLevelEff
+					}
+				}
+				pt.p[s] = dc
+				pt.globalWh += dc * h
+				continue
 			}
+			is, vs := y.inputCurve(&sc, s, job.in, job.strs)
+			pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
+			pW, pC, vC := pG, pG, vG
+			// Usually the global maximum is inside the window and the current limit: then the
+			// constrained searches are not needed.
+			if vG < vmin || vG > vmax {
+				pW, _, _ = polyMax(is, vs, vmin, vmax, math.Inf(1))
+				pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
+			} else if iG > imax {
+				pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
+			}
+			p, v := pC, vC
+			if opt.Tracker == LocalClimb {
+				p, v = climb(is, vs, prevV[j], vmin, vmax, imax)
+				prevV[j] = v
+				if p <= 0 {
+					prevV[j] = math.NaN()
+				}
+			}
+			pt.globalWh += pG * h
+			pt.windowWh += (pG - pW) * h
+			pt.currentWh += (pW - pC) * h
+			pt.trackerWh += (pC - p) * h
+			pt.p[s] = p
+			pt.pv[s] = p * v
 		}
-		pt.globalWh += pG * h
-		pt.windowWh += (pG - pW) * h
-		pt.currentWh += (pW - pC) * h
-		pt.trackerWh += (pC - p) * h
-		pt.p[s] = p
-		pt.pv[s] = p * v
 	}
-	return pt
+	return pts
 }
 
 // converterPart is the share of modules with converters of their own: each at its own

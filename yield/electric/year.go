@@ -695,36 +695,30 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 	off := int(y.gridOff[s])
 	for b, str := range in {
 		sc.isums[b] = growInt64(sc.isums[b], np)
-		isum := sc.isums[b]
+		sc.sums[b] = grow(sc.sums[b], np)
+		sc.is[b] = sc.gi
+		isum, sum := sc.isums[b], sc.sums[b]
 		if strs != nil && strs[b].v != nil {
 			r := strs[b]
-			copy(isum, r.v[off:off+np])
+			var add, sub []int32
 			if r.add >= 0 {
-				addCurve(isum, y.curve(y.modCurve[row+r.add], np), 1)
+				add = y.curve(y.modCurve[row+r.add], np)
 			}
 			if r.sub >= 0 {
-				addCurve(isum, y.curve(y.modCurve[row+r.sub], np), -1)
+				sub = y.curve(y.modCurve[row+r.sub], np)
 			}
+			fromParent(isum, sum, r.v[off:off+np], add, sub)
 			continue
 		}
 		clear(isum)
 		sc.pairs[b] = y.addString(isum, row, str, sc.pairs[b])
+		for k, x := range isum {
+			sum[k] = float64(x) * voltQuantum
+		}
 	}
 	same := true
 	for b := 1; b < ns && same; b++ {
 		same = slices.Equal(sc.isums[b], sc.isums[0])
-	}
-	last := ns
-	if same {
-		last = 1
-	}
-	for b := range last {
-		sc.sums[b] = grow(sc.sums[b], np)
-		sum := sc.sums[b]
-		for k, x := range sc.isums[b] {
-			sum[k] = float64(x) * voltQuantum
-		}
-		sc.is[b] = sc.gi
 	}
 	if same {
 		if ns == 1 {
@@ -739,8 +733,41 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 	return sc.m.parallel(sc.is[:ns], sc.sums[:ns])
 }
 
+// fromParent writes a string's voltages read from its parent's (pv) plus the curve add less
+// the curve sub (either may be nil), in units of voltQuantum into isum and in volts into sum:
+// one pass where a copy, two additions and a conversion would take four.
+func fromParent(isum []int64, sum []float64, pv []int64, add, sub []int32) {
+	n := len(pv)
+	isum, sum = isum[:n], sum[:n]
+	switch {
+	case add != nil && sub != nil:
+		add, sub = add[:n], sub[:n]
+		for k, x := range pv {
+			x += int64(add[k]) - int64(sub[k])
+			isum[k], sum[k] = x, float64(x)*voltQuantum
+		}
+	case add != nil:
+		add = add[:n]
+		for k, x := range pv {
+			x += int64(add[k])
+			isum[k], sum[k] = x, float64(x)*voltQuantum
+		}
+	case sub != nil:
+		sub = sub[:n]
+		for k, x := range pv {
+			x -= int64(sub[k])
+			isum[k], sum[k] = x, float64(x)*voltQuantum
+		}
+	default:
+		for k, x := range pv {
+			isum[k], sum[k] = x, float64(x)*voltQuantum
+		}
+	}
+}
+
 // appendPairs appends the distinct curves of the string's modules at the step starting at
-// row, each with the number of modules that have it, in curve order.
+// row, each with the number of modules that have it, in the string's order (whole units add
+// exactly in any order).
 func (y *Year) appendPairs(pr []curveCount, row int, str []int) []curveCount {
 modules:
 	for _, k := range str {
@@ -753,7 +780,6 @@ modules:
 		}
 		pr = append(pr, curveCount{c, 1})
 	}
-	slices.SortFunc(pr, func(a, b curveCount) int { return int(a.c - b.c) })
 	return pr
 }
 
@@ -762,10 +788,27 @@ modules:
 // for reuse.
 func (y *Year) addString(sum []int64, row int, str []int, pr []curveCount) []curveCount {
 	pr = y.appendPairs(pr[:0], row, str)
-	for _, p := range pr {
-		addCurve(sum, y.curve(p.c, len(sum)), int64(p.n))
+	np := len(sum)
+	j := 0
+	for ; j+4 <= len(pr); j += 4 {
+		p := pr[j : j+4]
+		addCurves4(sum, y.curve(p[0].c, np), y.curve(p[1].c, np), y.curve(p[2].c, np), y.curve(p[3].c, np),
+			int64(p[0].n), int64(p[1].n), int64(p[2].n), int64(p[3].n))
+	}
+	for _, p := range pr[j:] {
+		addCurve(sum, y.curve(p.c, np), int64(p.n))
 	}
 	return pr
+}
+
+// addCurves4 adds fa × a + fb × b + fc × c + fd × d to sum, point by point: four curves a
+// pass, so that sum is read and written once for four.
+func addCurves4(sum []int64, a, b, c, d []int32, fa, fb, fc, fd int64) {
+	n := len(sum)
+	a, b, c, d = a[:n], b[:n], c[:n], d[:n]
+	for k := range sum {
+		sum[k] += int64(a[k])*fa + int64(b[k])*fb + int64(c[k])*fc + int64(d[k])*fd
+	}
 }
 
 // addCurve adds f × cv to sum, point by point.
