@@ -152,16 +152,19 @@ func ParallelSum(cs ...Curve) Curve {
 // merger holds scratch space for parallel merges so the year engine does not
 // allocate per step.
 type merger struct {
-	k      []int
-	oi, ov []float64
+	k        []int
+	oi, ov   []float64
+	own, oth []float64 // one breakpoint's currents
 }
 
-// parallel merges polylines (is[s], vs[s]) into the polyline of their
-// parallel connection. It walks the breakpoints of all inputs in descending
-// voltage (on equal voltages the lower input first); at each, every other
-// input's current is interpolated on its current segment and added in input
-// order. Cost O(S²·K) for S inputs of K points; two inputs, the usual case of
-// strings on one MPPT input, take a two-pointer walk of their own.
+// parallel merges polylines (is[s], vs[s]) into the polyline of their parallel connection.
+// It walks the inputs' points in descending voltage; the inputs with a point at a voltage
+// give one breakpoint together, whose current is the sum of their points' currents plus the
+// sum of the other inputs' currents interpolated on their segments at that voltage, each sum
+// taken in increasing order of the terms. The polyline is therefore the same to the bit in any
+// order of the inputs, so that an input of strings gives the same result however its strings
+// are listed. Cost O(S²·K) for S inputs of K points; two and three inputs, the usual cases of
+// strings on one MPPT input, take walks of their own.
 func (m *merger) parallel(is, vs [][]float64) ([]float64, []float64) {
 	switch {
 	case len(is) == 2 && len(is[0]) > 1 && len(is[1]) > 1:
@@ -187,36 +190,53 @@ func (m *merger) walkFrom(is, vs [][]float64) ([]float64, []float64) {
 	oi, ov := m.oi, m.ov
 	for {
 		// Next breakpoint: the highest voltage among the inputs' next points.
-		best := -1
-		bv := math.Inf(-1)
+		bv, any := math.Inf(-1), false
 		for s, k := range m.k {
-			if k < len(vs[s]) && vs[s][k] > bv {
-				best, bv = s, vs[s][k]
+			if k < len(vs[s]) && (!any || vs[s][k] > bv) {
+				bv, any = vs[s][k], true
 			}
 		}
-		if best < 0 {
+		if !any {
 			break
 		}
-		tot := is[best][m.k[best]]
+		m.own, m.oth = m.own[:0], m.oth[:0]
 		for s, k := range m.k {
 			switch {
-			case s == best:
+			case k < len(vs[s]) && vs[s][k] == bv:
+				m.own = append(m.own, is[s][k])
+				m.k[s]++
 			case k > 0 && k < len(is[s]):
-				tot += onSegment(is[s], vs[s], k, bv)
+				m.oth = append(m.oth, onSegment(is[s], vs[s], k, bv))
 			default:
-				tot += currentOff(is[s], vs[s], k, bv)
+				m.oth = append(m.oth, currentOff(is[s], vs[s], k, bv))
 			}
 		}
-		oi = append(oi, tot)
+		oi = append(oi, sortedSum(m.own)+sortedSum(m.oth))
 		ov = append(ov, bv)
-		m.k[best]++
 	}
 	m.oi, m.ov = oi, ov
 	return oi, ov
 }
 
-// parallel3 is parallel for three inputs of at least two points each, to the bit: a walk of its own while every input
-// has points left (each other input's next point is then inside it), then parallelN's.
+// sortedSum returns the sum of xs taken in increasing order (xs is sorted in place): the same
+// bits in any order of the terms.
+func sortedSum(xs []float64) float64 {
+	for i := 1; i < len(xs); i++ { // insertion sort: a few terms
+		for j := i; j > 0 && xs[j] < xs[j-1]; j-- {
+			xs[j], xs[j-1] = xs[j-1], xs[j]
+		}
+	}
+	var t float64
+	for _, x := range xs {
+		t += x
+	}
+	return t
+}
+
+// parallel3 is parallel for three inputs of at least two points each, to the bit: a walk of
+// its own while every input has points left (each other input's next point is then not past
+// its last; see inside), then parallelN's. A sum of two terms is the same in either order;
+// three points at one voltage, which is rare, go through sortedSum.
 func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
 	ia, ib, ic := is[0], is[1], is[2]
 	va, vb, vc := vs[0], vs[1], vs[2]
@@ -226,18 +246,35 @@ func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
 	for ka < na && kb < nb && kc < nc {
 		xa, xb, xc := va[ka], vb[kb], vc[kc]
 		switch {
-		case xa >= xb && xa >= xc:
-			oi = append(oi, ia[ka]+inside(ib, vb, kb, xa)+inside(ic, vc, kc, xa))
+		case xa > xb && xa > xc:
+			oi = append(oi, ia[ka]+(inside(ib, vb, kb, xa)+inside(ic, vc, kc, xa)))
 			ov = append(ov, xa)
 			ka++
-		case xb >= xc:
-			oi = append(oi, ib[kb]+inside(ia, va, ka, xb)+inside(ic, vc, kc, xb))
+		case xb > xa && xb > xc:
+			oi = append(oi, ib[kb]+(inside(ia, va, ka, xb)+inside(ic, vc, kc, xb)))
 			ov = append(ov, xb)
 			kb++
-		default:
-			oi = append(oi, ic[kc]+inside(ia, va, ka, xc)+inside(ib, vb, kb, xc))
+		case xc > xa && xc > xb:
+			oi = append(oi, ic[kc]+(inside(ia, va, ka, xc)+inside(ib, vb, kb, xc)))
 			ov = append(ov, xc)
 			kc++
+		case xa == xb && xa > xc:
+			oi = append(oi, (ia[ka]+ib[kb])+inside(ic, vc, kc, xa))
+			ov = append(ov, xa)
+			ka, kb = ka+1, kb+1
+		case xa == xc && xa > xb:
+			oi = append(oi, (ia[ka]+ic[kc])+inside(ib, vb, kb, xa))
+			ov = append(ov, xa)
+			ka, kc = ka+1, kc+1
+		case xb == xc && xb > xa:
+			oi = append(oi, (ib[kb]+ic[kc])+inside(ia, va, ka, xb))
+			ov = append(ov, xb)
+			kb, kc = kb+1, kc+1
+		default: // all three at one voltage
+			m.own = append(m.own[:0], ia[ka], ib[kb], ic[kc])
+			oi = append(oi, sortedSum(m.own))
+			ov = append(ov, xa)
+			ka, kb, kc = ka+1, kb+1, kc+1
 		}
 	}
 	m.k = append(m.k[:0], ka, kb, kc)
@@ -260,15 +297,19 @@ func (m *merger) parallel2(ia, va, ib, vb []float64) ([]float64, []float64) {
 	oi, ov := slices.Grow(m.oi[:0], na+nb), slices.Grow(m.ov[:0], na+nb)
 	ka, kb := 0, 0
 	for ka < na && kb < nb {
-		if x := va[ka]; x >= vb[kb] {
-			oi = append(oi, ia[ka]+inside(ib, vb, kb, x))
-			ov = append(ov, x)
+		switch xa, xb := va[ka], vb[kb]; {
+		case xa > xb:
+			oi = append(oi, ia[ka]+inside(ib, vb, kb, xa))
+			ov = append(ov, xa)
 			ka++
-		} else {
-			x = vb[kb]
-			oi = append(oi, ib[kb]+inside(ia, va, ka, x))
-			ov = append(ov, x)
+		case xb > xa:
+			oi = append(oi, ib[kb]+inside(ia, va, ka, xb))
+			ov = append(ov, xb)
 			kb++
+		default:
+			oi = append(oi, ia[ka]+ib[kb])
+			ov = append(ov, xa)
+			ka, kb = ka+1, kb+1
 		}
 	}
 	for ; ka < na; ka++ {

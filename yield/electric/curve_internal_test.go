@@ -191,3 +191,57 @@ func BenchmarkAddString(b *testing.B) {
 		pr = y.addString(sum, 0, str, pr)
 	}
 }
+
+// Strings put in parallel give the same polyline to the bit in every order, ties of voltage
+// included, so that an input's result does not depend on how its strings are listed (the
+// evaluation cache reads a neighbour's steps from a parent whose strings sort otherwise).
+func TestParallelAnyOrder(t *testing.T) {
+	rng := rand.New(rand.NewPCG(8, 1))
+	tests := []struct {
+		name string
+		n    int // inputs
+		ties bool
+	}{
+		{"two", 2, false},
+		{"two with ties", 2, true},
+		{"three", 3, false},
+		{"three with ties", 3, true},
+		{"four with ties", 4, true},
+		{"five", 5, false},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			for trial := range 40 {
+				is, vs := make([][]float64, tc.n), make([][]float64, tc.n)
+				for s := range tc.n {
+					is[s], vs[s] = randomPolyline(rng, 30+rng.IntN(40), 500-20*rng.Float64(), trial%2 == 0)
+					if tc.ties && s > 0 {
+						for k := 0; k < min(len(vs[s]), len(vs[0])); k += 3 {
+							vs[s][k] = vs[0][k]
+						}
+						slices.SortFunc(vs[s], func(x, y float64) int { return -cmpF(x, y) })
+					}
+				}
+				var m merger
+				wi, wv := m.parallel(is, vs)
+				wi, wv = slices.Clone(wi), slices.Clone(wv)
+				perm := rng.Perm(tc.n)
+				pi, pv := make([][]float64, tc.n), make([][]float64, tc.n)
+				for j, s := range perm {
+					pi[j], pv[j] = is[s], vs[s]
+				}
+				gi, gv := m.parallel(pi, pv)
+				if !slices.Equal(gi, wi) || !slices.Equal(gv, wv) {
+					t.Fatalf("trial %d: order %v gives another polyline", trial, perm)
+				}
+				// Voltages fall strictly where no input has a flat part: points of several
+				// inputs at one voltage are one breakpoint.
+				for k := 1; k < len(wv) && trial%2 == 1; k++ {
+					if !(wv[k] < wv[k-1]) {
+						t.Fatalf("trial %d: voltage %g after %g", trial, wv[k], wv[k-1])
+					}
+				}
+			}
+		})
+	}
+}

@@ -19,6 +19,10 @@ import (
 type inputYear struct {
 	key       string
 	p, pv, un []float64 // per step: W, W·V, W
+	// Per step, for string inputs: the global maximum, the maximum inside the window and the
+	// maximum inside the window and the current limit (W), from which the loss terms are
+	// summed; a neighbour's input that equals this one at a step takes them from here.
+	pg, pw, pc []float64
 	// volts reports whether pv holds an operating voltage (string inputs) or not
 	// (module-level converters, which set their own).
 	volts                                    bool
@@ -43,7 +47,9 @@ type EvalCache struct {
 	bytes int64
 	hits  int64
 	calls int64
-	strs  stringCache
+	// reused counts input-steps read from a parent input (see inputJob.parent).
+	reused int64
+	strs   stringCache
 }
 
 type cacheKey struct {
@@ -82,12 +88,12 @@ func (c *EvalCache) put(k cacheKey, pt *inputYear) *inputYear {
 	if limit <= 0 {
 		limit = 64 << 20
 	}
-	size := int64(len(pt.p)) * 3 * 8
+	size := pt.bytes()
 	for c.bytes+size > limit && len(c.fifo) > 0 {
 		old := c.fifo[0]
 		c.fifo = c.fifo[1:]
 		if e := c.m[old]; e != nil {
-			c.bytes -= int64(len(e.p)) * 3 * 8
+			c.bytes -= e.bytes()
 			delete(c.m, old)
 		}
 	}
@@ -95,6 +101,18 @@ func (c *EvalCache) put(k cacheKey, pt *inputYear) *inputYear {
 	c.fifo = append(c.fifo, k)
 	c.bytes += size
 	return pt
+}
+
+// bytes is what the entry's arrays take.
+func (pt *inputYear) bytes() int64 {
+	return 8 * int64(len(pt.p)+len(pt.pv)+len(pt.un)+len(pt.pg)+len(pt.pw)+len(pt.pc))
+}
+
+// peek returns a kept entry without counting a lookup.
+func (c *EvalCache) peek(k cacheKey) *inputYear {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	return c.m[k]
 }
 
 // checkConverters reports a module with a converter of its own that is out of range, listed
@@ -156,9 +174,19 @@ func (y *Year) parts(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) []*i
 				strs = append(strs, c.stringRecipe(y, str))
 			}
 		}
-		todo = append(todo, inputJob{in: canon, strs: strs, key: key})
+		job := inputJob{in: canon, strs: strs, key: key}
+		if opt.Tracker == GlobalMPP && strs != nil {
+			job.parent, job.swaps = c.parentInput(y, prefix, strs)
+		}
+		todo = append(todo, job)
 	}
-	for j, pt := range y.inputParts(todo, inv, opt) {
+	pts, reused := y.inputParts(todo, inv, opt)
+	if c != nil && reused > 0 {
+		c.mu.Lock()
+		c.reused += reused
+		c.mu.Unlock()
+	}
+	for j, pt := range pts {
 		pt.key = todo[j].key
 		if c != nil {
 			pt = c.put(cacheKey{y, pt.key}, pt)
@@ -206,6 +234,43 @@ type inputJob struct {
 	in   [][]int
 	strs []stringRecipe
 	key  string
+	// parent is a kept input whose strings are this one's but for the modules swapped in
+	// swaps (in, out): at a step where every swapped pair shares a curve
+	// the two inputs are the same, and the step is read from parent.
+	parent *inputYear
+	swaps  [][2]int
+}
+
+// parentInput finds, for an input whose strings' recipes are strs, a kept input of the same
+// year and options whose strings are the recipes' parents, each the same string or one module
+// swapped: what a layout search's swap leaves of its parent. Strings that grew or shrank give
+// none. The order of the strings does not matter: strings are put in parallel the same to the
+// bit in any order (see merger.parallel).
+func (c *EvalCache) parentInput(y *Year, prefix []byte, strs []stringRecipe) (*inputYear, [][2]int) {
+	var swaps [][2]int
+	parents := make([][]int, len(strs))
+	for b, r := range strs {
+		if r.parent == nil {
+			return nil, nil
+		}
+		if r.padd >= 0 || r.psub >= 0 {
+			if r.padd < 0 || r.psub < 0 {
+				return nil, nil
+			}
+			swaps = append(swaps, [2]int{r.padd, r.psub})
+		}
+		parents[b] = r.parent.mods
+	}
+	if len(swaps) == 0 {
+		return nil, nil
+	}
+	slices.SortFunc(parents, slices.Compare)
+	key := string(appendInputKey(slices.Clone(prefix), parents))
+	pt := c.peek(cacheKey{y, key})
+	if pt == nil || pt.pg == nil {
+		return nil, nil
+	}
+	return pt, swaps
 }
 
 // inputParts computes the inputs' shares of the year: at every step the strings' curves added
@@ -213,14 +278,18 @@ type inputJob struct {
 // the current limit, and the loss terms. The inputs go through the steps together, so that a
 // step's curves are read from memory once for all of them; each input's share is what it
 // would be alone.
-func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) []*inputYear {
+func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts []*inputYear, reused int64) {
 	if len(jobs) == 0 {
-		return nil
+		return nil, 0
 	}
-	pts := make([]*inputYear, len(jobs))
+	pts = make([]*inputYear, len(jobs))
 	prevV := make([]float64, len(jobs))
 	for j := range jobs {
 		pts[j] = &inputYear{p: make([]float64, y.steps), pv: make([]float64, y.steps), un: make([]float64, y.steps), volts: !opt.ModuleLevel}
+		if !opt.ModuleLevel {
+			pt := pts[j]
+			pt.pg, pt.pw, pt.pc = make([]float64, y.steps), make([]float64, y.steps), make([]float64, y.steps)
+		}
 		prevV[j] = math.NaN()
 	}
 	vmin, vmax, imax := inv.MPPTMinV, inv.MPPTMaxV, inv.MaxInputCurrentA
@@ -249,6 +318,17 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) []*inp
 				pt.globalWh += dc * h
 				continue
 			}
+			if par := job.parent; par != nil && y.sameAt(row, job.swaps) {
+				pG, pW, pC, p := par.pg[s], par.pw[s], par.pc[s], par.p[s]
+				pt.globalWh += pG * h
+				pt.windowWh += (pG - pW) * h
+				pt.currentWh += (pW - pC) * h
+				pt.trackerWh += (pC - p) * h
+				pt.pg[s], pt.pw[s], pt.pc[s] = pG, pW, pC
+				pt.p[s], pt.pv[s] = p, par.pv[s]
+				reused++
+				continue
+			}
 			is, vs := y.inputCurve(&sc, s, job.in, job.strs)
 			pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
 			pW, pC, vC := pG, pG, vG
@@ -260,6 +340,7 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) []*inp
 			} else if iG > imax {
 				pC, vC, _ = polyMax(is, vs, vmin, vmax, imax)
 			}
+			pt.pg[s], pt.pw[s], pt.pc[s] = pG, pW, pC
 			p, v := pC, vC
 			if opt.Tracker == LocalClimb {
 				p, v = climb(is, vs, prevV[j], vmin, vmax, imax)
@@ -276,7 +357,18 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) []*inp
 			pt.pv[s] = p * v
 		}
 	}
-	return pts
+	return pts, reused
+}
+
+// sameAt reports whether every pair of swapped modules shares a curve at the step starting at
+// row: the strings' voltages are then those of the parent's.
+func (y *Year) sameAt(row int, swaps [][2]int) bool {
+	for _, sw := range swaps {
+		if y.modCurve[row+sw[0]] != y.modCurve[row+sw[1]] {
+			return false
+		}
+	}
+	return true
 }
 
 // converterPart is the share of modules with converters of their own: each at its own
@@ -331,6 +423,11 @@ const nominalBytes = 256
 type stringRecipe struct {
 	v        []int64
 	add, sub int
+	// parent is the kept string this one is (padd and psub −1) or differs from by module padd
+	// in and module psub out (either −1: moved in or out only), whether or not its year is
+	// built; nil: none.
+	parent     *stringYear
+	padd, psub int
 }
 
 // stringCache keeps strings, the least recently used dropped first, and finds for a string a
@@ -387,13 +484,13 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 		if !sy.ready.Load() && asked >= 2 {
 			c.build(sy, base, add, sub)
 		}
+		self := stringRecipe{add: -1, sub: -1, parent: sy, padd: -1, psub: -1}
 		if sy.ready.Load() {
-			return stringRecipe{v: sy.v, add: -1, sub: -1}
+			self.v = sy.v
+		} else if base != nil {
+			self.v, self.add, self.sub = base.v, add, sub
 		}
-		if base != nil {
-			return stringRecipe{v: base.v, add: add, sub: sub}
-		}
-		return stringRecipe{add: -1, sub: -1}
+		return self
 	}
 	var b *stringYear
 	add, sub := -1, -1
@@ -417,6 +514,7 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 			}
 		}
 	}
+	out := stringRecipe{add: -1, sub: -1, parent: b, padd: add, psub: sub}
 	var bb *stringYear
 	ba, bs := -1, -1
 	if b != nil {
@@ -443,10 +541,10 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 		c.strs.recipe++
 	}
 	c.mu.Unlock()
-	if b == nil {
-		return stringRecipe{add: -1, sub: -1}
+	if b != nil {
+		out.v, out.add, out.sub = b.v, add, sub
 	}
-	return stringRecipe{v: b.v, add: add, sub: sub}
+	return out
 }
 
 // build computes sy's year once, from base (plus add, less sub) when base's year is ready,

@@ -209,6 +209,11 @@ func TestEvaluateCachedNearStrings(t *testing.T) {
 	if built, near := c.StringStats(); built == 0 || near < 2 {
 		t.Errorf("%d strings' years built, %d strings read from a parent: the cache read none from a near string", built, near)
 	}
+	// The swaps take the steps where the swapped modules share a curve (at least the 30 % of
+	// steps without shade, for each of the two swaps) from the base's input.
+	if c.reused < 2*80*3/10 {
+		t.Errorf("%d input-steps read from a parent input, want at least %d", c.reused, 2*80*3/10)
+	}
 }
 
 // Goroutines sharing a cache, with a budget small enough that strings are dropped while
