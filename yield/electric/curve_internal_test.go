@@ -172,12 +172,12 @@ func BenchmarkAddString(b *testing.B) {
 	const n, np = 22, 80
 	rng := rand.New(rand.NewPCG(4, 4))
 	y := &Year{n: n, steps: 1, modCurve: make([]int32, n)}
+	v := make([]int32, n*np)
+	for j := range v {
+		v[j] = int32(rng.IntN(1 << 25))
+	}
+	y.adoptCurves(v, np)
 	for k := range n {
-		v := make([]int32, np)
-		for j := range v {
-			v[j] = int32(rng.IntN(1 << 25))
-		}
-		y.addCurve(v)
 		y.modCurve[k] = int32(k)
 	}
 	str := make([]int, n)
