@@ -415,43 +415,76 @@ func polyMax(is, vs []float64, vlo, vhi, imax float64) (pW, vV, iA float64) {
 		if bi*bv <= pW {
 			continue
 		}
-		di, dv := ib-ia, vb-va
-		t0, t1 := 0.0, 1.0
-		// Feasible t: V in [vlo, vhi], I in [0, imax].
-		if dv != 0 {
-			ta, tb := (vlo-va)/dv, (vhi-va)/dv
-			if ta > tb {
-				ta, tb = tb, ta
-			}
-			t0, t1 = fmax(t0, ta), fmin(t1, tb)
-		} else if va < vlo || va > vhi {
-			continue
-		}
-		if di != 0 {
-			ta, tb := (0-ia)/di, (imax-ia)/di
-			if ta > tb {
-				ta, tb = tb, ta
-			}
-			t0, t1 = fmax(t0, ta), fmin(t1, tb)
-		} else if ia < 0 || ia > imax {
-			continue
-		}
-		if t0 > t1 {
-			continue
-		}
-		t := t1
-		if q := di * dv; q < 0 {
-			t = -(ia*dv + va*di) / (2 * q)
-			t = fmin(fmax(t, t0), t1)
-		} else if ia*va+t0*(ia*dv+va*di) > ia*va+t1*(ia*dv+va*di) {
-			t = t0
-		}
-		i, v := ia+t*di, va+t*dv
-		if p := i * v; p > pW {
+		if p, v, i, ok := segmentMax(ia, va, ib, vb, vlo, vhi, imax); ok && p > pW {
 			pW, vV, iA = p, v, i
 		}
 	}
 	return pW, vV, iA
+}
+
+// polyMaxFree is polyMax without bounds (vlo ≤ 0, vhi and imax infinite), to the bit, with
+// the bounds' comparisons left out: the operating point of most steps.
+func polyMaxFree(is, vs []float64) (pW, vV, iA float64) {
+	n := len(is)
+	if n < 2 {
+		return polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
+	}
+	vs = vs[:n]
+	for j, i := range is {
+		if v := vs[j]; i >= 0 && v >= 0 {
+			if p := i * v; p > pW {
+				pW, vV, iA = p, v, i
+			}
+		}
+	}
+	for j := range n - 1 {
+		ia, va, ib, vb := is[j], vs[j], is[j+1], vs[j+1]
+		if ib <= 0 || va <= 0 && vb < 0 || ib*va <= pW {
+			continue
+		}
+		if p, v, i, ok := segmentMax(ia, va, ib, vb, 0, math.Inf(1), math.Inf(1)); ok && p > pW {
+			pW, vV, iA = p, v, i
+		}
+	}
+	return pW, vV, iA
+}
+
+// segmentMax returns the highest power on the segment from (ia, va) to (ib, vb) with
+// vlo ≤ V ≤ vhi and 0 ≤ I ≤ imax, and false when no part of it is feasible.
+func segmentMax(ia, va, ib, vb, vlo, vhi, imax float64) (pW, vV, iA float64, ok bool) {
+	di, dv := ib-ia, vb-va
+	t0, t1 := 0.0, 1.0
+	// Feasible t: V in [vlo, vhi], I in [0, imax].
+	if dv != 0 {
+		ta, tb := (vlo-va)/dv, (vhi-va)/dv
+		if ta > tb {
+			ta, tb = tb, ta
+		}
+		t0, t1 = fmax(t0, ta), fmin(t1, tb)
+	} else if va < vlo || va > vhi {
+		return 0, 0, 0, false
+	}
+	if di != 0 {
+		ta, tb := (0-ia)/di, (imax-ia)/di
+		if ta > tb {
+			ta, tb = tb, ta
+		}
+		t0, t1 = fmax(t0, ta), fmin(t1, tb)
+	} else if ia < 0 || ia > imax {
+		return 0, 0, 0, false
+	}
+	if t0 > t1 {
+		return 0, 0, 0, false
+	}
+	t := t1
+	if q := di * dv; q < 0 {
+		t = -(ia*dv + va*di) / (2 * q)
+		t = fmin(fmax(t, t0), t1)
+	} else if ia*va+t0*(ia*dv+va*di) > ia*va+t1*(ia*dv+va*di) {
+		t = t0
+	}
+	i, v := ia+t*di, va+t*dv
+	return i * v, v, i, true
 }
 
 // fmin and fmax are math.Min and math.Max for operands known not to be NaN

@@ -245,3 +245,18 @@ func TestParallelAnyOrder(t *testing.T) {
 		})
 	}
 }
+
+// polyMaxFree is polyMax without bounds to the bit, on polylines with reverse current at
+// the start and negative voltage at the end (bypassed strings), flat parts included.
+func TestPolyMaxFreeAsBounded(t *testing.T) {
+	rng := rand.New(rand.NewPCG(6, 6))
+	for trial := range 2000 {
+		n := 1 + rng.IntN(150)
+		is, vs := randomPolyline(rng, n, 10+500*rng.Float64(), trial%3 == 0)
+		gp, gv, gi := polyMaxFree(is, vs)
+		wp, wv, wi := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
+		if gp != wp || gv != wv || gi != wi {
+			t.Fatalf("trial %d (%d points): (%v W, %v V, %v A), bounded (%v W, %v V, %v A)", trial, n, gp, gv, gi, wp, wv, wi)
+		}
+	}
+}

@@ -330,7 +330,7 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts [
 				continue
 			}
 			is, vs := y.inputCurve(&sc, s, job.in, job.strs)
-			pG, vG, iG := polyMax(is, vs, 0, math.Inf(1), math.Inf(1))
+			pG, vG, iG := polyMaxFree(is, vs)
 			pW, pC, vC := pG, pG, vG
 			// Usually the global maximum is inside the window and the current limit: then the
 			// constrained searches are not needed.
@@ -556,16 +556,17 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
 		y := sy.y
 		v := make([]int64, len(y.gridI))
 		if base != nil && base.ready.Load() {
-			copy(v, base.v)
 			for s := range y.steps {
 				off, np := int(y.gridOff[s]), int(y.gridOff[s+1]-y.gridOff[s])
 				row := s * y.n
+				var a, b []int32
 				if add >= 0 {
-					addCurve(v[off:off+np], y.curve(y.modCurve[row+add], np), 1)
+					a = y.curve(y.modCurve[row+add], np)
 				}
 				if sub >= 0 {
-					addCurve(v[off:off+np], y.curve(y.modCurve[row+sub], np), -1)
+					b = y.curve(y.modCurve[row+sub], np)
 				}
+				plusMinus(v[off:off+np], base.v[off:off+np], a, b)
 			}
 		} else {
 			var pr []curveCount
