@@ -434,8 +434,8 @@ type stringRecipe struct {
 // kept one that differs by a module moved in, moved out or swapped.
 type stringCache struct {
 	byKey  map[stringKey]*stringYear
-	minus  map[stringKey]*stringYear // key of the string less one module → the string
-	order  list.List                 // most recently used first
+	minus  map[stringKey][]*stringYear // key of the string less one module → the strings
+	order  list.List                   // most recently used first
 	bytes  int64
 	built  int64 // years built
 	recipe int64 // strings read from a parent one module away
@@ -474,7 +474,7 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 	cs := &c.strs
 	if cs.byKey == nil {
 		cs.byKey = map[stringKey]*stringYear{}
-		cs.minus = map[stringKey]*stringYear{}
+		cs.minus = map[stringKey][]*stringYear{}
 	}
 	if sy := cs.byKey[stringKey{y, key}]; sy != nil {
 		cs.order.MoveToFront(sy.elem)
@@ -492,25 +492,42 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 		}
 		return self
 	}
+	// Of the kept strings one module away, a built one is read at once, one asked for before
+	// will be built now, any other only counts the asking: the first of the best kind.
 	var b *stringYear
 	add, sub := -1, -1
+	rank := func(e *stringYear) int {
+		switch {
+		case e.ready.Load():
+			return 2
+		case e.asked >= 1:
+			return 1
+		}
+		return 0
+	}
+	consider := func(e *stringYear, a, s int) {
+		if b == nil || rank(e) > rank(b) {
+			b, add, sub = e, a, s
+		}
+	}
 	for j := range mods {
 		k := string(modsKey(buf, mods, j))
 		if e := cs.byKey[stringKey{y, k}]; e != nil {
-			b, add = e, mods[j] // one module moved in
-			break
+			consider(e, mods[j], -1) // one module moved in
 		}
-		if e := cs.minus[stringKey{y, k}]; e != nil {
+		for _, e := range cs.minus[stringKey{y, k}] {
 			if x, ok := oneMore(e.mods, mods, mods[j]); ok {
-				b, add, sub = e, mods[j], x // one module swapped
-				break
+				consider(e, mods[j], x) // one module swapped
 			}
 		}
+		if b != nil && rank(b) == 2 {
+			break
+		}
 	}
-	if b == nil {
-		if e := cs.minus[stringKey{y, key}]; e != nil {
+	if b == nil || rank(b) < 2 {
+		for _, e := range cs.minus[stringKey{y, key}] {
 			if x, ok := oneMore(e.mods, mods, -1); ok {
-				b, sub = e, x // one module moved out
+				consider(e, -1, x) // one module moved out
 			}
 		}
 	}
@@ -626,7 +643,8 @@ func (c *EvalCache) putString(sy *stringYear) {
 	cs.bytes += nominalBytes
 	var buf []byte
 	for j := range sy.mods {
-		cs.minus[stringKey{sy.y, string(modsKey(buf, sy.mods, j))}] = sy
+		mk := stringKey{sy.y, string(modsKey(buf, sy.mods, j))}
+		cs.minus[mk] = append(cs.minus[mk], sy)
 	}
 	if sy.base != nil {
 		sy.base.derived = append(sy.base.derived, sy)
@@ -659,7 +677,9 @@ func (c *EvalCache) dropString(e *stringYear) {
 	var buf []byte
 	for j := range e.mods {
 		mk := stringKey{e.y, string(modsKey(buf, e.mods, j))}
-		if cs.minus[mk] == e {
+		if l := slices.DeleteFunc(cs.minus[mk], func(d *stringYear) bool { return d == e }); len(l) > 0 {
+			cs.minus[mk] = l
+		} else {
 			delete(cs.minus, mk)
 		}
 	}
