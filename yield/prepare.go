@@ -236,12 +236,22 @@ func (p *prep) shadedYear() error {
 			dirUn, difUn := c.tc.OnPlane(irradiance.View{Sky: 1, Horizon: 1, Ground: 1,
 				IAMBeam: c.iamB, IAMSky: p.skyIAM[i], IAMGround: p.gndIAM[i]})
 			ci := dst.CellIrr[i]
+			// Neighbouring cells mostly share their lit share: the value is reused while it
+			// repeats.
+			last, g := -1, 0.0
 			for k := range ci {
-				f := 1.0
+				l := 255
 				if lit != nil {
-					f = float64(lit[k]) / 255
+					l = int(lit[k])
 				}
-				ci[k] = math.Min(soil*(direct*f+diffuse), electric.MaxIrradiance)
+				if l != last {
+					f := 1.0
+					if lit != nil {
+						f = float64(l) / 255
+					}
+					last, g = l, math.Min(soil*(direct*f+diffuse), electric.MaxIrradiance)
+				}
+				ci[k] = g
 			}
 			unsh := c.tc.Total()
 			shaded := dirRaw*litFrac + difRaw
