@@ -151,6 +151,7 @@ func (m *Module) Curve(cellIrr []float64, tempC float64) Curve {
 	top := m.topCurrent(cellIrr, tempC)
 	sc := scratchPool.Get().(*curveScratch)
 	defer scratchPool.Put(sc)
+	sc.mod = nil // cell curves afresh: a call costs the same whatever came before it
 	sc.knees = m.appendKnees(sc.knees[:0], cellIrr, tempC)
 	slices.Sort(sc.knees)
 	sc.knees = slices.Compact(sc.knees)

@@ -274,6 +274,17 @@ func (b *yearBatch) start(m *Module, ws []yearWorker) {
 
 // merge appends a built batch's curves to the year, in step order.
 func (y *Year) merge(b *yearBatch) {
+	// Room for the whole year at the rate of the steps so far (and of this batch), so that
+	// the stores are not copied again and again as they grow.
+	nc, np := 0, 0
+	for j := range b.count {
+		nc += len(b.out[j].mpp)
+		np += len(b.out[j].grid)
+	}
+	done, left := b.first+b.count, y.steps-b.first
+	y.curveMPP = reserve(y.curveMPP, nc, (len(y.curveMPP)+nc)*left/done)
+	y.curveAt = reserve(y.curveAt, nc, (len(y.curveAt)+nc)*left/done)
+	y.gridI = reserve(y.gridI, np, (len(y.gridI)+np)*left/done)
 	for j := range b.count {
 		s := b.first + j
 		o := &b.out[j]
@@ -292,6 +303,15 @@ func (y *Year) merge(b *yearBatch) {
 			y.moduleUnWh[k] += float64(o.unW[k]) * h
 		}
 	}
+}
+
+// reserve returns s with room for n more elements; when it must grow, it makes room for
+// more as well.
+func reserve[T any](s []T, n, more int) []T {
+	if len(s)+n <= cap(s) {
+		return s
+	}
+	return slices.Grow(s, max(n, more))
 }
 
 // curveBlockLen is the most voltages in one block of Year.curveV (1024 curves of
