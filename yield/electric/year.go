@@ -163,7 +163,7 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), e
 			clear(in.UnshadedIrr)
 			in.Hours = 0
 			step(s, &in)
-			h, err := checkStep(m, &in, s, nModules)
+			h, err := b.takeStep(m, &in, s, j, !exact)
 			if err != nil {
 				if pending != nil {
 					pending.wg.Wait()
@@ -172,9 +172,6 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), e
 			}
 			y.hours[s] = float32(h)
 			b.hours[j] = h
-			for k := range nModules {
-				copy(b.irr[(j*nModules+k)*nc:], in.CellIrr[k])
-			}
 			copy(b.temp[j*nModules:], in.TempC)
 			copy(b.un[j*nModules:], in.UnshadedIrr)
 		}
@@ -199,10 +196,15 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), e
 // copies (steps × modules × cells × 8 bytes) a few megabytes.
 const yearBatchSteps = 16
 
-// checkStep validates one step's input and returns its length in hours.
-func checkStep(m *Module, in *StepInput, s, nModules int) (float64, error) {
-	if len(in.CellIrr) != nModules || len(in.TempC) != nModules || len(in.UnshadedIrr) != nModules {
-		return 0, outOfModelf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", nModules)
+// takeStep validates step s's input and keeps it as the batch's step j: each module's cell
+// irradiances rounded (roundCellsHash; as they are if round is false), with their hash,
+// brightest value and number of runs. It returns the step's length in hours. Checking and
+// rounding go together, a value at a time only where it changes: one pass over the cells
+// while the step function's output is still in the cache.
+func (b *yearBatch) takeStep(m *Module, in *StepInput, s, j int, round bool) (float64, error) {
+	n, nc := b.n, b.nc
+	if len(in.CellIrr) != n || len(in.TempC) != n || len(in.UnshadedIrr) != n {
+		return 0, outOfModelf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", n)
 	}
 	h := in.Hours
 	if h == 0 {
@@ -211,9 +213,17 @@ func checkStep(m *Module, in *StepInput, s, nModules int) (float64, error) {
 	if !(h > 0) || h > 24*31 {
 		return 0, outOfModelf(fmt.Sprintf("step %d: hours", s), "%g must lie in (0, 744]", in.Hours)
 	}
-	for k := range nModules {
-		if err := m.CheckCells(in.CellIrr[k], in.TempC[k]); err != nil {
-			return 0, fmt.Errorf("step %d, module %d: %w", s, k, err)
+	for k := range n {
+		ci, t := in.CellIrr[k], in.TempC[k]
+		ok := len(ci) == nc && t >= MinCellTempC && t <= MaxCellTempC
+		if ok {
+			i := j*n + k
+			b.hash[i], b.smax[i], b.runs[i], ok = roundCellsHash(b.irr[i*nc:(i+1)*nc], ci, round)
+		}
+		if !ok {
+			if err := m.CheckCells(ci, t); err != nil {
+				return 0, fmt.Errorf("step %d, module %d: %w", s, k, err)
+			}
 		}
 		if u := in.UnshadedIrr[k]; math.IsNaN(u) || u < 0 || u > MaxIrradiance {
 			return 0, outOfModelf(fmt.Sprintf("step %d, module %d: unshaded_irradiance", s, k), "%g W/m² must lie in 0..%g", u, MaxIrradiance)
@@ -226,7 +236,10 @@ func checkStep(m *Module, in *StepInput, s, nModules int) (float64, error) {
 type yearBatch struct {
 	first, count int
 	n, nc        int
-	irr          []float64 // count × n × nc
+	irr          []float64 // count × n × nc: rounded cell irradiances (see takeStep)
+	hash         []uint64  // count × n: hash of the module's irr
+	smax         []float64 // count × n: the module's brightest irr
+	runs         []int     // count × n: the module's runs of equal irr
 	temp, un     []float64 // count × n
 	hours        []float64
 	out          []stepCurves
@@ -246,6 +259,9 @@ type stepCurves struct {
 func (b *yearBatch) reset(first, count, n, nc int) {
 	b.first, b.count, b.n, b.nc = first, count, n, nc
 	b.irr = slices.Grow(b.irr[:0], count*n*nc)[:count*n*nc]
+	b.hash = slices.Grow(b.hash[:0], count*n)[:count*n]
+	b.smax = slices.Grow(b.smax[:0], count*n)[:count*n]
+	b.runs = slices.Grow(b.runs[:0], count*n)[:count*n]
 	b.temp = slices.Grow(b.temp[:0], count*n)[:count*n]
 	b.un = slices.Grow(b.un[:0], count*n)[:count*n]
 	b.hours = slices.Grow(b.hours[:0], count)[:count]
@@ -376,7 +392,6 @@ type yearWorker struct {
 	v     []float64
 	knees []float64       // knee currents (A)
 	kneeN map[float64]int // knee current → modules that have it
-	q     []float64       // n × nc: the step's quantised cell irradiances
 	qt    []float64       // n: quantised temperatures
 	seen  map[uint64]int32
 	repr  []int // local curve → module that defined it
@@ -413,34 +428,42 @@ func roundIrr(g float64) float64 {
 func roundTemp(t float64) float64 { return math.Round(t/TempStepC) * TempStepC }
 
 // roundCellsHash writes the cell irradiances irr into q, rounded (roundIrr) if round is set,
-// and returns a hash of q, its largest value (at least 0) and its number of runs of equal
-// values. The cells of one module usually take only two or three distinct values (lit, or
-// shaded by one object), so the previous rounding is reused while the value repeats, and the
-// hash mixes only where q changes (position and value): equal q give equal hashes, and NewYear
-// compares the values on a hash match, so collisions cost only time.
-func roundCellsHash(q, irr []float64, round bool) (h uint64, qmax float64, runs int) {
+// and returns a hash of q, its largest value (at least 0), its number of runs of equal values
+// and whether every value lies in 0..MaxIrradiance. The cells of one module usually take
+// only two or three distinct values (lit, or shaded by one object), so a value is checked and
+// rounded only where it changes, and the hash mixes only where q changes (position and
+// value): equal q give equal hashes, and NewYear compares the values on a hash match, so
+// collisions cost only time.
+func roundCellsHash(q, irr []float64, round bool) (h uint64, qmax float64, runs int, ok bool) {
 	h = 14695981039346656037
 	last, lastQ := math.NaN(), 0.0
 	var lastBits uint64
+	ok = true
+	q = q[:len(irr)]
 	for i, g := range irr {
-		if g != last || !round && math.Float64bits(g) != math.Float64bits(last) {
-			last = g
-			x := g
-			if round {
-				x = roundIrr(g)
-			}
-			if b := math.Float64bits(x); runs == 0 || b != lastBits {
-				h = hashMix(hashMix(h, uint64(i)), b)
-				lastBits, lastQ = b, x
-				runs++
-				if x > qmax {
-					qmax = x
-				}
+		if g == last && (round || math.Float64bits(g) == math.Float64bits(last)) {
+			q[i] = lastQ
+			continue
+		}
+		if !(g >= 0 && g <= MaxIrradiance) { // NaN too
+			ok = false
+		}
+		last = g
+		x := g
+		if round {
+			x = roundIrr(g)
+		}
+		if b := math.Float64bits(x); runs == 0 || b != lastBits {
+			h = hashMix(hashMix(h, uint64(i)), b)
+			lastBits, lastQ = b, x
+			runs++
+			if x > qmax {
+				qmax = x
 			}
 		}
 		q[i] = lastQ
 	}
-	return h, qmax, runs
+	return h, qmax, runs, ok
 }
 
 // hashMix mixes the 64-bit word x into the hash h (multiply and xor-shift).
@@ -461,10 +484,8 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 		w.unSeen = map[[2]float64]float32{}
 		w.kneeN = map[float64]int{}
 	}
-	w.q = slices.Grow(w.q[:0], n*nc)[:n*nc]
 	w.qt = slices.Grow(w.qt[:0], n)[:n]
-	irr := func(k int) []float64 { return b.irr[(j*n+k)*nc : (j*n+k+1)*nc] }
-	qirr := func(k int) []float64 { return w.q[k*nc : (k+1)*nc] }
+	qirr := func(k int) []float64 { return b.irr[(j*n+k)*nc : (j*n+k+1)*nc] }
 	temp := b.temp[j*n : (j+1)*n]
 	un := b.un[j*n : (j+1)*n]
 	o := &b.out[j]
@@ -478,7 +499,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	clear(w.kneeN)
 	top := 0.0
 	for k := range n {
-		key, smax, runs := roundCellsHash(qirr(k), irr(k), !w.exact)
+		key, smax, runs := b.hash[j*n+k], b.smax[j*n+k], b.runs[j*n+k]
 		if w.exact {
 			w.qt[k] = temp[k]
 		} else {

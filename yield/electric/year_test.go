@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -610,5 +611,41 @@ func TestQuantV(t *testing.T) {
 		if got := quantV(v); got != ref {
 			t.Fatalf("quantV(%v) = %d, math.Round gives %d", v, got, ref)
 		}
+	}
+}
+
+// TestYearBadStepNamed: a bad value anywhere in a step (checked only where the cells' value
+// changes) is refused with its step, module and field, whatever run of equal cells it ends
+// or starts.
+func TestYearBadStepNamed(t *testing.T) {
+	m := bypassCase()
+	for _, tc := range []struct {
+		name        string
+		set         func(d *StepInput)
+		where, what string
+	}{
+		{"too bright after a run", func(d *StepInput) { d.CellIrr[1][40] = MaxIrradiance * 1.5 }, "step 2, module 1: ", "cell_irradiance[40]"},
+		{"NaN at the last cell", func(d *StepInput) { d.CellIrr[2][59] = math.NaN() }, "step 2, module 2: ", "cell_irradiance[59]"},
+		{"negative first cell", func(d *StepInput) { d.CellIrr[0][0] = -1 }, "step 2, module 0: ", "cell_irradiance[0]"},
+		{"too hot", func(d *StepInput) { d.TempC[2] = MaxCellTempC + 1 }, "step 2, module 2: ", "cell_temp_c"},
+		{"NaN temperature", func(d *StepInput) { d.TempC[1] = math.NaN() }, "step 2, module 1: ", "cell_temp_c"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			_, err := NewYear(m, 3, 4, func(s int, d *StepInput) {
+				for k := range d.CellIrr {
+					for c := range d.CellIrr[k] {
+						d.CellIrr[k][c] = 800
+					}
+					d.TempC[k] = 30
+				}
+				if s == 2 {
+					tc.set(d)
+				}
+			})
+			if err == nil || !errors.Is(err, ErrOutOfModel) || !strings.HasPrefix(err.Error(), tc.where) ||
+				!strings.Contains(err.Error(), tc.what+":") {
+				t.Errorf("got %v, want an ErrOutOfModel naming %q%q", err, tc.where, tc.what)
+			}
+		})
 	}
 }
