@@ -235,7 +235,7 @@ func sortedSum(xs []float64) float64 {
 
 // parallel3 is parallel for three inputs of at least two points each, to the bit: a walk of
 // its own while every input has points left (each other input's next point is then not past
-// its last; see inside), then parallelN's. A sum of two terms is the same in either order;
+// its last; see inside), then walk2. A sum of two terms is the same in either order;
 // three points at one voltage, which is rare, go through sortedSum.
 func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
 	ia, ib, ic := is[0], is[1], is[2]
@@ -277,9 +277,49 @@ func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
 			ka, kb, kc = ka+1, kb+1, kc+1
 		}
 	}
-	m.k = append(m.k[:0], ka, kb, kc)
+	// One input is used up: the other two finish the walk with its last current.
+	switch {
+	case kc == nc:
+		oi, ov = walk2(oi, ov, ia, va, ka, ib, vb, kb, ic[nc-1])
+	case kb == nb:
+		oi, ov = walk2(oi, ov, ia, va, ka, ic, vc, kc, ib[nb-1])
+	default:
+		oi, ov = walk2(oi, ov, ib, vb, kb, ic, vc, kc, ia[na-1])
+	}
 	m.oi, m.ov = oi, ov
-	return m.walkFrom(is, vs)
+	return oi, ov
+}
+
+// walk2 finishes parallel3's walk with inputs a and b from their points ka and kb, the third
+// input used up and giving its last current cst: as walkFrom would, to the bit (a sum of two
+// terms is the same in either order).
+func walk2(oi, ov, ia, va []float64, ka int, ib, vb []float64, kb int, cst float64) ([]float64, []float64) {
+	na, nb := len(va), len(vb)
+	for ka < na && kb < nb {
+		switch xa, xb := va[ka], vb[kb]; {
+		case xa > xb:
+			oi = append(oi, ia[ka]+(inside(ib, vb, kb, xa)+cst))
+			ov = append(ov, xa)
+			ka++
+		case xb > xa:
+			oi = append(oi, ib[kb]+(inside(ia, va, ka, xb)+cst))
+			ov = append(ov, xb)
+			kb++
+		default:
+			oi = append(oi, (ia[ka]+ib[kb])+cst)
+			ov = append(ov, xa)
+			ka, kb = ka+1, kb+1
+		}
+	}
+	for ; ka < na; ka++ {
+		oi = append(oi, ia[ka]+(ib[nb-1]+cst))
+		ov = append(ov, va[ka])
+	}
+	for ; kb < nb; kb++ {
+		oi = append(oi, ib[kb]+(ia[na-1]+cst))
+		ov = append(ov, vb[kb])
+	}
+	return oi, ov
 }
 
 // inside is currentOn for an input of at least two points whose next point k is not past its
