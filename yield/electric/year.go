@@ -839,10 +839,25 @@ func (y *Year) addString(sum []int64, row int, str []int, pr []curveCount) []cur
 		addCurves4(sum, y.curve(p[0].c, np), y.curve(p[1].c, np), y.curve(p[2].c, np), y.curve(p[3].c, np),
 			int64(p[0].n), int64(p[1].n), int64(p[2].n), int64(p[3].n))
 	}
-	for _, p := range pr[j:] {
-		addCurve(sum, y.curve(p.c, np), int64(p.n))
+	switch p := pr[j:]; len(p) {
+	case 3: // as four, the fourth taken zero times
+		addCurves4(sum, y.curve(p[0].c, np), y.curve(p[1].c, np), y.curve(p[2].c, np), y.curve(p[2].c, np),
+			int64(p[0].n), int64(p[1].n), int64(p[2].n), 0)
+	case 2:
+		addCurves2(sum, y.curve(p[0].c, np), y.curve(p[1].c, np), int64(p[0].n), int64(p[1].n))
+	case 1:
+		addCurve(sum, y.curve(p[0].c, np), int64(p[0].n))
 	}
 	return pr
+}
+
+// addCurves2 adds fa × a + fb × b to sum, point by point.
+func addCurves2(sum []int64, a, b []int32, fa, fb int64) {
+	n := len(sum)
+	a, b = a[:n], b[:n]
+	for k := range sum {
+		sum[k] += int64(a[k])*fa + int64(b[k])*fb
+	}
 }
 
 // addCurves4 adds fa × a + fb × b + fc × c + fd × d to sum, point by point: four curves a
