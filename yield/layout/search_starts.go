@@ -218,11 +218,20 @@ func (s *searcher) cluster(mods, sizes []int) [][]int {
 }
 
 func d2(a, b []float64) float64 {
-	d := 0.0
-	for i := range a {
-		d += sq(a[i] - b[i])
+	// Four partial sums: one sum's additions wait on each other, four proceed side by side.
+	b = b[:len(a)]
+	var d0, d1, d2, d3 float64
+	i := 0
+	for ; i+4 <= len(a); i += 4 {
+		d0 += sq(a[i] - b[i])
+		d1 += sq(a[i+1] - b[i+1])
+		d2 += sq(a[i+2] - b[i+2])
+		d3 += sq(a[i+3] - b[i+3])
 	}
-	return d
+	for ; i < len(a); i++ {
+		d0 += sq(a[i] - b[i])
+	}
+	return (d0 + d1) + (d2 + d3)
 }
 
 // improve runs the local search from st until no evaluated neighbour improves or the
