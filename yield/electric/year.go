@@ -619,6 +619,7 @@ func (y *Year) CheckLayout(l Layout, inv Inverter) error {
 type evalScratch struct {
 	pairs [][]curveCount // per string of an input
 	isums [][]int64      // per string: voltage sums on the step grid (voltQuantum)
+	src   [][]int64      // per string: its sums, in isums or read in place from a kept year
 	sums  [][]float64    // per string: the same in volts
 	is    [][]float64
 	gi    []float64
@@ -728,6 +729,7 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 	for len(sc.pairs) < ns {
 		sc.pairs = append(sc.pairs, nil)
 		sc.isums = append(sc.isums, nil)
+		sc.src = append(sc.src, nil)
 		sc.sums = append(sc.sums, nil)
 		sc.is = append(sc.is, nil)
 	}
@@ -735,12 +737,13 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 	row := s * y.n
 	off := int(y.gridOff[s])
 	for b, str := range in {
-		sc.isums[b] = growInt64(sc.isums[b], np)
-		sc.sums[b] = grow(sc.sums[b], np)
-		sc.is[b] = sc.gi
-		isum, sum := sc.isums[b], sc.sums[b]
 		if strs != nil && strs[b].v != nil {
 			r := strs[b]
+			pv := r.v[off : off+np]
+			if r.add < 0 && r.sub < 0 {
+				sc.src[b] = pv // a kept string as it is: read in place
+				continue
+			}
 			var add, sub []int32
 			if r.add >= 0 {
 				add = y.curve(y.modCurve[row+r.add], np)
@@ -748,18 +751,31 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 			if r.sub >= 0 {
 				sub = y.curve(y.modCurve[row+r.sub], np)
 			}
-			fromParent(isum, sum, r.v[off:off+np], add, sub)
+			sc.isums[b] = growInt64(sc.isums[b], np)
+			plusMinus(sc.isums[b], pv, add, sub)
+			sc.src[b] = sc.isums[b]
 			continue
 		}
-		clear(isum)
-		sc.pairs[b] = y.addString(isum, row, str, sc.pairs[b])
-		for k, x := range isum {
-			sum[k] = float64(x) * voltQuantum
-		}
+		sc.isums[b] = growInt64(sc.isums[b], np)
+		clear(sc.isums[b])
+		sc.pairs[b] = y.addString(sc.isums[b], row, str, sc.pairs[b])
+		sc.src[b] = sc.isums[b]
 	}
 	same := true
 	for b := 1; b < ns && same; b++ {
-		same = slices.Equal(sc.isums[b], sc.isums[0])
+		same = slices.Equal(sc.src[b], sc.src[0])
+	}
+	last := ns
+	if same {
+		last = 1
+	}
+	for b := range last {
+		sc.sums[b] = grow(sc.sums[b], np)
+		sum := sc.sums[b][:np]
+		for k, x := range sc.src[b][:np] {
+			sum[k] = float64(x) * voltQuantum
+		}
+		sc.is[b] = sc.gi
 	}
 	if same {
 		if ns == 1 {
@@ -797,15 +813,6 @@ func plusMinus(dst, pv []int64, add, sub []int32) {
 		}
 	default:
 		copy(dst, pv)
-	}
-}
-
-// fromParent is plusMinus into isum that also writes the voltages in volts into sum.
-func fromParent(isum []int64, sum []float64, pv []int64, add, sub []int32) {
-	plusMinus(isum, pv, add, sub)
-	sum = sum[:len(isum)]
-	for k, x := range isum[:len(pv)] {
-		sum[k] = float64(x) * voltQuantum
 	}
 }
 
