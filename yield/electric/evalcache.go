@@ -4,6 +4,7 @@ import (
 	"cmp"
 	"container/list"
 	"math"
+	"runtime"
 	"slices"
 	"strconv"
 	"sync"
@@ -283,19 +284,68 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts [
 		return nil, 0
 	}
 	pts = make([]*inputYear, len(jobs))
-	prevV := make([]float64, len(jobs))
 	for j := range jobs {
 		pts[j] = &inputYear{p: make([]float64, y.steps), pv: make([]float64, y.steps), un: make([]float64, y.steps), volts: !opt.ModuleLevel}
 		if !opt.ModuleLevel {
 			pt := pts[j]
 			pt.pg, pt.pw, pt.pc = make([]float64, y.steps), make([]float64, y.steps), make([]float64, y.steps)
 		}
+	}
+	// The steps are independent, but for a climbing tracker, which starts from the step
+	// before: runs of steps go to all cores (a layout search often waits on one evaluation),
+	// and the year's totals are then summed in step order.
+	if opt.Tracker == LocalClimb {
+		reused = y.stepParts(jobs, pts, inv, opt, 0, y.steps)
+	} else {
+		var n atomic.Int64
+		y.eachPart(func(lo, hi int) { n.Add(y.stepParts(jobs, pts, inv, opt, lo, hi)) })
+		reused = n.Load()
+	}
+	for _, pt := range pts {
+		for s := range y.steps {
+			h := float64(y.hours[s])
+			if opt.ModuleLevel {
+				pt.globalWh += pt.p[s] * h
+				continue
+			}
+			pG, pW, pC := pt.pg[s], pt.pw[s], pt.pc[s]
+			pt.globalWh += pG * h
+			pt.windowWh += (pG - pW) * h
+			pt.currentWh += (pW - pC) * h
+			pt.trackerWh += (pC - pt.p[s]) * h
+		}
+	}
+	return pts, reused
+}
+
+// minPartSteps is the fewest steps worth a goroutine of their own (see eachPart).
+const minPartSteps = 256
+
+// eachPart calls do on runs of steps lo..hi−1 that cover the year, on all cores when the year
+// is long enough, and returns when all are done.
+func (y *Year) eachPart(do func(lo, hi int)) {
+	parts := max(1, min(runtime.GOMAXPROCS(0), y.steps/minPartSteps))
+	if parts == 1 {
+		do(0, y.steps)
+		return
+	}
+	var wg sync.WaitGroup
+	for q := range parts {
+		wg.Go(func() { do(q*y.steps/parts, (q+1)*y.steps/parts) })
+	}
+	wg.Wait()
+}
+
+// stepParts fills the inputs' shares pts at steps lo..hi−1 (see inputParts) and returns how
+// many input-steps it read from a parent input.
+func (y *Year) stepParts(jobs []inputJob, pts []*inputYear, inv Inverter, opt EvalOptions, lo, hi int) (reused int64) {
+	prevV := make([]float64, len(jobs))
+	for j := range prevV {
 		prevV[j] = math.NaN()
 	}
 	vmin, vmax, imax := inv.MPPTMinV, inv.MPPTMaxV, inv.MaxInputCurrentA
 	var sc evalScratch
-	for s := range y.steps {
-		h := float64(y.hours[s])
+	for s := lo; s < hi; s++ {
 		row := s * y.n
 		sc.gi = y.grid(s)
 		for j, job := range jobs {
@@ -315,17 +365,11 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts [
 					}
 				}
 				pt.p[s] = dc
-				pt.globalWh += dc * h
 				continue
 			}
 			if par := job.parent; par != nil && y.sameAt(row, job.swaps) {
-				pG, pW, pC, p := par.pg[s], par.pw[s], par.pc[s], par.p[s]
-				pt.globalWh += pG * h
-				pt.windowWh += (pG - pW) * h
-				pt.currentWh += (pW - pC) * h
-				pt.trackerWh += (pC - p) * h
-				pt.pg[s], pt.pw[s], pt.pc[s] = pG, pW, pC
-				pt.p[s], pt.pv[s] = p, par.pv[s]
+				pt.pg[s], pt.pw[s], pt.pc[s] = par.pg[s], par.pw[s], par.pc[s]
+				pt.p[s], pt.pv[s] = par.p[s], par.pv[s]
 				reused++
 				continue
 			}
@@ -349,15 +393,11 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts [
 					prevV[j] = math.NaN()
 				}
 			}
-			pt.globalWh += pG * h
-			pt.windowWh += (pG - pW) * h
-			pt.currentWh += (pW - pC) * h
-			pt.trackerWh += (pC - p) * h
 			pt.p[s] = p
 			pt.pv[s] = p * v
 		}
 	}
-	return pts, reused
+	return reused
 }
 
 // sameAt reports whether every pair of swapped modules shares a curve at the step starting at
@@ -572,10 +612,17 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
 		did = true
 		y := sy.y
 		v := make([]int64, len(y.gridI))
-		if base != nil && base.ready.Load() {
-			for s := range y.steps {
+		fromBase := base != nil && base.ready.Load()
+		// Every step on its own: runs of steps on all cores, as readers wait for the year.
+		y.eachPart(func(lo, hi int) {
+			var pr []curveCount
+			for s := lo; s < hi; s++ {
 				off, np := int(y.gridOff[s]), int(y.gridOff[s+1]-y.gridOff[s])
 				row := s * y.n
+				if !fromBase {
+					pr = y.addString(v[off:off+np], row, sy.mods, pr)
+					continue
+				}
 				var a, b []int32
 				if add >= 0 {
 					a = y.curve(y.modCurve[row+add], np)
@@ -585,12 +632,7 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
 				}
 				plusMinus(v[off:off+np], base.v[off:off+np], a, b)
 			}
-		} else {
-			var pr []curveCount
-			for s := range y.steps {
-				pr = y.addString(v[y.gridOff[s]:y.gridOff[s+1]], s*y.n, sy.mods, pr)
-			}
-		}
+		})
 		sy.v = v
 		sy.ready.Store(true)
 	})
