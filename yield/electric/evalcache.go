@@ -293,9 +293,16 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts [
 	}
 	// The steps are independent, but for a climbing tracker, which starts from the step
 	// before: runs of steps go to all cores (a layout search often waits on one evaluation),
-	// and the year's totals are then summed in step order.
+	// and the year's totals are then summed in step order. A climbing tracker's inputs go
+	// through the year each on its own. A parent input's steps (see inputJob) serve only a
+	// global tracker's.
 	if opt.Tracker == LocalClimb {
-		reused = y.stepParts(jobs, pts, inv, opt, 0, y.steps)
+		// The inputs go through the year on their own instead, one core each.
+		var wg sync.WaitGroup
+		for j := range jobs {
+			wg.Go(func() { y.stepParts(jobs[j:j+1], pts[j:j+1], inv, opt, 0, y.steps) })
+		}
+		wg.Wait()
 	} else {
 		var n atomic.Int64
 		y.eachPart(func(lo, hi int) { n.Add(y.stepParts(jobs, pts, inv, opt, lo, hi)) })
