@@ -292,7 +292,7 @@ func appendGrid(dst []float64, top float64, knees []float64, w float64) []float6
 // curveScratch is reusable working space for curveOnGrid.
 type curveScratch struct {
 	vals  []float64 // distinct irradiance values
-	idx   []int     // cell → index into vals
+	ucnt  []int     // [u][slot] cell counts
 	slot  []int32   // distinct value → its cell curve in cells
 	cnt   []int     // [sub][half][u] cell counts
 	terms []cellTerm
@@ -411,12 +411,15 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 	if m.half {
 		cc = sc.hc
 	}
+	// Distinct values in order of first appearance, and the cells of each in each slot
+	// (2·substring + half), counted value by value in one pass over the cells.
+	ns := 2 * m.nSub
 	sc.vals = sc.vals[:0]
-	sc.idx = sc.idx[:0]
-	last := -1
-	for _, s := range cellIrr {
-		u := last
-		if u < 0 || sc.vals[u] != s {
+	sc.ucnt = sc.ucnt[:0]
+	u, us := -1, 0.0
+	slot := m.slot[:len(cellIrr)]
+	for c, s := range cellIrr {
+		if u < 0 || us != s {
 			u = -1
 			for j, x := range sc.vals {
 				if x == s {
@@ -424,13 +427,16 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 					break
 				}
 			}
+			if u < 0 {
+				u = len(sc.vals)
+				sc.vals = append(sc.vals, s)
+				for range ns {
+					sc.ucnt = append(sc.ucnt, 0)
+				}
+			}
+			us = sc.vals[u]
 		}
-		if u < 0 {
-			u = len(sc.vals)
-			sc.vals = append(sc.vals, s)
-		}
-		sc.idx = append(sc.idx, u)
-		last = u
+		sc.ucnt[u*ns+int(slot[c])]++
 	}
 	nu := len(sc.vals)
 	sc.slot = sc.slot[:0]
@@ -441,9 +447,13 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 	if m.half {
 		nh = 2
 	}
-	sc.cnt = append(sc.cnt[:0], make([]int, m.nSub*nh*nu)...)
-	for c, u := range sc.idx {
-		sc.cnt[(int(m.sub[c])*nh+int(m.halfOf[c]))*nu+u]++
+	sc.cnt = slices.Grow(sc.cnt[:0], m.nSub*nh*nu)[:m.nSub*nh*nu]
+	for s := range m.nSub {
+		for h := range nh {
+			for u := range nu {
+				sc.cnt[(s*nh+h)*nu+u] = sc.ucnt[u*ns+2*s+h]
+			}
+		}
 	}
 	// Each substring's and half's cells, as counts of alike cells in order of value (the
 	// pointers into sc.cells taken once it has stopped growing).

@@ -345,19 +345,38 @@ const voltQuantum = 0x1p-20
 // quantV returns v (V) in units of voltQuantum, held inside int32 (±2048 V, above any one
 // module's voltage).
 func quantV(v float64) int32 {
-	x := v / voltQuantum
-	if x > math.MinInt32-0.5 && x < math.MaxInt32+0.5 {
-		// math.Round (half away from zero) by truncation: x − i is exact.
-		i := int64(x)
-		if f := x - float64(i); f >= 0.5 {
-			i++
-		} else if f <= -0.5 {
-			i--
+	var q [1]int32
+	quantCurve(q[:], []float64{v})
+	return q[0]
+}
+
+// quantCurve writes quantV of each voltage of v into q.
+func quantCurve(q []int32, v []float64) {
+	q = q[:len(v)]
+	for k, v := range v {
+		x := v / voltQuantum
+		if !(x > math.MinInt32-0.5 && x < math.MaxInt32+0.5) {
+			q[k] = quantVHeld(x)
+			continue
 		}
-		return int32(i)
+		// math.Round (half away from zero) by truncation, x − i exact, without a branch
+		// the processor would guess wrong half the time.
+		i := int64(x)
+		f := x - float64(i)
+		var up, down int64
+		if f >= 0.5 {
+			up = 1
+		}
+		if f <= -0.5 {
+			down = 1
+		}
+		q[k] = int32(i + up - down)
 	}
-	q := math.Round(x)
-	return int32(math.Max(math.Min(q, math.MaxInt32), math.MinInt32))
+}
+
+// quantVHeld is quantV outside int32 (and for NaN).
+func quantVHeld(x float64) int32 {
+	return int32(math.Max(math.Min(math.Round(x), math.MaxInt32), math.MinInt32))
 }
 
 // adoptCurves takes a step's curves of np voltages each, v, into the store without copying
@@ -548,9 +567,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	o.v = make([]int32, len(w.repr)*np)
 	for c, r := range w.repr {
 		m.curveOnGrid(qirr(r), w.qt[r], o.grid, w.v, &w.sc)
-		for k, x := range w.v {
-			o.v[c*np+k] = quantV(x)
-		}
+		quantCurve(o.v[c*np:(c+1)*np], w.v)
 		p, _, _ := polyMax(o.grid, w.v, 0, math.Inf(1), math.Inf(1))
 		o.mpp = append(o.mpp, float32(p))
 	}
