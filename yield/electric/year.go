@@ -455,19 +455,15 @@ func roundTemp(t float64) float64 { return math.Round(t/TempStepC) * TempStepC }
 // collisions cost only time.
 func roundCellsHash(q, irr []float64, round bool) (h uint64, qmax float64, runs int, ok bool) {
 	h = 14695981039346656037
-	last, lastQ := math.NaN(), 0.0
+	var lastQ float64
 	var lastBits uint64
 	ok = true
 	q = q[:len(irr)]
-	for i, g := range irr {
-		if g == last && (round || math.Float64bits(g) == math.Float64bits(last)) {
-			q[i] = lastQ
-			continue
-		}
+	for i := 0; i < len(irr); {
+		g := irr[i]
 		if !(g >= 0 && g <= MaxIrradiance) { // NaN too
 			ok = false
 		}
-		last = g
 		x := g
 		if round {
 			x = roundIrr(g)
@@ -480,7 +476,20 @@ func roundCellsHash(q, irr []float64, round bool) (h uint64, qmax float64, runs 
 				qmax = x
 			}
 		}
+		// The run of cells equal to g (to the bit without rounding).
 		q[i] = lastQ
+		i++
+		if round {
+			for i < len(irr) && irr[i] == g {
+				q[i] = lastQ
+				i++
+			}
+		} else {
+			for i < len(irr) && math.Float64bits(irr[i]) == math.Float64bits(g) {
+				q[i] = lastQ
+				i++
+			}
+		}
 	}
 	return h, qmax, runs, ok
 }
@@ -568,7 +577,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	for c, r := range w.repr {
 		m.curveOnGrid(qirr(r), w.qt[r], o.grid, w.v, &w.sc)
 		quantCurve(o.v[c*np:(c+1)*np], w.v)
-		p, _, _ := polyMax(o.grid, w.v, 0, math.Inf(1), math.Inf(1))
+		p, _, _ := polyMaxFree(o.grid, w.v)
 		o.mpp = append(o.mpp, float32(p))
 	}
 	// Unshaded maxima, shared between modules with the same rounded irradiance and
