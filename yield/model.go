@@ -62,7 +62,8 @@ type Input struct {
 	Zone     *time.Location // local clock, for months
 	System   System
 	Horizon  *shading.Horizon
-	// Progress, when set, is told how far each long stage has come.
+	// Progress, when set, is told how far each long stage has come; it may be called from
+	// several goroutines at once.
 	Progress func(stage string, done, total int)
 
 	// exactCurves builds every module curve from unrounded inputs (electric.NewYearExact):

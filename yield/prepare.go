@@ -168,11 +168,9 @@ func (p *prep) beamIAM(thetaDeg float64) float64 {
 
 // newYear is the year engine Prepare uses: rounded sharing, or exact curves when the input
 // asks for them (the accuracy tests' reference).
-func (p *prep) newYear(step func(s int, dst *electric.StepInput)) (*electric.Year, error) {
-	if p.in.exactCurves {
-		return electric.NewYearExact(p.m.Module, len(p.in.Modules), len(p.ups), step)
-	}
-	return electric.NewYear(p.m.Module, len(p.in.Modules), len(p.ups), step)
+func (p *prep) newYear(step func(s int, dst *electric.StepInput), concurrent bool) (*electric.Year, error) {
+	opt := electric.YearOptions{Exact: p.in.exactCurves, ConcurrentSteps: concurrent}
+	return electric.NewYearWith(p.m.Module, len(p.in.Modules), len(p.ups), step, opt)
 }
 
 // planeComp is one step's sky on one module plane: the components, unshaded and before
@@ -290,7 +288,7 @@ func (p *prep) shadedYear() error {
 			m.MonthlyUnshadedPOAWh[month] += unsh * area * hours
 			p.refW += unsh * hours
 		}
-	})
+	}, false)
 	if err != nil {
 		return fmt.Errorf("yield: module curves: %w", err)
 	}
@@ -302,7 +300,8 @@ func (p *prep) shadedYear() error {
 }
 
 // unshadedYear builds the reference year: every module lit as if nothing stood around it,
-// at its own unshaded temperature.
+// at its own unshaded temperature. Its step function only reads what the shaded year kept, so
+// its steps are filled on all cores.
 func (p *prep) unshadedYear() error {
 	in, n, hours := p.in, len(p.in.Modules), p.iv.Hours()
 	var err error
@@ -319,7 +318,7 @@ func (p *prep) unshadedYear() error {
 			dst.TempC[i] = float64(p.unTemp[s*n+i])
 		}
 		dst.Hours = hours
-	})
+	}, true)
 	if err != nil {
 		return fmt.Errorf("yield: unshaded module curves: %w", err)
 	}

@@ -117,17 +117,33 @@ type Year struct {
 // GOMAXPROCS goroutines while step fills the next batch; the result does not
 // depend on the number of goroutines.
 func NewYear(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (*Year, error) {
-	return newYear(m, nModules, steps, step, false)
+	return NewYearWith(m, nModules, steps, step, YearOptions{})
 }
 
 // NewYearExact is NewYear with every curve built from the exact inputs, shared only between
 // modules whose inputs are equal to the bit: the reference the rounded sharing of NewYear is
 // held to (see IrradianceBits), at several times the cost on a large roof.
 func NewYearExact(m *Module, nModules, steps int, step func(s int, dst *StepInput)) (*Year, error) {
-	return newYear(m, nModules, steps, step, true)
+	return NewYearWith(m, nModules, steps, step, YearOptions{Exact: true})
 }
 
-func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), exact bool) (*Year, error) {
+// YearOptions chooses how NewYearWith builds a year.
+type YearOptions struct {
+	// Exact builds every curve from the exact inputs, as NewYearExact.
+	Exact bool
+	// ConcurrentSteps lets NewYearWith call step from several goroutines at once, for steps
+	// in any order, each call with a dst of its own: for a step function without state of its
+	// own (one that only reads what it was given), whose steps are then filled on all cores.
+	ConcurrentSteps bool
+}
+
+// NewYearWith is NewYear with options. The year is the same whatever ConcurrentSteps says.
+func NewYearWith(m *Module, nModules, steps int, step func(s int, dst *StepInput), opt YearOptions) (*Year, error) {
+	return newYear(m, nModules, steps, step, opt)
+}
+
+func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), opt YearOptions) (*Year, error) {
+	exact := opt.Exact
 	if m == nil || nModules < 0 || steps < 0 || step == nil {
 		return nil, fmt.Errorf("electric: NewYear needs a module, a step function and non-negative counts")
 	}
@@ -154,6 +170,22 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), e
 	for first := 0; first < steps; {
 		b := &batches[cur]
 		b.reset(first, min(yearBatchSteps, steps-first), nModules, nc)
+		b.fill = nil
+		if opt.ConcurrentSteps {
+			// The workers take the steps themselves (see yearWorker.take).
+			b.fill, b.round = step, !exact
+			if pending != nil {
+				pending.wg.Wait()
+				if err := y.mergeTaken(pending); err != nil {
+					return nil, err
+				}
+			}
+			b.start(m, ws)
+			pending = b
+			cur ^= 1
+			first += b.count
+			continue
+		}
 		for j := range b.count {
 			s := first + j
 			for k := range in.CellIrr {
@@ -186,9 +218,26 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), e
 	}
 	if pending != nil {
 		pending.wg.Wait()
-		y.merge(pending)
+		if err := y.mergeTaken(pending); err != nil {
+			return nil, err
+		}
 	}
 	return y, nil
+}
+
+// mergeTaken is merge for a batch whose steps the workers took (YearOptions.ConcurrentSteps):
+// the first bad step, in step order, is the error; the steps' hours go to the year.
+func (y *Year) mergeTaken(b *yearBatch) error {
+	if b.fill != nil {
+		for j := range b.count {
+			if err := b.errs[j]; err != nil {
+				return err
+			}
+			y.hours[b.first+j] = float32(b.hours[j])
+		}
+	}
+	y.merge(b)
+	return nil
 }
 
 // yearBatchSteps is the number of steps NewYear copies before building their
@@ -243,8 +292,13 @@ type yearBatch struct {
 	temp, un     []float64 // count × n
 	hours        []float64
 	out          []stepCurves
-	next         atomic.Int64
-	wg           sync.WaitGroup
+	// fill, when set, is the step function the workers call themselves (with round: rounded
+	// sharing), each step's error in errs.
+	fill  func(s int, dst *StepInput)
+	round bool
+	errs  []error
+	next  atomic.Int64
+	wg    sync.WaitGroup
 }
 
 // stepCurves is one step's result with curve indices local to the step.
@@ -258,6 +312,7 @@ type stepCurves struct {
 
 func (b *yearBatch) reset(first, count, n, nc int) {
 	b.first, b.count, b.n, b.nc = first, count, n, nc
+	b.errs = append(b.errs[:0], make([]error, count)...)
 	b.irr = slices.Grow(b.irr[:0], count*n*nc)[:count*n*nc]
 	b.hash = slices.Grow(b.hash[:0], count*n)[:count*n]
 	b.smax = slices.Grow(b.smax[:0], count*n)[:count*n]
@@ -281,6 +336,11 @@ func (b *yearBatch) start(m *Module, ws []yearWorker) {
 				j := int(b.next.Add(1) - 1)
 				if j >= b.count {
 					return
+				}
+				if b.fill != nil {
+					if b.errs[j] = w.take(m, b, j); b.errs[j] != nil {
+						continue
+					}
 				}
 				w.build(m, b, j)
 			}
@@ -405,8 +465,39 @@ func (y *Year) curve(c int32, n int) []int32 {
 // grid returns step s's current grid (A).
 func (y *Year) grid(s int) []float64 { return y.gridI[y.gridOff[s]:y.gridOff[s+1]] }
 
+// take calls the batch's step function for step j with the worker's own input and takes the
+// step into the batch, as newYear's loop does when it calls the step function itself.
+func (w *yearWorker) take(m *Module, b *yearBatch, j int) error {
+	n, nc := b.n, b.nc
+	in := &w.in
+	if len(in.CellIrr) != n {
+		in.CellIrr = make([][]float64, n)
+		for k := range in.CellIrr {
+			in.CellIrr[k] = make([]float64, nc)
+		}
+		in.TempC, in.UnshadedIrr = make([]float64, n), make([]float64, n)
+	}
+	for k := range in.CellIrr {
+		clear(in.CellIrr[k])
+	}
+	clear(in.TempC)
+	clear(in.UnshadedIrr)
+	in.Hours = 0
+	s := b.first + j
+	b.fill(s, in)
+	h, err := b.takeStep(m, in, s, j, b.round)
+	if err != nil {
+		return err
+	}
+	b.hours[j] = h
+	copy(b.temp[j*n:(j+1)*n], in.TempC)
+	copy(b.un[j*n:(j+1)*n], in.UnshadedIrr)
+	return nil
+}
+
 // yearWorker is one goroutine's working space.
 type yearWorker struct {
+	in    StepInput // the worker's own step input (YearOptions.ConcurrentSteps)
 	sc    curveScratch
 	v     []float64
 	knees []float64       // knee currents (A)

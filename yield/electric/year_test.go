@@ -2,6 +2,7 @@ package electric
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -630,22 +631,82 @@ func TestYearBadStepNamed(t *testing.T) {
 		{"too hot", func(d *StepInput) { d.TempC[2] = MaxCellTempC + 1 }, "step 2, module 2: ", "cell_temp_c"},
 		{"NaN temperature", func(d *StepInput) { d.TempC[1] = math.NaN() }, "step 2, module 1: ", "cell_temp_c"},
 	} {
-		t.Run(tc.name, func(t *testing.T) {
-			_, err := NewYear(m, 3, 4, func(s int, d *StepInput) {
-				for k := range d.CellIrr {
-					for c := range d.CellIrr[k] {
-						d.CellIrr[k][c] = 800
+		for _, concurrent := range []bool{false, true} {
+			t.Run(fmt.Sprintf("%s/concurrent=%t", tc.name, concurrent), func(t *testing.T) {
+				// 40 steps: the bad one, and a bad one after it, in the second batch.
+				_, err := NewYearWith(m, 3, 40, func(s int, d *StepInput) {
+					for k := range d.CellIrr {
+						for c := range d.CellIrr[k] {
+							d.CellIrr[k][c] = 800
+						}
+						d.TempC[k] = 30
 					}
-					d.TempC[k] = 30
-				}
-				if s == 2 {
-					tc.set(d)
+					if s == 2 || s == 20 {
+						tc.set(d)
+					}
+				}, YearOptions{ConcurrentSteps: concurrent})
+				if err == nil || !errors.Is(err, ErrOutOfModel) || !strings.HasPrefix(err.Error(), tc.where) ||
+					!strings.Contains(err.Error(), tc.what+":") {
+					t.Errorf("got %v, want an ErrOutOfModel naming %q%q", err, tc.where, tc.what)
 				}
 			})
-			if err == nil || !errors.Is(err, ErrOutOfModel) || !strings.HasPrefix(err.Error(), tc.where) ||
-				!strings.Contains(err.Error(), tc.what+":") {
-				t.Errorf("got %v, want an ErrOutOfModel naming %q%q", err, tc.where, tc.what)
-			}
-		})
+		}
 	}
+}
+
+// A year whose steps are filled on all cores is the year filled in step order, to the bit:
+// the same curves, module energies and layout results.
+func TestNewYearConcurrentSteps(t *testing.T) {
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		t.Fatal(err)
+	}
+	const n, steps = 60, 100
+	step := func(s int, d *StepInput) {
+		rng := rand.New(rand.NewPCG(5, uint64(s)))
+		g := 50 + 950*rng.Float64()
+		for k := range n {
+			for c := range d.CellIrr[k] {
+				d.CellIrr[k][c] = g
+			}
+			if k%7 == s%7 {
+				for c := range 10 {
+					d.CellIrr[k][c] = 0.2 * g
+				}
+			}
+			d.TempC[k], d.UnshadedIrr[k], d.Hours = 10+0.03*g, g, 0.5+float64(s%3)
+		}
+	}
+	want, err := NewYearWith(m, n, steps, step, YearOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := NewYearWith(m, n, steps, step, YearOptions{ConcurrentSteps: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got.Curves() != want.Curves() || !slices.Equal(got.ModuleDCWh(), want.ModuleDCWh()) ||
+		!slices.Equal(got.ModuleUnshadedDCWh(), want.ModuleUnshadedDCWh()) {
+		t.Fatalf("%d curves, want %d; module energies differ", got.Curves(), want.Curves())
+	}
+	l := Layout{Inputs: [][][]int{{modRange(0, 20), modRange(20, 40)}, {modRange(40, 60)}}}
+	rg, err := got.Evaluate(l, bigInverter, EvalOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rw, err := want.Evaluate(l, bigInverter, EvalOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rg.ACWh != rw.ACWh || !slices.Equal(rg.StepDCWh, rw.StepDCWh) {
+		t.Errorf("layout: %v Wh, in step order %v Wh", rg.ACWh, rw.ACWh)
+	}
+}
+
+func modRange(a, b int) []int {
+	out := make([]int, 0, b-a)
+	for k := a; k < b; k++ {
+		out = append(out, k)
+	}
+	return out
 }
