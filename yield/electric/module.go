@@ -529,24 +529,19 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 	}
 	cur := sc.hc[:2*n]
 	oi, ov := sc.m.oi[:0], sc.m.ov[:0]
-	// Per half: the next unvisited point kk, its voltage nx (read when fresh is false) and the
-	// voltage of the point before it, pv.
+	// Per half: the next unvisited point kk, its voltage nx (computed when the walk goes on
+	// with kk below 2n) and the voltage of the point before it, pv.
 	var kk [2]int
 	var nx, pv [2]float64
-	var fresh [2]bool
+	nx[0], nx[1] = hs[0].at(0), hs[1].at(0)
 	k, hint := 0, 0
 	for k < n {
-		best := -1
-		bv := math.Inf(-1)
-		for hh := range 2 {
-			if kk[hh] < 2*n {
-				if !fresh[hh] {
-					nx[hh], fresh[hh] = hs[hh].at(kk[hh]), true
-				}
-				if x := nx[hh]; x > bv {
-					best, bv = hh, x
-				}
-			}
+		best, bv := -1, math.Inf(-1)
+		if kk[0] < 2*n && nx[0] > bv {
+			best, bv = 0, nx[0]
+		}
+		if kk[1] < 2*n && nx[1] > bv {
+			best, bv = 1, nx[1]
 		}
 		if best < 0 {
 			break
@@ -577,8 +572,10 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 		oi, ov = append(oi, tot), append(ov, bv)
 		pv[best] = bv
 		kk[best]++
-		fresh[best] = false
 		if len(oi) < 2 {
+			if kk[best] < 2*n {
+				nx[best] = hs[best].at(kk[best])
+			}
 			continue
 		}
 		for ; k < n; k++ {
@@ -594,6 +591,9 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 			for ; k < n; k++ {
 				v[k] = -m.bypassV
 			}
+		}
+		if k < n && kk[best] < 2*n {
+			nx[best] = hs[best].at(kk[best])
 		}
 	}
 	for ; k < n; k++ {
