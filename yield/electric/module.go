@@ -324,6 +324,9 @@ type cellTerm struct {
 
 // sumTerms returns the voltage of the cells of ts in series at point k of their grid.
 func sumTerms(ts []cellTerm, k int) float64 {
+	if len(ts) == 1 {
+		return 0 + ts[0].c*ts[0].g.at(k) // as the loop adds it: −0 becomes 0
+	}
 	var sum float64
 	for _, t := range ts {
 		sum += t.c * t.g.at(k)
@@ -416,27 +419,29 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 	ns := 2 * m.nSub
 	sc.vals = sc.vals[:0]
 	sc.ucnt = sc.ucnt[:0]
-	u, us := -1, 0.0
 	slot := m.slot[:len(cellIrr)]
-	for c, s := range cellIrr {
-		if u < 0 || us != s {
-			u = -1
-			for j, x := range sc.vals {
-				if x == s {
-					u = j
-					break
-				}
+	for c := 0; c < len(cellIrr); {
+		s := cellIrr[c]
+		u := -1
+		for j, x := range sc.vals {
+			if x == s {
+				u = j
+				break
 			}
-			if u < 0 {
-				u = len(sc.vals)
-				sc.vals = append(sc.vals, s)
-				for range ns {
-					sc.ucnt = append(sc.ucnt, 0)
-				}
-			}
-			us = sc.vals[u]
 		}
-		sc.ucnt[u*ns+int(slot[c])]++
+		if u < 0 {
+			u = len(sc.vals)
+			sc.vals = append(sc.vals, s)
+			for range ns {
+				sc.ucnt = append(sc.ucnt, 0)
+			}
+		}
+		// The run of cells equal to s.
+		us := sc.vals[u]
+		cnt := sc.ucnt[u*ns : (u+1)*ns]
+		for ; c < len(cellIrr) && cellIrr[c] == us; c++ {
+			cnt[slot[c]]++
+		}
 	}
 	nu := len(sc.vals)
 	sc.slot = sc.slot[:0]
