@@ -126,6 +126,38 @@ func BenchmarkPrepareLargeRoof(b *testing.B) {
 	}
 }
 
+// BenchmarkLargeRoofCurves is the part of Prepare on the hall roof (437 modules) that builds
+// the shaded and the unshaded year of module curves, Prepare's per-step irradiance included;
+// sun and shade are computed once, outside the timing. Measure with -cpu 1.
+func BenchmarkLargeRoofCurves(b *testing.B) {
+	in := largeRoof(b, 430)
+	p, err := newPrep(in)
+	if err != nil {
+		b.Fatal(err)
+	}
+	if err := p.sunSteps(context.Background()); err != nil {
+		b.Fatal(err)
+	}
+	scene, err := p.shade(context.Background())
+	if err != nil {
+		b.Fatal(err)
+	}
+	p.geometry(scene)
+	b.ReportAllocs()
+	b.ResetTimer()
+	cpu0 := cpuSeconds()
+	for b.Loop() {
+		if err := p.shadedYear(); err != nil {
+			b.Fatal(err)
+		}
+		if err := p.unshadedYear(); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric((cpuSeconds()-cpu0)/float64(b.N), "cpu-s/op")
+	b.ReportMetric(float64(p.m.Year.Curves())/float64(p.m.Year.Steps()), "curves/step")
+}
+
 // cpuSeconds is the process's user and system time so far: on a shared machine it measures
 // the work where wall time measures the queue.
 func cpuSeconds() float64 {

@@ -28,18 +28,11 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 	if in.Zone == nil {
 		in.Zone = time.UTC
 	}
-	mod, err := electric.NewModule(in.System.Module)
+	p, err := newPrep(in)
 	if err != nil {
-		return nil, fmt.Errorf("yield: module: %w", err)
+		return nil, err
 	}
-	nm := len(in.Modules)
-	m := &Model{In: in, Module: mod, Records: in.Weather.Records, Stats: make([]ModuleStat, nm),
-		modPOAUn: make([]float64, nm), modPOASh: make([]float64, nm), modPOAIAM: make([]float64, nm), modPOASoil: make([]float64, nm),
-		modPOASoilUn: make([]float64, nm)}
-	p := &prep{m: m, in: &m.In, iv: in.Weather.Interval}
-	if p.iv <= 0 {
-		p.iv = time.Hour
-	}
+	m := p.m
 	if err := p.sunSteps(ctx); err != nil {
 		return nil, err
 	}
@@ -56,6 +49,23 @@ func Prepare(ctx context.Context, in Input) (*Model, error) {
 	}
 	p.finish()
 	return m, nil
+}
+
+// newPrep starts Prepare's state: the module and an empty model.
+func newPrep(in Input) (*prep, error) {
+	mod, err := electric.NewModule(in.System.Module)
+	if err != nil {
+		return nil, fmt.Errorf("yield: module: %w", err)
+	}
+	nm := len(in.Modules)
+	m := &Model{In: in, Module: mod, Records: in.Weather.Records, Stats: make([]ModuleStat, nm),
+		modPOAUn: make([]float64, nm), modPOASh: make([]float64, nm), modPOAIAM: make([]float64, nm), modPOASoil: make([]float64, nm),
+		modPOASoilUn: make([]float64, nm)}
+	p := &prep{m: m, in: &m.In, iv: in.Weather.Interval}
+	if p.iv <= 0 {
+		p.iv = time.Hour
+	}
+	return p, nil
 }
 
 // prep is Prepare's state between its stages.
