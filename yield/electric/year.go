@@ -625,15 +625,17 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 			w.qt[k] = roundTemp(temp[k])
 		}
 		key = hashMix(key, math.Float64bits(w.qt[k]))
-		top = math.Max(top, m.topCurrentAt(lightCurrent(m.cell.IL, m.alphaCell, smax, w.qt[k])))
 		c, ok := w.seen[key]
 		if ok {
+			// Modules lit evenly (one run each) are equal if their first cells are.
 			r := w.repr[c]
-			if w.qt[r] != w.qt[k] || !slices.Equal(qirr(r), qirr(k)) {
+			if w.qt[r] != w.qt[k] || !(runs == 1 && b.runs[j*n+r] == 1 && qirr(r)[0] == qirr(k)[0] || slices.Equal(qirr(r), qirr(k))) {
 				ok = false // hash collision: give this module its own curve
 			}
 		}
 		if !ok {
+			// Modules sharing a curve share its top current too.
+			top = math.Max(top, m.topCurrentAt(lightCurrent(m.cell.IL, m.alphaCell, smax, w.qt[k])))
 			c = int32(len(w.repr))
 			w.seen[key] = c
 			w.repr = append(w.repr, k)
