@@ -291,19 +291,19 @@ func appendGrid(dst []float64, top float64, knees []float64, w float64) []float6
 
 // curveScratch is reusable working space for curveOnGrid.
 type curveScratch struct {
-	vals  []float64 // distinct irradiance values
-	ucnt  []int     // [u][slot] cell counts
-	slot  []int32   // distinct value → its cell curve in cells
-	cnt   []int     // [sub][half][u] cell counts
-	terms []cellTerm
-	toff  []int       // [sub][half] → its terms are terms[toff[i]:toff[i+1]]
-	subV  [][]float64 // per substring: its voltage on the module grid
-	subOf []int       // per substring: the first substring lit alike, whose subV it takes
-	hs    [2]halfSums // halvesOnGrid's two halves
-	m     merger
-	out   []float64 // Curve's module voltages
-	knees []float64 // Curve's knee currents (A)
-	grid  []float64 // Curve's current grid (A)
+	vals   []float64 // distinct irradiance values
+	ucnt   []int     // [u][2·substring + half] cell counts
+	cellOf []int32   // distinct value → its cell curve in cells
+	cnt    []int     // [sub][half][u] cell counts
+	terms  []cellTerm
+	toff   []int       // [sub][half] → its terms are terms[toff[i]:toff[i+1]]
+	subV   [][]float64 // per substring: its voltage on the module grid
+	subOf  []int       // per substring: the first substring lit alike, whose subV it takes
+	hs     [2]halfSums // halvesOnGrid's two halves
+	m      merger
+	out    []float64 // Curve's module voltages
+	knees  []float64 // Curve's knee currents (A)
+	grid   []float64 // Curve's current grid (A)
 
 	// The cell curves on the grid of the last call, kept while the module and the grid
 	// stay the same (curveOnGrid compares them): curves of one step share their grid, and
@@ -444,9 +444,9 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 		}
 	}
 	nu := len(sc.vals)
-	sc.slot = sc.slot[:0]
+	sc.cellOf = sc.cellOf[:0]
 	for _, s := range sc.vals {
-		sc.slot = append(sc.slot, m.cellGridFor(sc, s, tempC, cc))
+		sc.cellOf = append(sc.cellOf, m.cellGridFor(sc, s, tempC, cc))
 	}
 	nh := 1
 	if m.half {
@@ -467,7 +467,7 @@ func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v 
 	for i := range m.nSub * nh {
 		for u, c := range sc.cnt[i*nu : (i+1)*nu] {
 			if c != 0 {
-				sc.terms = append(sc.terms, cellTerm{&sc.cells[sc.slot[u]], float64(c)})
+				sc.terms = append(sc.terms, cellTerm{&sc.cells[sc.cellOf[u]], float64(c)})
 			}
 		}
 		sc.toff = append(sc.toff, len(sc.terms))
