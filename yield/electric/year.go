@@ -676,10 +676,17 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	// Unshaded maxima, shared between modules with the same rounded irradiance and
 	// temperature.
 	clear(w.unSeen)
+	var lastKey [2]float64
+	var lastP float32
 	for k := range n {
 		key := [2]float64{un[k], w.qt[k]}
 		if !w.exact {
 			key[0] = roundIrr(key[0])
+		}
+		// Neighbouring modules mostly see the same sky: the last key first.
+		if k > 0 && key == lastKey {
+			o.unW[k] = lastP
+			continue
 		}
 		p, ok := w.unSeen[key]
 		if !ok {
@@ -687,6 +694,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 			w.unSeen[key] = p
 		}
 		o.unW[k] = p
+		lastKey, lastP = key, p
 	}
 }
 
