@@ -236,8 +236,8 @@ type inputJob struct {
 	strs []stringRecipe
 	key  string
 	// parent is a kept input whose strings are this one's but for the modules swapped in
-	// swaps (in, out): at a step where every swapped pair shares a curve
-	// the two inputs are the same, and the step is read from parent.
+	// swaps (in, out): at a step where every swapped pair shares a curve the two inputs are
+	// the same, and the step is read from parent.
 	parent *inputYear
 	swaps  [][2]int
 }
