@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"runtime"
+	"sync"
 	"syscall"
 	"testing"
 	"time"
@@ -58,17 +59,37 @@ func benchSurvey(b *testing.B, cfg *survey.Config, mapData []byte) {
 	b.ReportAllocs()
 	var modules int
 	cpu0 := cpuSeconds()
+	stageS := make([]float64, len(surveyStages))
 	for b.Loop() {
+		// Each stage lasts from its first progress report to the next stage's.
+		var mu sync.Mutex
+		first := map[string]time.Time{"": time.Now()}
+		mark := func(stage string, _, _ int) {
+			mu.Lock()
+			defer mu.Unlock()
+			if _, ok := first[stage]; !ok {
+				first[stage] = time.Now()
+			}
+		}
 		p, err := survey.Load(cfg, read)
 		if err != nil {
 			b.Fatal(err)
 		}
-		res, err := p.Run(context.Background(), survey.Options{})
+		res, err := p.Run(context.Background(), survey.Options{Progress: mark})
 		if err != nil {
 			b.Fatal(err)
 		}
-		if _, err := res.Render(survey.RenderOptions{}); err != nil {
+		mark("run done", 0, 0)
+		if _, err := res.Render(survey.RenderOptions{Progress: mark}); err != nil {
 			b.Fatal(err)
+		}
+		mark("render done", 0, 0)
+		for i := range surveyStages[:len(surveyStages)-1] {
+			t0, ok0 := first[surveyStages[i].stage]
+			t1, ok1 := first[surveyStages[i+1].stage]
+			if ok0 && ok1 {
+				stageS[i] += t1.Sub(t0).Seconds()
+			}
 		}
 		modules = res.Summary.Modules
 	}
@@ -77,6 +98,23 @@ func benchSurvey(b *testing.B, cfg *survey.Config, mapData []byte) {
 	b.ReportMetric((cpuSeconds()-cpu0)/float64(b.N), "cpu-s/op")
 	b.ReportMetric(float64(modules), "modules")
 	b.ReportMetric(float64(ms.Sys)/(1<<20), "sys-MB")
+	for i, st := range surveyStages[:len(surveyStages)-1] {
+		b.ReportMetric(stageS[i]/float64(b.N), st.metric)
+	}
+}
+
+// surveyStages are the survey's stages in order, by the name their progress reports carry
+// ("" the start, before the first report), and the metric of each one's wall time.
+var surveyStages = []struct{ stage, metric string }{
+	{"", "setup-s"},
+	{"shading", "shading-s"},
+	{"module curves", "curves-s"},
+	{"unshaded reference", "unshaded-s"},
+	{"layout search", "search-s"},
+	{survey.AlternativesStage, "alternatives-s"},
+	{"run done", "summary-s"},
+	{survey.RenderStage, "report-s"},
+	{"render done", ""},
 }
 
 // BenchmarkSurvey is the whole survey of the example house and of the large hall roof (437
