@@ -75,12 +75,14 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 			electric.EvalOptions{ModuleLevel: true, ModuleLevelEff: moduleConverterEff}},
 	}
 	// Only the annual energy is reported: no unshaded reference, and both on their own core.
+	// The run's cache holds the best layout's strings from the search: read, not added up.
+	cache := p.evalCache()
 	wh := make([]float64, len(alts))
 	errs := make([]error, len(alts))
 	var wg sync.WaitGroup
 	for i, a := range alts {
 		wg.Go(func() {
-			if wh[i], errs[i] = m.EvaluateACWh(best.Layout, a.opt); errs[i] != nil {
+			if wh[i], errs[i] = m.EvaluateACWhCached(best.Layout, a.opt, cache); errs[i] != nil {
 				errs[i] = fmt.Errorf("alternative %q: %w", a.name, errs[i])
 			}
 		})
