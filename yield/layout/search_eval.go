@@ -144,12 +144,22 @@ func (s *searcher) runLevel(lv level, prev []state) ([]state, error) {
 	s.exhaustive = false
 	// The starts take about a third of the budget; the shapes listed first (most modules,
 	// fewest strings) come first. They are evaluated together, on all cores.
-	var starts []state
+	// Each shape gives startsPerShape starts; they are made on all cores (grouping by shade
+	// takes a while on a large roof) and joined in the shapes' order.
+	var use []Shape
 	for _, sh := range shapes {
-		if len(starts) >= s.opt.MaxEvals/3 && len(starts) > 0 {
+		if len(use)*startsPerShape >= s.opt.MaxEvals/3 && len(use) > 0 {
 			break
 		}
-		starts = append(starts, s.starts(sh)...)
+		use = append(use, sh)
+	}
+	per := make([][startsPerShape]state, len(use))
+	if err := s.runAll(len(use), func(i int) error { per[i] = s.starts(use[i]); return nil }); err != nil {
+		return nil, err
+	}
+	var starts []state
+	for i := range per {
+		starts = append(starts, per[i][:]...)
 	}
 	if s.opt.Screen != nil {
 		var err error

@@ -9,7 +9,7 @@ import (
 )
 
 // starts builds the shape's starting states.
-func (s *searcher) starts(sh Shape) []state {
+func (s *searcher) starts(sh Shape) [startsPerShape]state {
 	inputs, lengths := slotsOf(sh)
 	total := sh.Modules()
 	// Modules left out: the most shaded ones (largest feature sum; ties to the higher index,
@@ -62,12 +62,15 @@ func (s *searcher) starts(sh Shape) []state {
 			used = append(used, m)
 		}
 	}
-	return []state{
+	return [startsPerShape]state{
 		mk(StartClustered, s.cluster(used, lengths)),
 		mk(StartRoofOrder, fill(roof)),
 		mk(StartShadeRank, fill(byShade)),
 	}
 }
+
+// startsPerShape is how many starts searcher.starts makes of a shape.
+const startsPerShape = 3
 
 // given turns a caller's layout into a search state: inputs ordered as shapes are (more
 // modules first, then longer strings), strings in slot order. It reports false for a layout
