@@ -83,10 +83,13 @@ type ModuleStat struct {
 
 // Model is a survey's year, prepared once; layouts are evaluated on it.
 type Model struct {
-	In      Input
-	Module  *electric.Module
-	Year    *electric.Year
-	Shade   *shading.Result
+	In     Input
+	Module *electric.Module
+	Year   *electric.Year
+	Shade  *shading.Result
+	// Scene is the scene Shade was computed in; a sun-path chart reads a module's
+	// silhouettes and blockers from it instead of building another.
+	Scene   *shading.Scene
 	Stats   []ModuleStat
 	Records []weather.Record
 	// Steps are the sun-up steps as the shading took them (Shade's steps).

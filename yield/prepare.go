@@ -135,7 +135,7 @@ func (p *prep) shade(ctx context.Context) (*shading.Scene, error) {
 	if err != nil {
 		return nil, fmt.Errorf("yield: shading: %w", err)
 	}
-	p.m.Shade, p.m.Steps = shade, p.steps
+	p.m.Shade, p.m.Steps, p.m.Scene = shade, p.steps, scene
 	return scene, nil
 }
 

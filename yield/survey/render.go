@@ -268,9 +268,12 @@ func (p *Project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, e
 	if worst < 0 {
 		return nil, nil
 	}
-	sc, err := shading.NewScene(p.Site, p.Modules, shading.Options{Horizon: p.Horizon, Workers: 1})
-	if err != nil {
-		return nil, fmt.Errorf("sun-path chart: %w", err)
+	sc := m.Scene
+	if sc == nil {
+		var err error
+		if sc, err = shading.NewScene(p.Site, p.Modules, shading.Options{Horizon: p.Horizon, Workers: 1}); err != nil {
+			return nil, fmt.Errorf("sun-path chart: %w", err)
+		}
 	}
 	const step = 1.0 // degrees of azimuth: finer than a chimney seen from a few metres
 	year := 2025
