@@ -122,6 +122,10 @@ func dot(a, b []float64) float64 {
 	return d
 }
 
+// movesOrdered is how many of a round's moves are put in order at first (see orderMoves); each
+// later call orders as many again as are ordered already.
+const movesOrdered = 256
+
 // searchBatch is how many neighbours the local search evaluates at a time: enough to keep
 // the cores busy, few enough that little is wasted after an improvement. A constant, so that
 // the result does not depend on the number of cores.
@@ -381,9 +385,14 @@ func (s *searcher) improve(st state, lv level, stop int) error {
 	}
 	for {
 		moves := s.neighbours(&cur, lv)
-		next := -1
+		next, ordered := -1, 0
 		var batch []state
 		for i := 0; i < len(moves) && next < 0; {
+			if i+searchBatch > ordered && ordered < len(moves) {
+				k := max(movesOrdered, ordered)
+				orderMoves(moves, ordered, k)
+				ordered = min(ordered+k, len(moves))
+			}
 			if s.spent() >= stop {
 				s.budgetSpent = true
 				return nil

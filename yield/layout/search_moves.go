@@ -141,11 +141,69 @@ func (s *searcher) neighbours(cur *state, lv level) []move {
 			}
 		}
 	}
-	// Every field compared: no two moves tie, so the faster unstable sort gives the one order.
-	slices.SortFunc(out, func(x, y move) int {
-		return cmp.Or(cmp.Compare(y.gain, x.gain), cmp.Compare(x.kind, y.kind), cmp.Compare(x.a, y.a), cmp.Compare(x.b, y.b), cmp.Compare(x.j, y.j), cmp.Compare(x.i, y.i))
-	})
 	return out
+}
+
+// compareMoves orders moves best first. Every field is compared, so no two moves tie and
+// any sort gives the one order.
+func compareMoves(x, y move) int {
+	return cmp.Or(cmp.Compare(y.gain, x.gain), cmp.Compare(x.kind, y.kind), cmp.Compare(x.a, y.a), cmp.Compare(x.b, y.b), cmp.Compare(x.j, y.j), cmp.Compare(x.i, y.i))
+}
+
+// orderMoves puts the k best of ms[from:] at ms[from:from+k], in order, leaving the rest
+// after them in no order: a round of the local search usually takes only its first batches,
+// and a large roof has a hundred thousand moves. Successive calls for the next k give the
+// order a full sort would.
+func orderMoves(ms []move, from, k int) {
+	rest := ms[from:]
+	if k < len(rest) {
+		selectMoves(rest, k)
+		rest = rest[:k]
+	}
+	slices.SortFunc(rest, compareMoves)
+}
+
+// selectMoves rearranges ms so that its k best come first, in no order (Hoare's selection,
+// with the median of three as pivot).
+func selectMoves(ms []move, k int) {
+	lo, hi := 0, len(ms)-1
+	for lo < hi {
+		mid := lo + (hi-lo)/2
+		// Median of three to ms[mid].
+		if compareMoves(ms[mid], ms[lo]) < 0 {
+			ms[mid], ms[lo] = ms[lo], ms[mid]
+		}
+		if compareMoves(ms[hi], ms[lo]) < 0 {
+			ms[hi], ms[lo] = ms[lo], ms[hi]
+		}
+		if compareMoves(ms[hi], ms[mid]) < 0 {
+			ms[hi], ms[mid] = ms[mid], ms[hi]
+		}
+		pivot := ms[mid]
+		i, j := lo, hi
+		for i <= j {
+			for compareMoves(ms[i], pivot) < 0 {
+				i++
+			}
+			for compareMoves(pivot, ms[j]) < 0 {
+				j--
+			}
+			if i <= j {
+				ms[i], ms[j] = ms[j], ms[i]
+				i++
+				j--
+			}
+		}
+		// ms[lo..j] ≤ pivot ≤ ms[i..hi]; between them, equal to the pivot.
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return
+		}
+	}
 }
 
 // apply returns the state after one step (canonical, not evaluated).

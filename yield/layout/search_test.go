@@ -511,3 +511,41 @@ func TestSearchScreened(t *testing.T) {
 		})
 	}
 }
+
+// Moves put in order a chunk at a time come out as a full sort would put them, whatever the
+// chunks, ties of gain included (the other fields break them).
+func TestOrderMovesAsSort(t *testing.T) {
+	rng := rand.New(rand.NewPCG(2, 9))
+	tests := []struct {
+		name  string
+		n     int
+		first int
+		gains int // distinct gains: few make many ties
+	}{
+		{"fewer than a chunk", 100, 256, 1000},
+		{"chunks", 5000, 256, 1000000},
+		{"many ties", 5000, 64, 3},
+		{"chunk of one", 50, 1, 10},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			ms := make([]move, tc.n)
+			for i := range ms {
+				ms[i] = move{gain: float64(rng.IntN(tc.gains)), kind: moveKind(rng.IntN(5)), a: rng.IntN(400), b: rng.IntN(400), i: rng.IntN(20), j: rng.IntN(20)}
+			}
+			want := slices.Clone(ms)
+			slices.SortStableFunc(want, compareMoves)
+			got := slices.Clone(ms)
+			for ordered := 0; ordered < len(got); {
+				k := max(tc.first, ordered)
+				orderMoves(got, ordered, k)
+				ordered = min(ordered+k, len(got))
+			}
+			for i := range want {
+				if compareMoves(got[i], want[i]) != 0 {
+					t.Fatalf("move %d: %+v, a full sort puts %+v there", i, got[i], want[i])
+				}
+			}
+		})
+	}
+}
