@@ -5,6 +5,9 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
+	"sync"
+	"sync/atomic"
 	"time"
 
 	"sunstring/geo"
@@ -148,11 +151,21 @@ func (p *prep) geometry(scene *shading.Scene) {
 	p.tilt, p.aspect = make([]float64, n), make([]float64, n)
 	p.diff = make([]shading.Diffuse, n)
 	p.skyIAM, p.gndIAM = make([]float64, n), make([]float64, n)
+	// The modules' views of sky and ground (a few hundred rays each) on all cores.
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range min(runtime.GOMAXPROCS(0), n) {
+		wg.Go(func() {
+			for i := int(next.Add(1) - 1); i < n; i = int(next.Add(1) - 1) {
+				p.diff[i] = scene.Diffuse(i)
+			}
+		})
+	}
+	wg.Wait()
 	for i := range in.Modules {
 		nv := in.Modules[i].Normal()
 		p.tilt[i] = math.Acos(math.Max(-1, math.Min(1, nv.U))) * 180 / math.Pi
 		p.aspect[i] = math.Mod(math.Atan2(nv.E, nv.N)*180/math.Pi+360, 360)
-		p.diff[i] = scene.Diffuse(i)
 		p.m.Stats[i].SkyView = p.diff[i].SkyView
 		if in.System.IAM == IAMASHRAE {
 			// The ASHRAE form has no closed diffuse integral; the effective incidence angles
