@@ -179,13 +179,7 @@ func TestFritschOrder(t *testing.T) {
 // 1e-9 V at every grid point, for seeded shade patterns on a half-cut and a
 // full-cell module: same model, only the arithmetic's order differs.
 func TestCurveOnGridMatchesReference(t *testing.T) {
-	full := testDatasheet
-	full.HalfCut, full.CellsSeries = false, 60
-	for _, ds := range []Datasheet{testDatasheet, full} {
-		m, err := NewModule(ds)
-		if err != nil {
-			t.Fatal(err)
-		}
+	for _, m := range halfAndFullCells(t) {
 		rng := rand.New(rand.NewPCG(5, 6))
 		var sc curveScratch
 		var rs refScratch
@@ -376,13 +370,7 @@ func evenGrid(i0, h float64, n int) []float64 {
 // of one step share cells (a shadow over several modules at the same temperature), and the
 // year's energy must not depend on which module came first.
 func TestCurveOnGridSharedCells(t *testing.T) {
-	full := testDatasheet
-	full.HalfCut, full.CellsSeries = false, 60
-	for _, ds := range []Datasheet{testDatasheet, full} {
-		m, err := NewModule(ds)
-		if err != nil {
-			t.Fatal(err)
-		}
+	for _, m := range halfAndFullCells(t) {
 		cols, rows := m.Grid()
 		rng := rand.New(rand.NewPCG(9, 10))
 		for trial := range 40 {
@@ -431,4 +419,21 @@ func TestCurveOnGridSharedCells(t *testing.T) {
 			}
 		}
 	}
+}
+
+// halfAndFullCells returns the test module with half-cut cells and the same with 60 full
+// cells: the two ways cells make a substring.
+func halfAndFullCells(t *testing.T) []*Module {
+	t.Helper()
+	full := testDatasheet
+	full.HalfCut, full.CellsSeries = false, 60
+	var out []*Module
+	for _, ds := range []Datasheet{testDatasheet, full} {
+		m, err := NewModule(ds)
+		if err != nil {
+			t.Fatal(err)
+		}
+		out = append(out, m)
+	}
+	return out
 }
