@@ -381,10 +381,7 @@ func onSegment(is, vs []float64, k int, v float64) float64 {
 	return is[k-1]
 }
 
-// currentOff is currentOn before the first point and after the last; kept out of line so
-// that the loop of parallel2 stays small.
-//
-//go:noinline
+// currentOff is currentOn before the first point and after the last.
 func currentOff(is, vs []float64, k int, v float64) float64 {
 	n := len(is)
 	switch {
