@@ -12,11 +12,7 @@ import (
 // inputs, strings and modules, gives the same result to the bit as a fresh evaluation; the
 // cache hits the inputs it has seen.
 func TestEvaluateCachedSameResult(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 80, 0.7, 3)
+	_, y := testYear120(t, 80, 0.7, 3)
 	base := layout6x20()
 	// One swap between input 0 and input 1; the rest as before.
 	swapped := cloneLayout(base)
@@ -76,11 +72,7 @@ func TestEvaluateCachedSameResult(t *testing.T) {
 
 // A cache smaller than one entry still gives right results (it keeps at most one entry).
 func TestEvalCacheBounded(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 40, 0.7, 4)
+	_, y := testYear120(t, 40, 0.7, 4)
 	c := EvalCache{MaxBytes: 1}
 	want, err := y.Evaluate(layout6x20(), bigInverter, EvalOptions{})
 	if err != nil {
@@ -105,11 +97,7 @@ func TestEvalCacheBounded(t *testing.T) {
 // putting converters on its modules must give the rest's strings plus the converters'
 // modules at their own maxima (the sum of the two, at DC, before the inverter).
 func TestConvertersOn(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 60, 0.7, 5)
+	_, y := testYear120(t, 60, 0.7, 5)
 	l := layout6x20()
 	rest := cloneLayout(l)
 	conv := rest.Inputs[1][2]
@@ -162,11 +150,7 @@ func cloneLayout(l Layout) Layout {
 // exactly, so the result is the bit-for-bit result of adding the string up afresh, however
 // the strings were reached.
 func TestEvaluateCachedNearStrings(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 80, 0.7, 5)
+	_, y := testYear120(t, 80, 0.7, 5)
 	base := layout6x20()
 	swap := cloneLayout(base)
 	swap.Inputs[0][0][3], swap.Inputs[0][2][9] = swap.Inputs[0][2][9], swap.Inputs[0][0][3]
@@ -219,11 +203,7 @@ func TestEvaluateCachedNearStrings(t *testing.T) {
 // Goroutines sharing a cache, with a budget small enough that strings are dropped while
 // others read from them, give every layout the fresh result to the bit.
 func TestEvalCacheConcurrent(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 60, 0.7, 9)
+	_, y := testYear120(t, 60, 0.7, 9)
 	base := layout6x20()
 	var layouts []Layout
 	for i := range 24 {

@@ -13,11 +13,7 @@ import (
 // AC limits together, which would let the light one's headroom absorb the heavy one's
 // clipping.
 func TestPlantClipsPerInverter(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 40, 0.3, 5)
+	_, y := testYear120(t, 40, 0.3, 5)
 	inv := bigInverter
 	inv.Inputs = 2
 	// 60 modules a string at most: strings of 20 as in layout6x20, 3 on the first inverter's two
@@ -71,11 +67,7 @@ func TestPlantClipsPerInverter(t *testing.T) {
 
 // TestPlantNight: every inverter counts its night consumption, also one with no string.
 func TestPlantNight(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 10, 0, 7)
+	_, y := testYear120(t, 10, 0, 7)
 	inv := bigInverter
 	inv.NightW = 3
 	got, err := y.EvaluatePlant(Layout{Inputs: layout6x20().Inputs[:1]}, Identical(inv, 3), EvalOptions{NightHours: 100})
@@ -204,11 +196,7 @@ func TestPlantDeal(t *testing.T) {
 // with the fewest modules in strings), so the plant counts them once: the plant's DC energy
 // is its strings' plus the converters' modules at their own maximum.
 func TestPlantConverters(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 30, 0.3, 9)
+	_, y := testYear120(t, 30, 0.3, 9)
 	l := layout6x20()
 	opt := EvalOptions{NightHours: -1, ConvertersOn: []int{100, 101}, ModuleLevelEff: 1}
 	l.Inputs[1][2] = l.Inputs[1][2][2:] // modules 100 and 101 leave their string

@@ -49,6 +49,16 @@ func shadeYear(tb testing.TB, m *Module, n, steps int, shadeFrac float64, seed u
 	return y
 }
 
+// testYear120 returns the test module and shadeYear's year of 120 of them.
+func testYear120(tb testing.TB, steps int, shadeFrac float64, seed uint64) (*Module, *Year) {
+	tb.Helper()
+	m, err := NewModule(testDatasheet)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return m, shadeYear(tb, m, 120, steps, shadeFrac, seed)
+}
+
 func layout6x20() Layout {
 	var l Layout
 	for a := range 2 {
@@ -69,11 +79,7 @@ var bigInverter = Inverter{ACPowerW: 50000, MaxDCVoltageV: 1000, MPPTMinV: 200, 
 	MaxInputCurrentA: 60, Efficiency: []EffPoint{{1, 0.97}}}
 
 func TestYearUnshaded(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 50, 0, 1)
+	_, y := testYear120(t, 50, 0, 1)
 	if y.Curves() != 50 {
 		t.Errorf("unshaded steps must share one curve a step: %d curves", y.Curves())
 	}
@@ -150,11 +156,7 @@ func TestYearProperties(t *testing.T) {
 // TestYearLimits: a window above the string voltage and a tight current
 // limit cost energy in their own loss terms; clipping caps AC.
 func TestYearLimits(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 20, 0, 3)
+	_, y := testYear120(t, 20, 0, 3)
 	l := layout6x20()
 	tests := []struct {
 		name  string
@@ -446,11 +448,7 @@ func BenchmarkNewYearExample(b *testing.B) {
 // AC power (analytic: min(keep·DC·η, Pac) = Pac when keep·DC·η > Pac), and the unclipped
 // steps deliver keep times as much.
 func TestDCKeepBeforeClipping(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 20, 0, 3)
+	_, y := testYear120(t, 20, 0, 3)
 	inv := bigInverter
 	inv.ACPowerW = 20000
 	full, err := y.Evaluate(layout6x20(), inv, EvalOptions{NightHours: -1})
@@ -487,11 +485,7 @@ func TestDCKeepBeforeClipping(t *testing.T) {
 // modules' own maximum power, so the DC energy scales with it exactly; and StepDCWh adds up to
 // DCWh.
 func TestModuleLevelDefaultEff(t *testing.T) {
-	m, err := NewModule(testDatasheet)
-	if err != nil {
-		t.Fatal(err)
-	}
-	y := shadeYear(t, m, 120, 40, 0.7, 3)
+	_, y := testYear120(t, 40, 0.7, 3)
 	l := layout6x20()
 	eval := func(eff float64) YearResult {
 		r, err := y.Evaluate(l, bigInverter, EvalOptions{ModuleLevel: true, ModuleLevelEff: eff})
