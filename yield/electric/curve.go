@@ -290,9 +290,12 @@ func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
 	return oi, ov
 }
 
-// walk2 finishes parallel3's walk with inputs a and b from their points ka and kb, the third
-// input used up and giving its last current cst: as walkFrom would, to the bit (a sum of two
-// terms is the same in either order).
+// walk2 walks inputs a and b from their points ka and kb, adding cst to the other input's
+// current at each point: parallel2's whole walk (cst 0), or the end of parallel3's once its
+// third input is used up and gives its last current as cst. As walkFrom would, to the bit (a
+// sum of two terms is the same in either order). While both have points left, the other
+// input's next point is not past its last (see inside); once one is used up, the other's
+// points see its last current.
 func walk2(oi, ov, ia, va []float64, ka int, ib, vb []float64, kb int, cst float64) ([]float64, []float64) {
 	na, nb := len(va), len(vb)
 	for ka < na && kb < nb {
@@ -329,39 +332,12 @@ func inside(is, vs []float64, k int, v float64) float64 {
 	return onSegment(is, vs, max(k, 1), v)
 }
 
-// parallel2 is parallel for two inputs a and b of at least two points each, to the bit.
-// While both have points left, the other input's next point is not past its last (see
-// inside); once one is used up, the other's points see its last current.
+// parallel2 is parallel for two inputs a and b of at least two points each, to the bit:
+// walk2 with no third input.
 func (m *merger) parallel2(ia, va, ib, vb []float64) ([]float64, []float64) {
-	na, nb := len(va), len(vb)
-	oi, ov := slices.Grow(m.oi[:0], na+nb), slices.Grow(m.ov[:0], na+nb)
-	ka, kb := 0, 0
-	for ka < na && kb < nb {
-		switch xa, xb := va[ka], vb[kb]; {
-		case xa > xb:
-			oi = append(oi, ia[ka]+inside(ib, vb, kb, xa))
-			ov = append(ov, xa)
-			ka++
-		case xb > xa:
-			oi = append(oi, ib[kb]+inside(ia, va, ka, xb))
-			ov = append(ov, xb)
-			kb++
-		default:
-			oi = append(oi, ia[ka]+ib[kb])
-			ov = append(ov, xa)
-			ka, kb = ka+1, kb+1
-		}
-	}
-	for ; ka < na; ka++ {
-		oi = append(oi, ia[ka]+ib[nb-1])
-		ov = append(ov, va[ka])
-	}
-	for ; kb < nb; kb++ {
-		oi = append(oi, ib[kb]+ia[na-1])
-		ov = append(ov, vb[kb])
-	}
-	m.oi, m.ov = oi, ov
-	return oi, ov
+	n := len(va) + len(vb)
+	m.oi, m.ov = walk2(slices.Grow(m.oi[:0], n), slices.Grow(m.ov[:0], n), ia, va, 0, ib, vb, 0, 0)
+	return m.oi, m.ov
 }
 
 // currentOn returns the current of polyline (is, vs) at voltage v, where k is
