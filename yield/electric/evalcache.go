@@ -456,6 +456,15 @@ type stringYear struct {
 	derived  []*stringYear // the kept strings whose base this is
 	counted  bool          // v's bytes are in the cache's total
 	asked    int           // times asked for, itself or as a parent
+	// near is, for a string with no base, a built string several modules away to read it from
+	// (nil: none); nearUsers are the kept strings whose near reads this one.
+	near      *nearYear
+	nearUsers []*stringYear
+	// indexed says the string is in the cache's index of built strings by module; mark and
+	// hits are nearest's scratch.
+	indexed bool
+	mark    uint64
+	hits    int
 
 	once  sync.Once
 	ready atomic.Bool
@@ -466,15 +475,28 @@ type stringYear struct {
 const nominalBytes = 256
 
 // stringRecipe is how inputCurve reads a string at a step: a year of voltages (v), plus
-// module add and less module sub (−1: none); a nil v: add the string up.
+// module add and less module sub (−1: none); a nil v: add the string up, or read it from near
+// where that is cheaper.
 type stringRecipe struct {
 	v        []int64
 	add, sub int
+	near     *nearYear
 	// parent is the kept string this one is (padd and psub −1) or differs from by module padd
 	// in and module psub out (either −1: moved in or out only), whether or not its year is
 	// built; nil: none.
 	parent     *stringYear
 	padd, psub int
+}
+
+// nearYear reads a string from a built one several modules away: the built string's year v
+// plus the curves of the modules in adds, less those of the modules in subs. A string of
+// modules each lit a little differently (a large roof's modules see their own share of the
+// sky) has nearly as many distinct curves at a step as modules, and a search's new strings
+// often share most of their modules with one built before.
+type nearYear struct {
+	from       *stringYear
+	v          []int64
+	adds, subs []int
 }
 
 // stringCache keeps strings, the least recently used dropped first, and finds for a string a
@@ -486,6 +508,17 @@ type stringCache struct {
 	bytes  int64
 	built  int64 // years built
 	recipe int64 // strings read from a parent one module away
+	near   int64 // strings read from a built string several modules away
+	// byMod lists the built strings kept, by each of their modules; gen and cand are
+	// nearest's scratch.
+	byMod map[modKey][]*stringYear
+	gen   uint64
+	cand  []*stringYear
+}
+
+type modKey struct {
+	y *Year
+	k int
 }
 
 type stringKey struct {
@@ -526,16 +559,19 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 	if sy := cs.byKey[stringKey{y, key}]; sy != nil {
 		cs.order.MoveToFront(sy.elem)
 		sy.asked++
-		base, add, sub, asked := sy.base, sy.add, sy.sub, sy.asked
+		base, add, sub, asked, near := sy.base, sy.add, sy.sub, sy.asked, sy.near
 		c.mu.Unlock()
 		if !sy.ready.Load() && asked >= 2 {
-			c.build(sy, base, add, sub)
+			c.build(sy, base, add, sub, near)
 		}
 		self := stringRecipe{add: -1, sub: -1, parent: sy, padd: -1, psub: -1}
 		if sy.ready.Load() {
 			self.v = sy.v
 		} else if base != nil {
 			self.v, self.add, self.sub = base.v, add, sub
+		}
+		if self.v == nil {
+			self.near = near
 		}
 		return self
 	}
@@ -580,22 +616,27 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 	}
 	out := stringRecipe{add: -1, sub: -1, parent: b, padd: add, psub: sub}
 	var bb *stringYear
+	var bn *nearYear
 	ba, bs := -1, -1
 	if b != nil {
 		cs.order.MoveToFront(b.elem)
 		b.asked++
-		bb, ba, bs = b.base, b.add, b.sub
+		bb, ba, bs, bn = b.base, b.add, b.sub, b.near
 		// Building a year costs about what adding the string up over the year costs, and
 		// pays only when it is read again: a parent asked for the first time is not built.
 		if b.asked < 2 && !b.ready.Load() {
 			b = nil
 		}
 	}
+	var near *nearYear
+	if b == nil {
+		near = cs.nearest(y, mods)
+	}
 	c.mu.Unlock()
 	if b != nil {
-		c.build(b, bb, ba, bs)
+		c.build(b, bb, ba, bs, bn)
 	}
-	sy := &stringYear{y: y, mods: slices.Clone(mods), key: key, base: b, add: add, sub: sub}
+	sy := &stringYear{y: y, mods: slices.Clone(mods), key: key, base: b, add: add, sub: sub, near: near}
 	if b == nil {
 		sy.add, sy.sub = -1, -1
 	}
@@ -604,16 +645,21 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 	if b != nil {
 		c.strs.recipe++
 	}
+	if near != nil {
+		c.strs.near++
+	}
 	c.mu.Unlock()
 	if b != nil {
 		out.v, out.add, out.sub = b.v, add, sub
 	}
+	out.near = near
 	return out
 }
 
 // build computes sy's year once, from base (plus add, less sub) when base's year is ready,
-// else module by module, and counts its bytes if sy is still kept.
-func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
+// else from near where that is cheaper, else module by module; it counts its bytes and
+// indexes it by module if sy is still kept.
+func (c *EvalCache) build(sy, base *stringYear, add, sub int, near *nearYear) {
 	did := false
 	sy.once.Do(func() {
 		did = true
@@ -622,10 +668,14 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
 		fromBase := base != nil && base.ready.Load()
 		// Every step on its own: runs of steps on all cores, as readers wait for the year.
 		y.eachPart(func(lo, hi int) {
-			var pr []curveCount
+			var pr, dp []curveCount
 			for s := lo; s < hi; s++ {
 				off, np := int(y.gridOff[s]), int(y.gridOff[s+1]-y.gridOff[s])
 				row := s * y.n
+				if !fromBase && near != nil {
+					pr, dp = y.addNear(v[off:off+np], off, row, sy.mods, near, pr, dp)
+					continue
+				}
 				if !fromBase {
 					pr = y.addString(v[off:off+np], row, sy.mods, pr)
 					continue
@@ -652,6 +702,7 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int) {
 	if c.strs.byKey[stringKey{sy.y, sy.key}] == sy && !sy.counted {
 		sy.counted = true
 		c.strs.bytes += int64(len(sy.v)) * 8
+		c.strs.index(sy)
 		c.trimStrings()
 	}
 }
@@ -698,7 +749,70 @@ func (c *EvalCache) putString(sy *stringYear) {
 	if sy.base != nil {
 		sy.base.derived = append(sy.base.derived, sy)
 	}
+	if sy.near != nil {
+		sy.near.from.nearUsers = append(sy.near.from.nearUsers, sy)
+	}
 	c.trimStrings()
+}
+
+// index lists a built string under each of its modules, for nearest. c.mu is held.
+func (cs *stringCache) index(sy *stringYear) {
+	if cs.byMod == nil {
+		cs.byMod = map[modKey][]*stringYear{}
+	}
+	for _, k := range sy.mods {
+		mk := modKey{sy.y, k}
+		cs.byMod[mk] = append(cs.byMod[mk], sy)
+	}
+	sy.indexed = true
+}
+
+// nearest returns how to read the string mods (sorted) from the built string with the fewest
+// modules in and out, if those are at most half the string's modules: nil when there is none.
+// Each built string sharing a module is counted once per shared module. c.mu is held.
+func (cs *stringCache) nearest(y *Year, mods []int) *nearYear {
+	if len(cs.byMod) == 0 {
+		return nil
+	}
+	cs.gen++
+	for _, k := range mods {
+		for _, e := range cs.byMod[modKey{y, k}] {
+			if e.mark != cs.gen {
+				e.mark, e.hits = cs.gen, 0
+				cs.cand = append(cs.cand, e)
+			}
+			e.hits++
+		}
+	}
+	var best *stringYear
+	bd := len(mods)/2 + 1
+	for _, e := range cs.cand {
+		if d := len(mods) + len(e.mods) - 2*e.hits; d < bd {
+			best, bd = e, d
+		}
+	}
+	clear(cs.cand)
+	cs.cand = cs.cand[:0]
+	if best == nil {
+		return nil
+	}
+	nb := &nearYear{from: best, v: best.v}
+	// Both sorted: one merge gives the modules in and out.
+	i, j := 0, 0
+	for i < len(mods) || j < len(best.mods) {
+		switch {
+		case j == len(best.mods) || i < len(mods) && mods[i] < best.mods[j]:
+			nb.adds = append(nb.adds, mods[i])
+			i++
+		case i == len(mods) || best.mods[j] < mods[i]:
+			nb.subs = append(nb.subs, best.mods[j])
+			j++
+		default:
+			i++
+			j++
+		}
+	}
+	return nb
 }
 
 // trimStrings drops the least recently used strings over the budget. c.mu is held.
@@ -738,6 +852,30 @@ func (c *EvalCache) dropString(e *stringYear) {
 		}
 	}
 	e.derived = nil
+	// Strings read near e forget it, so that a dropped year is not held; a reader holding its
+	// recipe still reads it (years are never written once ready).
+	for _, d := range e.nearUsers {
+		if d.near != nil && d.near.from == e {
+			d.near = nil
+		}
+	}
+	e.nearUsers = nil
+	if e.near != nil {
+		from := e.near.from
+		from.nearUsers = slices.DeleteFunc(from.nearUsers, func(d *stringYear) bool { return d == e })
+		e.near = nil
+	}
+	if e.indexed {
+		for _, k := range e.mods {
+			mk := modKey{e.y, k}
+			if l := slices.DeleteFunc(cs.byMod[mk], func(d *stringYear) bool { return d == e }); len(l) > 0 {
+				cs.byMod[mk] = l
+			} else {
+				delete(cs.byMod, mk)
+			}
+		}
+		e.indexed = false
+	}
 	if e.base != nil {
 		e.base.derived = slices.DeleteFunc(e.base.derived, func(d *stringYear) bool { return d == e })
 	}

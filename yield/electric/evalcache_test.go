@@ -200,6 +200,65 @@ func TestEvaluateCachedNearStrings(t *testing.T) {
 	}
 }
 
+// A string several modules away from a built one (here three modules in and three out, and a
+// string cut short by four) is read from it: its voltages plus the curves moved in less those
+// moved out, at the steps where that reads fewer curves than adding the string up. Whole units
+// of voltQuantum add exactly, so either way gives the bits of a fresh evaluation.
+func TestEvaluateCachedFarStrings(t *testing.T) {
+	_, y := testYear120(t, 80, 0.7, 6)
+	base := layout6x20()
+	// The same six strings grouped otherwise, twice: new inputs ask for each string again,
+	// which builds its year (at the third time of asking).
+	regrouped := Layout{Inputs: [][][]int{
+		{base.Inputs[0][0], base.Inputs[0][1], base.Inputs[1][0]},
+		{base.Inputs[0][2], base.Inputs[1][1], base.Inputs[1][2]},
+	}}
+	regrouped2 := Layout{Inputs: [][][]int{
+		{base.Inputs[0][0], base.Inputs[1][1], base.Inputs[1][2]},
+		{base.Inputs[0][2], base.Inputs[0][1], base.Inputs[1][0]},
+	}}
+	// Three modules of the first string traded for three of the fourth: each string six
+	// modules from its built one, too far for the one-module recipes.
+	traded := cloneLayout(base)
+	for k := range 3 {
+		a, b := &traded.Inputs[0][0][5+k], &traded.Inputs[1][0][10+k]
+		*a, *b = *b, *a
+	}
+	// The last string cut to its first 16 modules, the four others left unused.
+	short := cloneLayout(base)
+	short.Inputs[1][2] = short.Inputs[1][2][:16]
+	var c EvalCache
+	for _, tc := range []struct {
+		name string
+		l    Layout
+	}{
+		{"base", base},
+		{"strings regrouped", regrouped},
+		{"strings regrouped again", regrouped2},
+		{"three modules traded", traded},
+		{"a string cut short", short},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			fresh, err := y.Evaluate(tc.l, bigInverter, EvalOptions{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			cached, err := y.EvaluateCached(tc.l, bigInverter, EvalOptions{}, &c)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if fresh.ACWh != cached.ACWh || fresh.GlobalDCWh != cached.GlobalDCWh || fresh.TrackerLossWh != cached.TrackerLossWh ||
+				!slices.Equal(fresh.StepDCWh, cached.StepDCWh) {
+				t.Errorf("cached %v Wh, fresh %v Wh: must agree to the bit", cached.ACWh, fresh.ACWh)
+			}
+		})
+	}
+	// The two traded strings and the short one.
+	if c.strs.near != 3 {
+		t.Errorf("%d strings read from a built string several modules away, want 3", c.strs.near)
+	}
+}
+
 // Goroutines sharing a cache, with a budget small enough that strings are dropped while
 // others read from them, give every layout the fresh result to the bit.
 func TestEvalCacheConcurrent(t *testing.T) {

@@ -745,6 +745,7 @@ func (y *Year) CheckLayout(l Layout, inv Inverter) error {
 // evalScratch is per-call working space.
 type evalScratch struct {
 	pairs [][]curveCount // per string of an input
+	delta []curveCount   // addNear's curves in and out
 	isums [][]int64      // per string: voltage sums on the step grid (voltQuantum)
 	src   [][]int64      // per string: its sums, in isums or read in place from a kept year
 	sums  [][]float64    // per string: the same in volts
@@ -884,8 +885,12 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 			continue
 		}
 		sc.isums[b] = growInt64(sc.isums[b], np)
-		clear(sc.isums[b])
-		sc.pairs[b] = y.addString(sc.isums[b], row, str, sc.pairs[b])
+		if strs != nil && strs[b].near != nil {
+			sc.pairs[b], sc.delta = y.addNear(sc.isums[b], off, row, str, strs[b].near, sc.pairs[b], sc.delta)
+		} else {
+			clear(sc.isums[b])
+			sc.pairs[b] = y.addString(sc.isums[b], row, str, sc.pairs[b])
+		}
 		sc.src[b] = sc.isums[b]
 	}
 	same := true
@@ -966,6 +971,13 @@ modules:
 // for reuse.
 func (y *Year) addString(sum []int64, row int, str []int, pr []curveCount) []curveCount {
 	pr = y.appendPairs(pr[:0], row, str)
+	y.addPairs(sum, pr)
+	return pr
+}
+
+// addPairs adds each curve of pr times its count (which may be negative) to sum, four curves a
+// pass.
+func (y *Year) addPairs(sum []int64, pr []curveCount) {
 	np := len(sum)
 	j := 0
 	for ; j+4 <= len(pr); j += 4 {
@@ -982,7 +994,45 @@ func (y *Year) addString(sum []int64, row int, str []int, pr []curveCount) []cur
 	case 1:
 		addCurve(sum, y.curve(p[0].c, np), int64(p[0].n))
 	}
-	return pr
+}
+
+// appendDelta appends to dp the curves, with their counts, that take a string to another at
+// the step starting at row: +1 for each module of adds, −1 for each of subs. A module in and a
+// module out with one curve cancel, and curves whose count comes to zero are left out.
+func (y *Year) appendDelta(dp []curveCount, row int, adds, subs []int) []curveCount {
+	dp = y.appendPairs(dp, row, adds)
+modules:
+	for _, k := range subs {
+		c := y.modCurve[row+k]
+		for j := range dp {
+			if dp[j].c == c {
+				dp[j].n--
+				continue modules
+			}
+		}
+		dp = append(dp, curveCount{c, -1})
+	}
+	return slices.DeleteFunc(dp, func(p curveCount) bool { return p.n == 0 })
+}
+
+// addNear writes into sum the voltages of the string str at the step starting at row, whose
+// grid starts at off in the years' layout: near's built string plus the modules moved in less
+// those moved out, where that reads fewer curves than adding up the string's distinct curves,
+// else added up. Both are whole units of voltQuantum, so either way gives the same bits. pr and
+// dp are scratch space, returned for reuse.
+func (y *Year) addNear(sum []int64, off, row int, str []int, near *nearYear, pr, dp []curveCount) ([]curveCount, []curveCount) {
+	dp = y.appendDelta(dp[:0], row, near.adds, near.subs)
+	if len(dp) > 1 {
+		// The built string costs about two curves (its values are twice as wide).
+		if pr = y.appendPairs(pr[:0], row, str); len(pr) <= len(dp)+2 {
+			clear(sum)
+			y.addPairs(sum, pr)
+			return pr, dp
+		}
+	}
+	copy(sum, near.v[off:off+len(sum)])
+	y.addPairs(sum, dp)
+	return pr, dp
 }
 
 // addCurves2 adds fa × a + fb × b to sum, point by point.
