@@ -137,6 +137,13 @@ func (m *Model) EvaluateACWhCached(l electric.Layout, opt electric.EvalOptions, 
 	return (yr.ACWh - yr.NightWh) * avail, nil
 }
 
+// KeepStrings builds in c the years of the layout's strings on the prepared year
+// (electric.EvalCache.KeepStrings), so that evaluating the layout again, with another tracker
+// or with some of its modules taken out or rewired, reads them.
+func (m *Model) KeepStrings(l electric.Layout, c *electric.EvalCache) {
+	c.KeepStrings(m.Year, l)
+}
+
 // Evaluate runs a layout over the prepared year, and the same layout over the unshaded
 // reference year for its shade loss. The layout's inputs are the plant's in order, inverter by
 // inverter (System.Plant, electric.Plant.Split): each inverter clips at its own AC limit and

@@ -656,6 +656,34 @@ func (c *EvalCache) stringRecipe(y *Year, mods []int) stringRecipe {
 	return out
 }
 
+// KeepStrings builds now the years of the layout's strings that are not built yet, however
+// often they were asked for, so that evaluations of the layout, and of layouts whose strings
+// are near its (a few modules in or out, see nearYear), read them instead of adding them up:
+// what a survey does with its best layout after the search.
+func (c *EvalCache) KeepStrings(y *Year, l Layout) {
+	for _, in := range l.Inputs {
+		for _, str := range in {
+			if len(str) == 0 {
+				continue
+			}
+			mods := slices.Sorted(slices.Values(str))
+			c.stringRecipe(y, mods) // finds or keeps it
+			c.mu.Lock()
+			sy := c.strs.byKey[stringKey{y, string(modsKey(nil, mods, -1))}]
+			var base *stringYear
+			var near *nearYear
+			add, sub := -1, -1
+			if sy != nil {
+				base, add, sub, near = sy.base, sy.add, sy.sub, sy.near
+			}
+			c.mu.Unlock()
+			if sy != nil && !sy.ready.Load() {
+				c.build(sy, base, add, sub, near)
+			}
+		}
+	}
+}
+
 // build computes sy's year once, from base (plus add, less sub) when base's year is ready,
 // else from near where that is cheaper, else module by module; it counts its bytes and
 // indexes it by module if sy is still kept.

@@ -259,6 +259,54 @@ func TestEvaluateCachedFarStrings(t *testing.T) {
 	}
 }
 
+// KeepStrings builds a layout's strings at once, however often they were asked for: the layout
+// then reads them, and a layout with modules taken out of its strings reads them less those
+// modules, to the bit of a fresh evaluation.
+func TestKeepStrings(t *testing.T) {
+	_, y := testYear120(t, 80, 0.7, 7)
+	base := layout6x20()
+	var c EvalCache
+	c.KeepStrings(y, base)
+	if built, _ := c.StringStats(); built != 6 {
+		t.Fatalf("%d strings' years built, want the layout's 6", built)
+	}
+	// Modules 3, 9 and 14 of the first string and 0 of the fifth on converters of their own.
+	out := cloneLayout(base)
+	out.Inputs[0][0] = slices.DeleteFunc(out.Inputs[0][0], func(k int) bool { return k == 3 || k == 9 || k == 14 })
+	out.Inputs[1][1] = out.Inputs[1][1][1:]
+	for _, tc := range []struct {
+		name string
+		l    Layout
+		opt  EvalOptions
+	}{
+		{"the layout", base, EvalOptions{}},
+		{"with a hill-climbing tracker", base, EvalOptions{Tracker: LocalClimb}},
+		{"modules taken out", out, EvalOptions{ConvertersOn: []int{3, 9, 14, 80}}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			fresh, err := y.Evaluate(tc.l, bigInverter, tc.opt)
+			if err != nil {
+				t.Fatal(err)
+			}
+			cached, err := y.EvaluateCached(tc.l, bigInverter, tc.opt, &c)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if fresh.ACWh != cached.ACWh || fresh.TrackerLossWh != cached.TrackerLossWh || !slices.Equal(fresh.StepDCWh, cached.StepDCWh) {
+				t.Errorf("cached %v Wh, fresh %v Wh: must agree to the bit", cached.ACWh, fresh.ACWh)
+			}
+		})
+	}
+	// The first string is three modules from its kept year; the fifth is one module out of its
+	// own, read by the one-module recipe.
+	if c.strs.near != 1 {
+		t.Errorf("%d strings read from a built string several modules away, want 1", c.strs.near)
+	}
+	if built, _ := c.StringStats(); built != 6 {
+		t.Errorf("%d strings' years built, want still 6: the layout's are read, not built again", built)
+	}
+}
+
 // Goroutines sharing a cache, with a budget small enough that strings are dropped while
 // others read from them, give every layout the fresh result to the bit.
 func TestEvalCacheConcurrent(t *testing.T) {

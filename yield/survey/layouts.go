@@ -148,6 +148,11 @@ func (p *Project) layouts(ctx context.Context, m *yield.Model) ([]RankedLayout, 
 			how += ", every layout the inverter allows"
 		}
 		how += ")"
+		// The other candidates, the variants and the alternatives change a few of the best
+		// layout's strings: they read its strings' years instead of adding their own up.
+		if len(cands) > 0 {
+			m.KeepStrings(cands[0].Layout, cache)
+		}
 		listed := len(out)
 		for _, c := range cands {
 			// The search's values rank the candidates; names are given best first, so the

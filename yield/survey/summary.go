@@ -77,6 +77,7 @@ func (p *Project) alternatives(m *yield.Model, ls []RankedLayout) ([]report.Alte
 	// Only the annual energy is reported: no unshaded reference, and both on their own core.
 	// The run's cache holds the best layout's strings from the search: read, not added up.
 	cache := p.evalCache()
+	m.KeepStrings(best.Layout, cache)
 	wh := make([]float64, len(alts))
 	errs := make([]error, len(alts))
 	var wg sync.WaitGroup
