@@ -257,22 +257,22 @@ func (p *prep) shadedYear() error {
 			dirUn, difUn := c.tc.OnPlane(irradiance.View{Sky: 1, Horizon: 1, Ground: 1,
 				IAMBeam: c.iamB, IAMSky: p.skyIAM[i], IAMGround: p.gndIAM[i]})
 			ci := dst.CellIrr[i]
-			// Neighbouring cells mostly share their lit share: the value is reused while it
-			// repeats.
-			last, g := -1, 0.0
-			for k := range ci {
-				l := 255
-				if lit != nil {
-					l = int(lit[k])
-				}
-				if l != last {
-					f := 1.0
-					if lit != nil {
-						f = float64(l) / 255
+			if lit == nil {
+				// No shade on the module: one value for all its cells.
+				ci[0] = math.Min(soil*(direct*1.0+diffuse), electric.MaxIrradiance)
+				dst.Even[i] = true
+			} else {
+				// Neighbouring cells mostly share their lit share: the value is reused while
+				// it repeats.
+				last, g, runs := -1, 0.0, 0
+				for k := range ci {
+					if l := int(lit[k]); l != last {
+						last, g = l, math.Min(soil*(direct*(float64(l)/255)+diffuse), electric.MaxIrradiance)
+						runs++
 					}
-					last, g = l, math.Min(soil*(direct*f+diffuse), electric.MaxIrradiance)
+					ci[k] = g
 				}
-				ci[k] = g
+				dst.Even[i] = runs == 1
 			}
 			unsh := c.tc.Total()
 			shaded := dirRaw*litFrac + difRaw
@@ -334,9 +334,7 @@ func (p *prep) unshadedYear() error {
 		}
 		for i := range n {
 			g := float64(p.unIrr[s*n+i])
-			for k := range dst.CellIrr[i] {
-				dst.CellIrr[i][k] = g
-			}
+			dst.CellIrr[i][0], dst.Even[i] = g, true
 			dst.UnshadedIrr[i] = g
 			dst.TempC[i] = float64(p.unTemp[s*n+i])
 		}

@@ -177,6 +177,12 @@ func (m *Module) CheckCells(cellIrr []float64, tempC float64) error {
 	if len(cellIrr) != m.Cells() {
 		return outOfModelf("cell_irradiance", "%d values, want %d (cols×rows)", len(cellIrr), m.Cells())
 	}
+	return checkValues(cellIrr, tempC)
+}
+
+// checkValues is CheckCells without the count of cells: for all the cells, or for the
+// first of a module lit evenly (StepInput.Even).
+func checkValues(cellIrr []float64, tempC float64) error {
 	for k, s := range cellIrr {
 		if !(s >= 0 && s <= MaxIrradiance) { // false for NaN too
 			return outOfModelf(fmt.Sprintf("cell_irradiance[%d]", k), "%g W/m² must lie in 0..%g", s, MaxIrradiance)

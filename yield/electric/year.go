@@ -19,7 +19,12 @@ type Layout struct{ Inputs [][][]int }
 // the same value to every call with CellIrr[m] already sized to the module's
 // cell count and everything zeroed, so a caller fills it in place.
 type StepInput struct {
-	CellIrr     [][]float64 // per module: effective irradiance per cell (W/m²)
+	CellIrr [][]float64 // per module: effective irradiance per cell (W/m²)
+	// Even, per module, says that all its cells take CellIrr[m][0]: the other cells are
+	// then not read, so a step function need not write them. Most modules of a large roof
+	// are lit evenly at most steps (no shade on them); the year is the same as with every
+	// cell set to that value.
+	Even        []bool
 	TempC       []float64   // per module: cell temperature (°C)
 	UnshadedIrr []float64   // per module: effective irradiance were no cell shaded (W/m²)
 	Hours       float64     // length of the step (h); zero means 1 h
@@ -155,10 +160,7 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), o
 		hours:      make([]float32, steps),
 		moduleDCWh: make([]float64, nModules), moduleUnWh: make([]float64, nModules),
 	}
-	in := StepInput{CellIrr: make([][]float64, nModules), TempC: make([]float64, nModules), UnshadedIrr: make([]float64, nModules)}
-	for k := range in.CellIrr {
-		in.CellIrr[k] = make([]float64, nc)
-	}
+	in := newStepInput(nModules, nc)
 	workers := runtime.GOMAXPROCS(0)
 	ws := make([]yearWorker, workers)
 	for w := range ws {
@@ -188,14 +190,9 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), o
 		}
 		for j := range b.count {
 			s := first + j
-			for k := range in.CellIrr {
-				clear(in.CellIrr[k])
-			}
-			clear(in.TempC)
-			clear(in.UnshadedIrr)
-			in.Hours = 0
-			step(s, &in)
-			h, err := b.takeStep(m, &in, s, j, !exact)
+			in.zero()
+			step(s, in)
+			h, err := b.takeStep(m, in, s, j, !exact)
 			if err != nil {
 				if pending != nil {
 					pending.wg.Wait()
@@ -240,6 +237,26 @@ func (y *Year) mergeTaken(b *yearBatch) error {
 	return nil
 }
 
+// newStepInput returns a zeroed step input for n modules of nc cells.
+func newStepInput(n, nc int) *StepInput {
+	in := &StepInput{CellIrr: make([][]float64, n), Even: make([]bool, n), TempC: make([]float64, n), UnshadedIrr: make([]float64, n)}
+	for k := range in.CellIrr {
+		in.CellIrr[k] = make([]float64, nc)
+	}
+	return in
+}
+
+// zero zeroes the input for the next call of the step function.
+func (in *StepInput) zero() {
+	for k := range in.CellIrr {
+		clear(in.CellIrr[k])
+	}
+	clear(in.Even)
+	clear(in.TempC)
+	clear(in.UnshadedIrr)
+	in.Hours = 0
+}
+
 // yearBatchSteps is the number of steps NewYear copies before building their
 // curves: enough to share out among goroutines, small enough to keep the
 // copies (steps × modules × cells × 8 bytes) a few megabytes.
@@ -252,7 +269,7 @@ const yearBatchSteps = 16
 // while the step function's output is still in the cache.
 func (b *yearBatch) takeStep(m *Module, in *StepInput, s, j int, round bool) (float64, error) {
 	n, nc := b.n, b.nc
-	if len(in.CellIrr) != n || len(in.TempC) != n || len(in.UnshadedIrr) != n {
+	if len(in.CellIrr) != n || len(in.Even) != n || len(in.TempC) != n || len(in.UnshadedIrr) != n {
 		return 0, outOfModelf(fmt.Sprintf("step %d", s), "per-module slices must keep length %d", n)
 	}
 	h := in.Hours
@@ -264,13 +281,26 @@ func (b *yearBatch) takeStep(m *Module, in *StepInput, s, j int, round bool) (fl
 	}
 	for k := range n {
 		ci, t := in.CellIrr[k], in.TempC[k]
+		i := j*n + k
+		even := in.Even[k]
+		b.even[i] = even
 		ok := len(ci) == nc && t >= MinCellTempC && t <= MaxCellTempC
 		if ok {
-			i := j*n + k
-			b.hash[i], b.smax[i], b.runs[i], ok = roundCellsHash(b.irr[i*nc:(i+1)*nc], ci, round)
+			if even {
+				// The first cell only: build fills in the others where it reads them.
+				b.hash[i], b.smax[i], b.runs[i], ok = roundCellsHash(b.irr[i*nc:i*nc+1], ci[:1], round)
+			} else {
+				b.hash[i], b.smax[i], b.runs[i], ok = roundCellsHash(b.irr[i*nc:(i+1)*nc], ci, round)
+			}
 		}
 		if !ok {
-			if err := m.CheckCells(ci, t); err != nil {
+			var err error
+			if even && len(ci) == nc {
+				err = checkValues(ci[:1], t)
+			} else {
+				err = m.CheckCells(ci, t)
+			}
+			if err != nil {
 				return 0, fmt.Errorf("step %d, module %d: %w", s, k, err)
 			}
 		}
@@ -286,6 +316,7 @@ type yearBatch struct {
 	first, count int
 	n, nc        int
 	irr          []float64 // count × n × nc: rounded cell irradiances (see takeStep)
+	even         []bool    // count × n: the module is lit evenly, only its first irr is set
 	hash         []uint64  // count × n: hash of the module's irr
 	smax         []float64 // count × n: the module's brightest irr
 	runs         []int     // count × n: the module's runs of equal irr
@@ -314,6 +345,7 @@ func (b *yearBatch) reset(first, count, n, nc int) {
 	b.first, b.count, b.n, b.nc = first, count, n, nc
 	b.errs = append(b.errs[:0], make([]error, count)...)
 	b.irr = slices.Grow(b.irr[:0], count*n*nc)[:count*n*nc]
+	b.even = slices.Grow(b.even[:0], count*n)[:count*n]
 	b.hash = slices.Grow(b.hash[:0], count*n)[:count*n]
 	b.smax = slices.Grow(b.smax[:0], count*n)[:count*n]
 	b.runs = slices.Grow(b.runs[:0], count*n)[:count*n]
@@ -468,21 +500,12 @@ func (y *Year) grid(s int) []float64 { return y.gridI[y.gridOff[s]:y.gridOff[s+1
 // take calls the batch's step function for step j with the worker's own input and takes the
 // step into the batch, as newYear's loop does when it calls the step function itself.
 func (w *yearWorker) take(m *Module, b *yearBatch, j int) error {
-	n, nc := b.n, b.nc
-	in := &w.in
-	if len(in.CellIrr) != n {
-		in.CellIrr = make([][]float64, n)
-		for k := range in.CellIrr {
-			in.CellIrr[k] = make([]float64, nc)
-		}
-		in.TempC, in.UnshadedIrr = make([]float64, n), make([]float64, n)
+	n := b.n
+	if w.in == nil || len(w.in.CellIrr) != n {
+		w.in = newStepInput(n, b.nc)
 	}
-	for k := range in.CellIrr {
-		clear(in.CellIrr[k])
-	}
-	clear(in.TempC)
-	clear(in.UnshadedIrr)
-	in.Hours = 0
+	in := w.in
+	in.zero()
 	s := b.first + j
 	b.fill(s, in)
 	h, err := b.takeStep(m, in, s, j, b.round)
@@ -497,7 +520,7 @@ func (w *yearWorker) take(m *Module, b *yearBatch, j int) error {
 
 // yearWorker is one goroutine's working space.
 type yearWorker struct {
-	in    StepInput // the worker's own step input (YearOptions.ConcurrentSteps)
+	in    *StepInput // the worker's own step input (YearOptions.ConcurrentSteps)
 	sc    curveScratch
 	v     []float64
 	knees []float64       // knee currents (A)
@@ -605,6 +628,17 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	}
 	w.qt = slices.Grow(w.qt[:0], n)[:n]
 	qirr := func(k int) []float64 { return b.irr[(j*n+k)*nc : (j*n+k+1)*nc] }
+	// cells returns module k's cells, first setting all of them from the first if the
+	// module is lit evenly (takeStep set only that one).
+	cells := func(k int) []float64 {
+		q := qirr(k)
+		if b.even[j*n+k] {
+			for c := range q {
+				q[c] = q[0]
+			}
+		}
+		return q
+	}
 	temp := b.temp[j*n : (j+1)*n]
 	un := b.un[j*n : (j+1)*n]
 	o := &b.out[j]
@@ -629,7 +663,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 		if ok {
 			// Modules lit evenly (one run each) are equal if their first cells are.
 			r := w.repr[c]
-			if w.qt[r] != w.qt[k] || !(runs == 1 && b.runs[j*n+r] == 1 && qirr(r)[0] == qirr(k)[0] || slices.Equal(qirr(r), qirr(k))) {
+			if w.qt[r] != w.qt[k] || !(runs == 1 && b.runs[j*n+r] == 1 && qirr(r)[0] == qirr(k)[0] || slices.Equal(qirr(r), cells(k))) {
 				ok = false // hash collision: give this module its own curve
 			}
 		}
@@ -639,9 +673,10 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 			c = int32(len(w.repr))
 			w.seen[key] = c
 			w.repr = append(w.repr, k)
+			q := cells(k) // all of them, for the curve
 			// A module lit evenly has no knee (appendKnees finds none).
 			if runs > 1 {
-				w.curveKnees = m.appendKnees(w.curveKnees, qirr(k), w.qt[k])
+				w.curveKnees = m.appendKnees(w.curveKnees, q, w.qt[k])
 			}
 			w.kneeOff = append(w.kneeOff, len(w.curveKnees))
 		}
