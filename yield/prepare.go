@@ -197,10 +197,34 @@ func (p *prep) newYear(step func(s int, dst *electric.StepInput), concurrent boo
 }
 
 // planeComp is one step's sky on one module plane: the components, unshaded and before
-// incidence losses, and the beam's incidence modifier.
+// incidence losses, and the beam's incidence modifier; and what follows from them alone for
+// every module of the plane: the total, the effective irradiance with the module's views
+// replaced by the whole sky and ground (its unshaded reference) and the cell temperature
+// the total gives.
 type planeComp struct {
-	tc   irradiance.Components // W/m²
-	iamB float64
+	tc      irradiance.Components // W/m²
+	iamB    float64
+	unsh    float64 // W/m²
+	unIrr   float64 // W/m²
+	unTempC float64
+}
+
+// planes numbers the modules' planes (tilt and aspect) in order of first appearance and
+// returns each module's plane and the first module of each plane.
+func (p *prep) planes() (of []int, first []int) {
+	seen := map[[2]float64]int{}
+	of = make([]int, len(p.tilt))
+	for i := range p.tilt {
+		key := [2]float64{p.tilt[i], p.aspect[i]}
+		k, ok := seen[key]
+		if !ok {
+			k = len(first)
+			seen[key] = k
+			first = append(first, i)
+		}
+		of[i] = k
+	}
+	return of, first
 }
 
 // shadedYear builds the year of module curves: per step and module the cells' effective
@@ -225,7 +249,10 @@ func (p *prep) shadedYear() error {
 	m.ModulePOAUnshaded = make([]float32, steps*n)
 	m.ModulePOA = make([]float32, steps*n)
 	m.ModuleTempC = make([]float32, steps*n)
-	cache := map[[2]float64]planeComp{}
+	// The sky on each plane once a step: modules on one face share it. The diffuse modifiers
+	// depend on the tilt alone, so those of a plane's first module are every module's.
+	planeOf, firsts := p.planes()
+	comps := make([]planeComp, len(firsts))
 	year, err := p.newYear(func(s int, dst *electric.StepInput) {
 		if in.Progress != nil && s%128 == 0 {
 			in.Progress("module curves", s, steps)
@@ -236,15 +263,18 @@ func (p *prep) shadedYear() error {
 		sky := irradiance.Sky{DNI: r.DNI, DHI: r.DHI, GHI: r.GHI, ZenithDeg: st.pos.Zenith.Degrees(),
 			DNIExtra: irradiance.ExtraterrestrialNormal(doy), Albedo: in.System.Albedo}
 		month := m.StepMonth[s]
-		clear(cache)
+		for k, i := range firsts {
+			theta := sun.Incidence(st.pos, p.tilt[i], p.aspect[i]).Degrees()
+			c := planeComp{tc: irradiance.Transpose(in.System.Sky, sky, theta, p.tilt[i]), iamB: p.beamIAM(theta)}
+			dirUn, difUn := c.tc.OnPlane(irradiance.View{Sky: 1, Horizon: 1, Ground: 1,
+				IAMBeam: c.iamB, IAMSky: p.skyIAM[i], IAMGround: p.gndIAM[i]})
+			c.unsh = c.tc.Total()
+			c.unIrr = math.Min(soil*(dirUn+difUn), electric.MaxIrradiance)
+			c.unTempC = in.System.Mounting.CellTemp(math.Min(c.unsh, electric.MaxIrradiance), r.AirTempC, r.WindMS)
+			comps[k] = c
+		}
 		for i := range in.Modules {
-			key := [2]float64{p.tilt[i], p.aspect[i]}
-			c, ok := cache[key]
-			if !ok {
-				theta := sun.Incidence(st.pos, p.tilt[i], p.aspect[i]).Degrees()
-				c = planeComp{tc: irradiance.Transpose(in.System.Sky, sky, theta, p.tilt[i]), iamB: p.beamIAM(theta)}
-				cache[key] = c
-			}
+			c := &comps[planeOf[i]]
 			d := p.diff[i]
 			lit := m.Shade.Lit(i, s)
 			litFrac := m.Shade.LitFraction(i, s)
@@ -254,8 +284,6 @@ func (p *prep) shadedYear() error {
 				IAMBeam: c.iamB, IAMSky: p.skyIAM[i], IAMGround: p.gndIAM[i]})
 			dirRaw, difRaw := c.tc.OnPlane(irradiance.View{Sky: d.SkyView, Horizon: d.HorizonView, Ground: d.GroundView,
 				IAMBeam: 1, IAMSky: 1, IAMGround: 1})
-			dirUn, difUn := c.tc.OnPlane(irradiance.View{Sky: 1, Horizon: 1, Ground: 1,
-				IAMBeam: c.iamB, IAMSky: p.skyIAM[i], IAMGround: p.gndIAM[i]})
 			ci := dst.CellIrr[i]
 			if lit == nil {
 				// No shade on the module: one value for all its cells.
@@ -274,10 +302,10 @@ func (p *prep) shadedYear() error {
 				}
 				dst.Even[i] = runs == 1
 			}
-			unsh := c.tc.Total()
+			unsh := c.unsh
 			shaded := dirRaw*litFrac + difRaw
 			withIAM := direct*litFrac + diffuse
-			dst.UnshadedIrr[i] = math.Min(soil*(dirUn+difUn), electric.MaxIrradiance)
+			dst.UnshadedIrr[i] = c.unIrr
 			// Each module's cells are heated by the light the module itself receives, shade
 			// included.
 			// No real sky puts more than about 1.4 kW/m² on a plane; inconsistent weather
@@ -287,7 +315,7 @@ func (p *prep) shadedYear() error {
 			// gives a bright hour, not a failed survey.
 			dst.TempC[i] = in.System.Mounting.CellTemp(math.Min(shaded, electric.MaxIrradiance), r.AirTempC, r.WindMS)
 			p.unIrr[s*n+i] = float32(dst.UnshadedIrr[i])
-			p.unTemp[s*n+i] = float32(in.System.Mounting.CellTemp(math.Min(unsh, electric.MaxIrradiance), r.AirTempC, r.WindMS))
+			p.unTemp[s*n+i] = float32(c.unTempC)
 
 			m.StepPOA[s] += shaded / float64(n)
 			m.ModulePOAUnshaded[s*n+i] = float32(unsh)

@@ -25,9 +25,9 @@ type StepInput struct {
 	// are lit evenly at most steps (no shade on them); the year is the same as with every
 	// cell set to that value.
 	Even        []bool
-	TempC       []float64   // per module: cell temperature (°C)
-	UnshadedIrr []float64   // per module: effective irradiance were no cell shaded (W/m²)
-	Hours       float64     // length of the step (h); zero means 1 h
+	TempC       []float64 // per module: cell temperature (°C)
+	UnshadedIrr []float64 // per module: effective irradiance were no cell shaded (W/m²)
+	Hours       float64   // length of the step (h); zero means 1 h
 }
 
 // Tracker chooses how an input's operating point is found.
@@ -522,6 +522,7 @@ func (w *yearWorker) take(m *Module, b *yearBatch, j int) error {
 type yearWorker struct {
 	in    *StepInput // the worker's own step input (YearOptions.ConcurrentSteps)
 	sc    curveScratch
+	store curveStore // where the worker's curves are kept
 	v     []float64
 	knees []float64       // knee currents (A)
 	kneeN map[float64]int // knee current → modules that have it
@@ -700,8 +701,9 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	o.grid = appendGrid(o.grid[:0], top, w.knees, m.kneeW)
 	np := len(o.grid)
 	w.v = grow(w.v, np)
-	// A fresh slice each step: the Year keeps it as it is (Year.adoptCurves).
-	o.v = make([]int32, len(w.repr)*np)
+	// A slice of its own each step, cut from the worker's store: the Year keeps it as it is
+	// (Year.adoptCurves).
+	o.v = w.store.take(len(w.repr) * np)
 	for c, r := range w.repr {
 		m.curveOnGrid(qirr(r), w.qt[r], o.grid, w.v, &w.sc)
 		quantCurve(o.v[c*np:(c+1)*np], w.v)
