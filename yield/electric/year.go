@@ -510,6 +510,7 @@ func (w *yearWorker) take(m *Module, b *yearBatch, j int) error {
 	b.fill(s, in)
 	h, err := b.takeStep(m, in, s, j, b.round)
 	if err != nil {
+		w.in = nil // perhaps resliced by the step function: the worker's next step gets a new one
 		return err
 	}
 	b.hours[j] = h
