@@ -14,6 +14,7 @@ import (
 	"sunstring/shading"
 	"sunstring/shading/sun"
 	"sunstring/yield/electric"
+	"sunstring/yield/internal/bigmem"
 	"sunstring/yield/irradiance"
 )
 
@@ -239,16 +240,16 @@ func (p *prep) shadedYear() error {
 	hours := iv.Hours()
 	p.beamSum, p.beamLit = make([]float64, n), make([]float64, n)
 	m.StepPOA = make([]float64, steps)
-	p.unIrr, p.unTemp = make([]float32, steps*n), make([]float32, steps*n)
+	p.unIrr, p.unTemp = bigmem.Make[float32](steps*n), bigmem.Make[float32](steps*n)
 	m.StepSunElevDeg = make([]float64, steps)
 	m.StepSunAzDeg = make([]float64, steps)
 	for s, st := range p.ups {
 		m.StepSunElevDeg[s] = 90 - st.pos.Zenith.Degrees()
 		m.StepSunAzDeg[s] = st.pos.Azimuth.Degrees()
 	}
-	m.ModulePOAUnshaded = make([]float32, steps*n)
-	m.ModulePOA = make([]float32, steps*n)
-	m.ModuleTempC = make([]float32, steps*n)
+	m.ModulePOAUnshaded = bigmem.Make[float32](steps * n)
+	m.ModulePOA = bigmem.Make[float32](steps * n)
+	m.ModuleTempC = bigmem.Make[float32](steps * n)
 	// The sky on each plane once a step: modules on one face share it. The diffuse modifiers
 	// depend on the tilt alone, so those of a plane's first module are every module's.
 	planeOf, firsts := p.planes()

@@ -1,8 +1,10 @@
 package electric
 
+import "sunstring/yield/internal/bigmem"
+
 // storeChunkLen is the number of voltages a year's curve store takes from the heap at a
 // time (16 MiB): a step's curves (about 50 KiB on a large roof) are cut from it, so that the
-// store is a few large allocations the system can back with large pages (see adviseLarge)
+// store is a few large allocations the system can back with large pages (bigmem.Make)
 // rather than thousands of small ones, each page of which faults on its first write.
 const storeChunkLen = 4 << 20
 
@@ -17,8 +19,7 @@ func (s *curveStore) take(n int) []int32 {
 		if n > storeChunkLen/8 {
 			return make([]int32, n)
 		}
-		s.free = make([]int32, storeChunkLen)
-		adviseLarge(s.free)
+		s.free = bigmem.Make[int32](storeChunkLen)
 	}
 	v := s.free[:n:n]
 	s.free = s.free[n:]

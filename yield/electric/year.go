@@ -8,6 +8,8 @@ import (
 	"slices"
 	"sync"
 	"sync/atomic"
+
+	"sunstring/yield/internal/bigmem"
 )
 
 // Layout wires modules to an inverter: input → strings → module indices
@@ -156,7 +158,7 @@ func newYear(m *Module, nModules, steps int, step func(s int, dst *StepInput), o
 	y := &Year{
 		m: m, n: nModules, steps: steps,
 		gridOff:  make([]int32, 1, steps+1),
-		modCurve: make([]int32, steps*nModules), unshadedW: make([]float32, steps*nModules),
+		modCurve: bigmem.Make[int32](steps * nModules), unshadedW: bigmem.Make[float32](steps * nModules),
 		hours:      make([]float32, steps),
 		moduleDCWh: make([]float64, nModules), moduleUnWh: make([]float64, nModules),
 	}
@@ -344,7 +346,10 @@ type stepCurves struct {
 func (b *yearBatch) reset(first, count, n, nc int) {
 	b.first, b.count, b.n, b.nc = first, count, n, nc
 	b.errs = append(b.errs[:0], make([]error, count)...)
-	b.irr = slices.Grow(b.irr[:0], count*n*nc)[:count*n*nc]
+	if cap(b.irr) < count*n*nc {
+		b.irr = bigmem.Make[float64](count * n * nc) // 8 MiB for 16 steps of 437 modules
+	}
+	b.irr = b.irr[:count*n*nc]
 	b.even = slices.Grow(b.even[:0], count*n)[:count*n]
 	b.hash = slices.Grow(b.hash[:0], count*n)[:count*n]
 	b.smax = slices.Grow(b.smax[:0], count*n)[:count*n]

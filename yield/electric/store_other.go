@@ -1,6 +1,0 @@
-//go:build !linux
-
-package electric
-
-// adviseLarge does nothing where the kernel takes no advice on large pages.
-func adviseLarge([]int32) {}
