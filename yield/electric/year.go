@@ -680,10 +680,10 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 			c = int32(len(w.repr))
 			w.seen[key] = c
 			w.repr = append(w.repr, k)
-			q := cells(k) // all of them, for the curve
+			full := cells(k) // every cell set: the knees and the curve read them
 			// A module lit evenly has no knee (appendKnees finds none).
 			if runs > 1 {
-				w.curveKnees = m.appendKnees(w.curveKnees, q, w.qt[k])
+				w.curveKnees = m.appendKnees(w.curveKnees, full, w.qt[k])
 			}
 			w.kneeOff = append(w.kneeOff, len(w.curveKnees))
 		}
