@@ -140,13 +140,45 @@ func (sc *Scene) Compute(ctx context.Context, steps []Step, progress func(done, 
 	return res, nil
 }
 
-// work is a worker's scratch space.
+// work is a worker's scratch space, and the block its modules' shaded rows are cut from.
 type work struct {
 	cand []int32
 	row  []uint8
+	// free is the unused end of the worker's current block: a module's rows are appended
+	// there in place, so that a large roof's hundreds of megabytes of rows are written once,
+	// not copied again each time a module's slice would have doubled.
+	free []uint8
+	// block is the size of the next block: it doubles from a small first block, so that a
+	// roof with little shade takes little memory, up to maxBlock.
+	block int
 }
 
-func newWork(cells int) *work { return &work{row: make([]uint8, cells)} }
+// Blocks of rows: the first, and the largest (a module's rows may need a larger one).
+const (
+	firstBlock = 64 << 10
+	maxBlock   = 8 << 20
+)
+
+func newWork(cells int) *work { return &work{row: make([]uint8, cells), block: firstBlock} }
+
+// begin starts a module's rows in the free part of the current block.
+func (w *work) begin() []uint8 { return w.free[:0] }
+
+// end closes a module's rows: the block's rest stays free for the next module, and the
+// module's slice is capped so that it never reaches into that rest.
+func (w *work) end(data []uint8) []uint8 {
+	w.free = data[len(data):cap(data)]
+	return data[:len(data):len(data)]
+}
+
+// room moves a module's rows so far to a new block with room for more bytes.
+func (w *work) room(data []uint8, more int) []uint8 {
+	n := max(w.block, 2*(len(data)+more))
+	w.block = min(2*w.block, maxBlock)
+	b := make([]uint8, len(data), n)
+	copy(b, data)
+	return b
+}
 
 // quantize maps a transmittance to 0..255.
 func quantize(t float64) uint8 {
@@ -159,8 +191,8 @@ func quantize(t float64) uint8 {
 	return uint8(t*255 + 0.5)
 }
 
-// store appends a cell row to mr unless it is uniform.
-func store(mr *modResult, s int, row []uint8) {
+// store appends a cell row to mr unless it is uniform; w gives the room (see work.room).
+func store(w *work, mr *modResult, s int, row []uint8) {
 	all, none := true, true
 	for _, v := range row {
 		all = all && v == 255
@@ -172,6 +204,9 @@ func store(mr *modResult, s int, row []uint8) {
 	case none:
 		mr.idx[s] = stepDark
 	default:
+		if len(mr.data)+len(row) > cap(mr.data) {
+			mr.data = w.room(mr.data, len(row))
+		}
 		mr.idx[s] = int32(len(mr.data))
 		mr.data = append(mr.data, row...)
 	}
@@ -179,7 +214,7 @@ func store(mr *modResult, s int, row []uint8) {
 
 func (sc *Scene) fastModule(i int, info []stepInfo, w *work) modResult {
 	p := &sc.preps[i]
-	mr := modResult{idx: make([]int32, len(info))}
+	mr := modResult{idx: make([]int32, len(info)), data: w.begin()}
 	for s := range info {
 		st := &info[s]
 		d := st.d
@@ -222,15 +257,16 @@ func (sc *Scene) fastModule(i int, info []stepInfo, w *work) modResult {
 			}
 			w.row[k] = quantize(t)
 		}
-		store(&mr, s, w.row)
+		store(w, &mr, s, w.row)
 	}
+	mr.data = w.end(mr.data)
 	return mr
 }
 
 // bruteModule is the reference: one exact ray per cell per step against every object.
 func (sc *Scene) bruteModule(i int, info []stepInfo, w *work) modResult {
 	p := &sc.preps[i]
-	mr := modResult{idx: make([]int32, len(info))}
+	mr := modResult{idx: make([]int32, len(info)), data: w.begin()}
 	for s := range info {
 		st := &info[s]
 		d := st.d
@@ -248,7 +284,8 @@ func (sc *Scene) bruteModule(i int, info []stepInfo, w *work) modResult {
 			}
 			w.row[k] = quantize(t)
 		}
-		store(&mr, s, w.row)
+		store(w, &mr, s, w.row)
 	}
+	mr.data = w.end(mr.data)
 	return mr
 }
