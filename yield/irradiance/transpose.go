@@ -223,9 +223,21 @@ type View struct {
 // even where the point sees more of the horizon band than of the dome. Negative view
 // factors and modifiers are read as 0.
 func (c Components) OnPlane(v View) (direct, diffuse float64) {
-	pos := func(x float64) float64 { return math.Max(0, x) }
+	pos := nonNeg
 	direct = pos(c.Beam+c.Circumsolar) * pos(v.IAMBeam)
 	sky := pos(c.Isotropic*pos(v.Sky)+c.Horizon*pos(v.Horizon)) * pos(v.IAMSky)
 	diffuse = sky + pos(c.Ground)*pos(v.Ground)*pos(v.IAMGround)
 	return direct, diffuse
+}
+
+// nonNeg is math.Max(0, x) (NaN stays NaN, −0 becomes 0) without the call: OnPlane runs for
+// every module at every step.
+func nonNeg(x float64) float64 {
+	if x > 0 {
+		return x
+	}
+	if x <= 0 {
+		return 0
+	}
+	return x // NaN
 }

@@ -445,3 +445,27 @@ func TestOnPlane(t *testing.T) {
 		})
 	}
 }
+
+// TestNonNeg: nonNeg is math.Max(0, x) to the bit, special values included.
+func TestNonNeg(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		x    float64
+	}{
+		{"positive", 812.5},
+		{"tiny positive", math.SmallestNonzeroFloat64},
+		{"negative", -3.25},
+		{"zero", 0},
+		{"negative zero", math.Copysign(0, -1)},
+		{"infinite", math.Inf(1)},
+		{"minus infinite", math.Inf(-1)},
+		{"NaN", math.NaN()},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			got, want := nonNeg(tc.x), math.Max(0, tc.x)
+			if math.Float64bits(got) != math.Float64bits(want) && !(math.IsNaN(got) && math.IsNaN(want)) {
+				t.Errorf("nonNeg(%v) = %v (%#x), math.Max gives %v (%#x)", tc.x, got, math.Float64bits(got), want, math.Float64bits(want))
+			}
+		})
+	}
+}
