@@ -320,6 +320,10 @@ type curveScratch struct {
 	cells   []cellGrid           // cell curves computed so far on this grid
 	bufs    [][]float64          // backing store of cells[k].v
 	cellKey map[[2]float64]int32 // (irradiance, temperature) → index into cells
+	// sameGrid is set by a caller that knows the next call's grid to be the last call's
+	// (NewYear: a step's curves share it), sparing curveOnGrid the comparison; the call
+	// clears it.
+	sameGrid bool
 }
 
 // cellTerm is c cells alike, with curve g, in series.
@@ -391,7 +395,9 @@ func (m *Module) cellGridFor(sc *curveScratch, s, tempC float64, cc []float64) i
 // call on the same module and grid, and substrings lit alike are computed once.
 func (m *Module) curveOnGrid(cellIrr []float64, tempC float64, cur []float64, v []float64, sc *curveScratch) {
 	n := len(v)
-	if sc.mod != m || !slices.Equal(sc.gridCur, cur) {
+	same := sc.sameGrid && sc.mod == m && len(sc.gridCur) == n
+	sc.sameGrid = false
+	if !same && (sc.mod != m || !slices.Equal(sc.gridCur, cur)) {
 		sc.mod = m
 		// A copy: the cell curves keep reading their grid, and the caller may reuse cur.
 		sc.gridCur = append(sc.gridCur[:0], cur...)

@@ -711,6 +711,7 @@ func (w *yearWorker) build(m *Module, b *yearBatch, j int) {
 	// (Year.adoptCurves).
 	o.v = w.store.take(len(w.repr) * np)
 	for c, r := range w.repr {
+		w.sc.sameGrid = c > 0 // the step's curves share o.grid
 		m.curveOnGrid(qirr(r), w.qt[r], o.grid, w.v, &w.sc)
 		quantCurve(o.v[c*np:(c+1)*np], w.v)
 		p, _, _ := polyMaxFree(o.grid, w.v)
