@@ -610,7 +610,13 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 			}
 		}
 		if k < n && kk[best] < 2*n {
-			nx[best] = hs[best].at(kk[best])
+			// hs[best].at(kk[best]) written out: the merge asks for each point once, one
+			// call a point (sumTerms) instead of two.
+			h, j := &hs[best], kk[best]
+			for ; h.done <= j; h.done++ {
+				h.v[h.done] = sumTerms(h.terms, h.done)
+			}
+			nx[best] = h.v[j]
 		}
 	}
 	for ; k < n; k++ {
