@@ -545,7 +545,11 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 		hs[hh].done = 0
 	}
 	cur := sc.hc[:2*n]
-	oi, ov := sc.m.oi[:0], sc.m.ov[:0]
+	// The merged polyline has at most one point per point of either half: room for all of
+	// them, written by index (no append a point).
+	sc.m.oi, sc.m.ov = grow(sc.m.oi, 4*n), grow(sc.m.ov, 4*n)
+	oi, ov := sc.m.oi[:4*n], sc.m.ov[:4*n]
+	no := 0 // merged points so far
 	// Per half: the next unvisited point kk, its voltage nx (computed when the walk goes on
 	// with kk below 2n) and the voltage of the point before it, pv.
 	var kk [2]int
@@ -586,10 +590,11 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 			}
 		}
 		tot := cur[kk[best]] + io
-		oi, ov = append(oi, tot), append(ov, bv)
+		oi[no], ov[no] = tot, bv
+		no++
 		pv[best] = bv
 		kk[best]++
-		if len(oi) < 2 {
+		if no < 2 {
 			if kk[best] < 2*n {
 				nx[best] = hs[best].at(kk[best])
 			}
@@ -601,7 +606,7 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 				break
 			}
 			var vk float64
-			vk, hint = voltageOn(oi, ov, x, hint)
+			vk, hint = voltageOn(oi[:no], ov[:no], x, hint)
 			v[k] = fmax(vk, -m.bypassV)
 		}
 		if bv < -m.bypassV {
@@ -621,10 +626,9 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 	}
 	for ; k < n; k++ {
 		var vk float64
-		vk, hint = voltageOn(oi, ov, mcur[k], hint)
+		vk, hint = voltageOn(oi[:no], ov[:no], mcur[k], hint)
 		v[k] = fmax(vk, -m.bypassV)
 	}
-	sc.m.oi, sc.m.ov = oi, ov
 }
 
 // uniformMaxPower returns the maximum power (W) of the module's polyline
