@@ -519,6 +519,15 @@ subs:
 		}
 		m.halvesOnGrid(sc, sc.terms[sc.toff[s*nh]:sc.toff[s*nh+1]], sc.terms[sc.toff[s*nh+1]:sc.toff[s*nh+2]], cur, sv)
 	}
+	// The substrings in series: v = ((0 + first) + second) + …, point by point, three at a
+	// pass for the usual three substrings.
+	if so := sc.subOf; len(so) == 3 {
+		a, b, c := sc.subV[so[0]][:n], sc.subV[so[1]][:n], sc.subV[so[2]][:n]
+		for k := range v {
+			v[k] = 0 + a[k] + b[k] + c[k]
+		}
+		return
+	}
 	clear(v)
 	for _, r := range sc.subOf {
 		for k, x := range sc.subV[r][:n] {
