@@ -505,12 +505,25 @@ subs:
 			// Full cells, or two equal halves sharing the current evenly.
 			ts := sc.terms[sc.toff[s*nh]:sc.toff[s*nh+1]]
 			k := 0
-			for ; k < n; k++ {
-				sum := sumTerms(ts, k)
-				if sum < -m.bypassV {
-					break
+			if len(ts) == 1 {
+				// One kind of cell (a substring lit evenly, the usual case): sumTerms's
+				// first case without the call a point.
+				t := ts[0]
+				for ; k < n; k++ {
+					sum := 0 + t.c*t.g.at(k)
+					if sum < -m.bypassV {
+						break
+					}
+					sv[k] = sum
 				}
-				sv[k] = sum
+			} else {
+				for ; k < n; k++ {
+					sum := sumTerms(ts, k)
+					if sum < -m.bypassV {
+						break
+					}
+					sv[k] = sum
+				}
 			}
 			for ; k < n; k++ {
 				sv[k] = -m.bypassV
