@@ -640,8 +640,15 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 			// hs[best].at(kk[best]) written out: the merge asks for each point once, one
 			// call a point (sumTerms) instead of two.
 			h, j := &hs[best], kk[best]
-			for ; h.done <= j; h.done++ {
-				h.v[h.done] = sumTerms(h.terms, h.done)
+			if len(h.terms) == 1 {
+				t := h.terms[0] // sumTerms's first case written out
+				for ; h.done <= j; h.done++ {
+					h.v[h.done] = 0 + t.c*t.g.at(h.done)
+				}
+			} else {
+				for ; h.done <= j; h.done++ {
+					h.v[h.done] = sumTerms(h.terms, h.done)
+				}
 			}
 			nx[best] = h.v[j]
 		}
