@@ -640,12 +640,18 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 			// hs[best].at(kk[best]) written out: the merge asks for each point once, one
 			// call a point (sumTerms) instead of two.
 			h, j := &hs[best], kk[best]
-			if len(h.terms) == 1 {
-				t := h.terms[0] // sumTerms's first case written out
+			switch len(h.terms) {
+			case 1:
+				t := h.terms[0] // sumTerms written out
 				for ; h.done <= j; h.done++ {
 					h.v[h.done] = 0 + t.c*t.g.at(h.done)
 				}
-			} else {
+			case 2:
+				t, u := h.terms[0], h.terms[1]
+				for ; h.done <= j; h.done++ {
+					h.v[h.done] = 0 + t.c*t.g.at(h.done) + u.c*u.g.at(h.done)
+				}
+			default:
 				for ; h.done <= j; h.done++ {
 					h.v[h.done] = sumTerms(h.terms, h.done)
 				}
