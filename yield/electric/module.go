@@ -505,9 +505,10 @@ subs:
 			// Full cells, or two equal halves sharing the current evenly.
 			ts := sc.terms[sc.toff[s*nh]:sc.toff[s*nh+1]]
 			k := 0
-			if len(ts) == 1 {
-				// One kind of cell (a substring lit evenly, the usual case): sumTerms's
-				// first case without the call a point.
+			switch len(ts) {
+			case 1:
+				// One kind of cell (a substring lit evenly, the usual case): sumTerms
+				// without the call a point.
 				t := ts[0]
 				for ; k < n; k++ {
 					sum := 0 + t.c*t.g.at(k)
@@ -516,7 +517,16 @@ subs:
 					}
 					sv[k] = sum
 				}
-			} else {
+			case 2:
+				t, u := ts[0], ts[1]
+				for ; k < n; k++ {
+					sum := 0 + t.c*t.g.at(k) + u.c*u.g.at(k)
+					if sum < -m.bypassV {
+						break
+					}
+					sv[k] = sum
+				}
+			default:
 				for ; k < n; k++ {
 					sum := sumTerms(ts, k)
 					if sum < -m.bypassV {
