@@ -145,6 +145,25 @@ func cloneLayout(l Layout) Layout {
 	return out
 }
 
+// sameAsFresh evaluates l through the cache c and afresh, and fails unless the two agree to
+// the bit: the cache may only save time.
+func sameAsFresh(t *testing.T, y *Year, l Layout, opt EvalOptions, c *EvalCache) {
+	t.Helper()
+	fresh, err := y.Evaluate(l, bigInverter, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cached, err := y.EvaluateCached(l, bigInverter, opt, c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if fresh.ACWh != cached.ACWh || fresh.DCWh != cached.DCWh || fresh.GlobalDCWh != cached.GlobalDCWh ||
+		fresh.TrackerLossWh != cached.TrackerLossWh || !slices.Equal(fresh.StepACWh, cached.StepACWh) ||
+		!slices.Equal(fresh.StepDCWh, cached.StepDCWh) {
+		t.Errorf("cached %v Wh, fresh %v Wh: must agree to the bit", cached.ACWh, fresh.ACWh)
+	}
+}
+
 // A string one module away from a kept one (a module swapped, moved in or moved out) is read
 // from it by adding and taking away single modules' curves: whole units of voltQuantum add
 // exactly, so the result is the bit-for-bit result of adding the string up afresh, however
@@ -175,19 +194,7 @@ func TestEvaluateCachedNearStrings(t *testing.T) {
 		{"base again", base},
 		{"first swap again", swap},
 	} {
-		t.Run(tc.name, func(t *testing.T) {
-			fresh, err := y.Evaluate(tc.l, bigInverter, EvalOptions{})
-			if err != nil {
-				t.Fatal(err)
-			}
-			cached, err := y.EvaluateCached(tc.l, bigInverter, EvalOptions{}, &c)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if fresh.ACWh != cached.ACWh || fresh.GlobalDCWh != cached.GlobalDCWh || !slices.Equal(fresh.StepDCWh, cached.StepDCWh) {
-				t.Errorf("cached %v Wh, fresh %v Wh: must agree to the bit", cached.ACWh, fresh.ACWh)
-			}
-		})
+		t.Run(tc.name, func(t *testing.T) { sameAsFresh(t, y, tc.l, EvalOptions{}, &c) })
 	}
 	// The second swap reads both its strings from the base's, built once asked for twice.
 	if built, near := c.StringStats(); built == 0 || near < 2 {
@@ -238,20 +245,7 @@ func TestEvaluateCachedFarStrings(t *testing.T) {
 		{"three modules traded", traded},
 		{"a string cut short", short},
 	} {
-		t.Run(tc.name, func(t *testing.T) {
-			fresh, err := y.Evaluate(tc.l, bigInverter, EvalOptions{})
-			if err != nil {
-				t.Fatal(err)
-			}
-			cached, err := y.EvaluateCached(tc.l, bigInverter, EvalOptions{}, &c)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if fresh.ACWh != cached.ACWh || fresh.GlobalDCWh != cached.GlobalDCWh || fresh.TrackerLossWh != cached.TrackerLossWh ||
-				!slices.Equal(fresh.StepDCWh, cached.StepDCWh) {
-				t.Errorf("cached %v Wh, fresh %v Wh: must agree to the bit", cached.ACWh, fresh.ACWh)
-			}
-		})
+		t.Run(tc.name, func(t *testing.T) { sameAsFresh(t, y, tc.l, EvalOptions{}, &c) })
 	}
 	// The two traded strings and the short one.
 	if c.strs.near != 3 {
@@ -283,19 +277,7 @@ func TestKeepStrings(t *testing.T) {
 		{"with a hill-climbing tracker", base, EvalOptions{Tracker: LocalClimb}},
 		{"modules taken out", out, EvalOptions{ConvertersOn: []int{3, 9, 14, 80}}},
 	} {
-		t.Run(tc.name, func(t *testing.T) {
-			fresh, err := y.Evaluate(tc.l, bigInverter, tc.opt)
-			if err != nil {
-				t.Fatal(err)
-			}
-			cached, err := y.EvaluateCached(tc.l, bigInverter, tc.opt, &c)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if fresh.ACWh != cached.ACWh || fresh.TrackerLossWh != cached.TrackerLossWh || !slices.Equal(fresh.StepDCWh, cached.StepDCWh) {
-				t.Errorf("cached %v Wh, fresh %v Wh: must agree to the bit", cached.ACWh, fresh.ACWh)
-			}
-		})
+		t.Run(tc.name, func(t *testing.T) { sameAsFresh(t, y, tc.l, tc.opt, &c) })
 	}
 	// The first string is three modules from its kept year; the fifth is one module out of its
 	// own, read by the one-module recipe.
