@@ -179,3 +179,28 @@ func TestEvenBadInput(t *testing.T) {
 		}
 	}
 }
+
+// TestQuantCurveMixed: a curve whose voltages leave int32 part way gives each voltage its
+// quantV, before the first held one, at it and after it.
+func TestQuantCurveMixed(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		v    []float64
+	}{
+		{"all inside", []float64{0, 41.25, -0.3, 12.5}},
+		{"held in the middle", []float64{41.25, 1e4, 3.5, -2}},
+		{"held first", []float64{-1e4, 0.5, 7}},
+		{"held last", []float64{1, 2, 3, 5e3}},
+		{"NaN then inside", []float64{0.25, math.NaN(), 33.125, math.Inf(1), -1}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			got := make([]int32, len(tc.v))
+			quantCurve(got, tc.v)
+			for k, v := range tc.v {
+				if want := quantV(v); got[k] != want {
+					t.Errorf("voltage %d (%g): %d, quantV gives %d", k, v, got[k], want)
+				}
+			}
+		})
+	}
+}

@@ -450,25 +450,44 @@ func quantV(v float64) int32 {
 // quantCurve writes quantV of each voltage of v into q.
 func quantCurve(q []int32, v []float64) {
 	q = q[:len(v)]
-	for k, v := range v {
-		x := v / voltQuantum
+	for k, y := range v {
+		x := y / voltQuantum
+		if !(x > math.MinInt32-0.5 && x < math.MaxInt32+0.5) {
+			// Out of line, so that this loop keeps its state in registers.
+			quantCurveHeld(q[k:], v[k:])
+			return
+		}
+		q[k] = roundHalfAway(x)
+	}
+}
+
+// quantCurveHeld is quantCurve from a voltage outside int32 on.
+//
+//go:noinline
+func quantCurveHeld(q []int32, v []float64) {
+	for k, y := range v {
+		x := y / voltQuantum
 		if !(x > math.MinInt32-0.5 && x < math.MaxInt32+0.5) {
 			q[k] = quantVHeld(x)
 			continue
 		}
-		// math.Round (half away from zero) by truncation, x − i exact, without a branch
-		// the processor would guess wrong half the time.
-		i := int64(x)
-		f := x - float64(i)
-		var up, down int64
-		if f >= 0.5 {
-			up = 1
-		}
-		if f <= -0.5 {
-			down = 1
-		}
-		q[k] = int32(i + up - down)
+		q[k] = roundHalfAway(x)
 	}
+}
+
+// roundHalfAway is math.Round (half away from zero) of x inside int32, by truncation (x − i
+// is exact), without a branch the processor would guess wrong half the time.
+func roundHalfAway(x float64) int32 {
+	i := int64(x)
+	f := x - float64(i)
+	var up, down int64
+	if f >= 0.5 {
+		up = 1
+	}
+	if f <= -0.5 {
+		down = 1
+	}
+	return int32(i + up - down)
 }
 
 // quantVHeld is quantV outside int32 (and for NaN).
