@@ -637,8 +637,29 @@ func (m *Module) halvesOnGrid(sc *curveScratch, t0, t1 []cellTerm, mcur []float6
 			if x > tot {
 				break
 			}
+			// voltageOn(oi[:no], ov[:no], x, hint) written out (no ≥ 2): it is asked once
+			// a grid point of every substring whose halves differ.
 			var vk float64
-			vk, hint = voltageOn(oi[:no], ov[:no], x, hint)
+			switch {
+			case x <= oi[0]:
+				vk, hint = ov[0]+(x-oi[0])*slope(oi[0], ov[0], oi[1], ov[1]), 0
+			case x >= oi[no-1]:
+				vk, hint = ov[no-1], no-2
+			default:
+				j := max(min(hint, no-2), 0)
+				for j > 0 && oi[j] > x {
+					j--
+				}
+				for j < no-2 && oi[j+1] < x {
+					j++
+				}
+				if di := oi[j+1] - oi[j]; di <= 0 {
+					vk = ov[j+1]
+				} else {
+					vk = ov[j] + (x-oi[j])*(ov[j+1]-ov[j])/di
+				}
+				hint = j
+			}
 			v[k] = fmax(vk, -m.bypassV)
 		}
 		if bv < -m.bypassV {
