@@ -594,10 +594,19 @@ func niceLength(x float64) float64 {
 	return e
 }
 
-func addLabels(p *plot.Plot, xy plotter.XYs, ls []string, size float64, c color.Color, xa text.XAlignment, ya text.YAlignment) {
+func addLabels(p *plot.Plot, xy plotter.XYs, ls []string, size float64, c color.Color, xa text.XAlignment, ya text.YAlignment) *plotter.Labels {
+	l := labelsOf(xy, ls, size, c, xa, ya)
+	if l != nil {
+		p.Add(l)
+	}
+	return l
+}
+
+// labelsOf is the labels addLabels adds, nil when there are none to draw.
+func labelsOf(xy plotter.XYs, ls []string, size float64, c color.Color, xa text.XAlignment, ya text.YAlignment) *plotter.Labels {
 	l, err := plotter.NewLabels(plotter.XYLabels{XYs: xy, Labels: ls})
 	if err != nil {
-		return
+		return nil
 	}
 	for i := range l.TextStyle {
 		l.TextStyle[i].Font.Size = vg.Points(size)
@@ -606,7 +615,7 @@ func addLabels(p *plot.Plot, xy plotter.XYs, ls []string, size float64, c color.
 		l.TextStyle[i].XAlign = xa
 		l.TextStyle[i].YAlign = ya
 	}
-	p.Add(l)
+	return l
 }
 
 // sans is the font variant of every chart: Liberation Sans, the proposal's own type.

@@ -268,7 +268,7 @@ func (pr *Proposal) monthsAndShade(d *pdfDoc, charts map[string][]byte) {
 	}
 	if charts["sunpath"] != nil {
 		sp := pr.SunPath
-		d.para(fmt.Sprintf("The picture shows the sky as seen from module %s: the sun's track on the 21st of each month, and in grey what stands in the way (named). Where a track runs through grey, that module is in shade at that time of day and year.%s",
+		d.para(fmt.Sprintf("The picture shows the sky as seen from module %s: the sun's track on the 21st of each month, and in grey what stands in the way, named where the names fit. Where a track runs through grey, that module is in shade at that time of day and year.%s",
 			sp.Module, obstaclesText(sp)))
 		d.image("sunpath", charts["sunpath"], 0.92)
 	}

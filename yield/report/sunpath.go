@@ -1,15 +1,18 @@
 package report
 
 import (
+	"cmp"
 	"fmt"
 	"image/color"
 	"math"
+	"slices"
 	"time"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
 
 	"sunstring/shading"
 	"sunstring/shading/sun"
@@ -235,9 +238,29 @@ func SunPathChart(in *SunPath) *plot.Plot {
 		hx = append(hx, plotter.XY{X: top.x, Y: top.y + 1.5})
 		hl = append(hl, fmt.Sprintf("%d h", h))
 	}
-	addLabels(p, hx, hl, 7, Accent, text.XCenter, text.YBottom)
-	addLabels(p, idXY, idLab, 7, Ink, text.XCenter, text.YBottom)
-	addLabels(p, noonXY, noonLab, 6.5, Ink, text.XCenter, text.YTop)
+	hourLab := addLabels(p, hx, hl, 7, Accent, text.XCenter, text.YBottom)
+	noonLabs := addLabels(p, noonXY, noonLab, 6.5, Ink, text.XCenter, text.YTop)
+	// The obstructions' names, the highest first: where small ones crowd, the tallest keep
+	// theirs.
+	order := make([]int, len(idLab))
+	for i := range order {
+		order[i] = i
+	}
+	slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(idXY[b].Y, idXY[a].Y) })
+	var oXY plotter.XYs
+	var oLab []string
+	for _, i := range order {
+		oXY, oLab = append(oXY, idXY[i]), append(oLab, idLab[i])
+	}
+	if ids := labelsOf(oXY, oLab, 7, Ink, text.XCenter, text.YBottom); ids != nil {
+		var avoid []*plotter.Labels
+		for _, l := range []*plotter.Labels{hourLab, noonLabs} {
+			if l != nil {
+				avoid = append(avoid, l)
+			}
+		}
+		p.Add(&spacedLabels{Labels: ids, avoid: avoid})
+	}
 
 	p.X.Label.Text = fmt.Sprintf("azimuth (degrees from north)   ·   hour lines in local standard time (UTC%s)", utcOffset(off))
 	p.Y.Label.Text = "sun elevation (°)"
@@ -277,4 +300,51 @@ func utcOffset(d time.Duration) string {
 		return fmt.Sprintf("%s%d", sign, h)
 	}
 	return fmt.Sprintf("%s%d:%02d", sign, h, m)
+}
+
+// spacedLabels are labels that keep clear of each other and of other labels: drawn in turn,
+// each at its point or, where it would overlap a label drawn before (or one of avoid), one or
+// two lines higher, else left out. A chart that names every obstruction in a crowd of small
+// ones would print their names over each other; the documents' caption names all that shade.
+type spacedLabels struct {
+	*plotter.Labels
+	avoid []*plotter.Labels
+}
+
+// spacedShifts are the heights, in lines of the label's own text, a label is tried at.
+var spacedShifts = []float64{0, 1, 2}
+
+// Plot draws the labels that find room, in their order.
+func (l *spacedLabels) Plot(c draw.Canvas, p *plot.Plot) {
+	trX, trY := p.Transforms(&c)
+	var taken []vg.Rectangle
+	for _, o := range l.avoid {
+		for i, s := range o.Labels {
+			pt := vg.Point{X: trX(o.XYs[i].X), Y: trY(o.XYs[i].Y)}.Add(o.Offset)
+			taken = append(taken, o.TextStyle[i].Rectangle(s).Add(pt))
+		}
+	}
+	for i, s := range l.Labels.Labels {
+		pt := vg.Point{X: trX(l.XYs[i].X), Y: trY(l.XYs[i].Y)}
+		if !c.Contains(pt) {
+			continue
+		}
+		sty := l.TextStyle[i]
+		box := sty.Rectangle(s)
+		for _, k := range spacedShifts {
+			at := pt.Add(l.Offset).Add(vg.Point{Y: vg.Length(k) * box.Size().Y})
+			r := box.Add(at)
+			if !c.Contains(r.Max) || slices.ContainsFunc(taken, func(t vg.Rectangle) bool { return overlaps(t, r) }) {
+				continue
+			}
+			c.FillText(sty, at, s)
+			taken = append(taken, r)
+			break
+		}
+	}
+}
+
+// overlaps reports whether two rectangles share more than an edge.
+func overlaps(a, b vg.Rectangle) bool {
+	return a.Min.X < b.Max.X && b.Min.X < a.Max.X && a.Min.Y < b.Max.Y && b.Min.Y < a.Max.Y
 }
