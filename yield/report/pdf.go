@@ -171,7 +171,18 @@ func (d *pdfDoc) table(head []string, rows [][]string, widths []float64, align s
 const tableHead = "\x00"
 
 // image places a PNG across wFrac of the content width, keeping its proportions.
-func (d *pdfDoc) image(name string, png []byte, wFrac float64) {
+func (d *pdfDoc) image(name string, png []byte, wFrac float64) { d.imageAbove(name, png, wFrac, 0) }
+
+// paraHeight is the height (mm) para gives s on a full line width.
+func (d *pdfDoc) paraHeight(s string) float64 {
+	d.SetFont(fontName, "", bodyPt)
+	return float64(len(d.split(s, d.contentW()))) * lineMM
+}
+
+// imageAbove is image for a picture that text of height below (mm) follows on its page: a
+// picture that fits but would push the last lines of that text onto a page of their own is
+// shrunk, by at most a quarter, so that the text fits under it.
+func (d *pdfDoc) imageAbove(name string, png []byte, wFrac, below float64) {
 	opt := fpdf.ImageOptions{ImageType: "PNG"}
 	info := d.RegisterImageOptionsReader(name, opt, bytes.NewReader(png))
 	if info == nil {
@@ -187,10 +198,15 @@ func (d *pdfDoc) image(name string, png []byte, wFrac float64) {
 		} else {
 			d.AddPage()
 		}
+	} else if room := avail - imageGap - below; below > 0 && h > room && room >= 0.75*h {
+		w, h = w*room/h, room
 	}
 	d.ImageOptions(name, margin+(d.contentW()-w)/2, d.GetY(), w, h, false, opt, 0, "")
-	d.SetY(d.GetY() + h + 3)
+	d.SetY(d.GetY() + h + imageGap)
 }
+
+// imageGap is the space under a picture, mm.
+const imageGap = 3
 
 // Cover is what the proposal's first page and footer say about whom it is for and who
 // made it; every field is optional. Dates are YYYY-MM-DD.

@@ -384,14 +384,13 @@ func (pr *Proposal) wiring(d *pdfDoc, charts map[string][]byte) {
 	l := s.Layouts[0]
 	d.heading("How the modules are wired", fmt.Sprintf("The modules are joined in %s: each colour is one string, numbered in the order the cable runs.%s",
 		Count(len(l.Strings), "string", "strings"), stringsText(l, s.Inverters)))
-	if charts["strings"] != nil {
-		d.image("strings", charts["strings"], 0.92)
-	}
+	// The paragraphs under the chart, written first so that the chart leaves them room.
+	var under []string
 	switch {
 	case s.LayoutAdvice != nil && s.LayoutAdvice.Reason != "":
-		d.para("Why this wiring: " + s.LayoutAdvice.Reason)
+		under = append(under, "Why this wiring: "+s.LayoutAdvice.Reason)
 	case len(s.Layouts) > 1:
-		d.para(fmt.Sprintf("Of the %d wirings compared this one gives the most energy, %s kWh a year more than the next.", len(s.Layouts),
+		under = append(under, fmt.Sprintf("Of the %d wirings compared this one gives the most energy, %s kWh a year more than the next.", len(s.Layouts),
 			Thousands(s.Layouts[1].BehindBestKWh, 0)))
 	}
 	// Module-level converters in one sentence: on every module, and on the few that need
@@ -408,8 +407,18 @@ func (pr *Proposal) wiring(d *pdfDoc, charts map[string][]byte) {
 		conv = append(conv, fmt.Sprintf("behind %s, %s kWh a year", on, signed(a.DifferenceKWh)))
 	}
 	if len(conv) > 0 {
-		d.para("Small electronic converters on the modules would change the year's energy: " + strings.Join(conv, "; ") +
+		under = append(under, "Small electronic converters on the modules would change the year's energy: "+strings.Join(conv, "; ")+
 			". The installer's technical sheet compares these and the other options.")
+	}
+	if charts["strings"] != nil {
+		below := 0.0
+		for _, p := range under {
+			below += d.paraHeight(p)
+		}
+		d.imageAbove("strings", charts["strings"], 0.92, below)
+	}
+	for _, p := range under {
+		d.para(p)
 	}
 }
 
