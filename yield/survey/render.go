@@ -59,6 +59,17 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	if ctx == nil {
 		ctx = context.Background()
 	}
+	// The sun-path chart's outlines and blockers take a while on a large roof: they are
+	// found while the files below are put together.
+	type sunPathOf struct {
+		sp  *report.SunPath
+		err error
+	}
+	spc := make(chan sunPathOf, 1)
+	go func() {
+		sp, err := p.sunPath(m, s)
+		spc <- sunPathOf{sp, err}
+	}()
 	files := map[string][]byte{}
 	js, err := s.JSON()
 	if err != nil {
@@ -109,9 +120,11 @@ func (r *Result) Render(opt RenderOptions) (map[string][]byte, error) {
 	if pr.Cover.Date == "" && !pr.Date.IsZero() {
 		pr.Cover.Date = pr.Date.Format(time.DateOnly)
 	}
-	if pr.SunPath, err = p.sunPath(m, s); err != nil {
-		return nil, err
+	sp := <-spc
+	if sp.err != nil {
+		return nil, sp.err
 	}
+	pr.SunPath = sp.sp
 	formats := []report.Format{report.PNG}
 	if opt.SVG {
 		formats = append(formats, report.SVG)
@@ -280,10 +293,20 @@ func (p *Project) sunPath(m *yield.Model, s *report.Summary) (*report.SunPath, e
 	if len(m.Records) > 0 {
 		year = m.Records[len(m.Records)/2].End.Year()
 	}
+	// The outlines and what blocks the sun are independent readings of the scene: one on
+	// another core.
+	var shaders []shading.Blocker
+	done := make(chan struct{})
+	go func() {
+		shaders = sc.Blockers(worst, m.Steps, m.Shade)
+		close(done)
+	}()
+	outlines := sc.Silhouette(worst, step)
+	<-done
 	return &report.SunPath{
 		Observer: p.Observer, Zone: p.Cfg.Zone, Year: year,
-		Outlines: sc.Silhouette(worst, step), AzStepDeg: step,
-		Shaders: sc.Blockers(worst, m.Steps, m.Shade),
+		Outlines: outlines, AzStepDeg: step,
+		Shaders: shaders,
 		Module:  s.ModuleResults[worst].ID, ShadeLossPct: report.Round(s.ModuleResults[worst].ShadeLossPct, 2),
 	}, nil
 }
