@@ -488,14 +488,14 @@ type stringRecipe struct {
 	padd, psub int
 }
 
-// nearYear reads a string from a built one several modules away: the built string's year v
-// plus the curves of the modules in adds, less those of the modules in subs. A string of
+// nearYear reads a string from a built one several modules away: the built string's year
+// (from.v, never written once built) plus the curves of the modules in adds, less those of the
+// modules in subs. A string of
 // modules each lit a little differently (a large roof's modules see their own share of the
 // sky) has nearly as many distinct curves at a step as modules, and a search's new strings
 // often share most of their modules with one built before.
 type nearYear struct {
 	from       *stringYear
-	v          []int64
 	adds, subs []int
 }
 
@@ -824,7 +824,7 @@ func (cs *stringCache) nearest(y *Year, mods []int) *nearYear {
 	if best == nil {
 		return nil
 	}
-	nb := &nearYear{from: best, v: best.v}
+	nb := &nearYear{from: best}
 	// Both sorted: one merge gives the modules in and out.
 	i, j := 0, 0
 	for i < len(mods) || j < len(best.mods) {

@@ -1098,7 +1098,7 @@ func (y *Year) addNear(sum []int64, off, row int, str []int, near *nearYear, pr,
 			return pr, dp
 		}
 	}
-	copy(sum, near.v[off:off+len(sum)])
+	copy(sum, near.from.v[off:off+len(sum)])
 	y.addPairs(sum, dp)
 	return pr, dp
 }
