@@ -50,6 +50,8 @@ func TestImageAboveLeavesRoom(t *testing.T) {
 			d := newA4()
 			d.SetY(tc.top)
 			d.imageAbove("p", buf.Bytes(), 0.92, tc.below)
+			// 0.01 mm: the heights are sums and products of a few millimetre values, exact
+			// but for rounding far below that; a line is 5 mm.
 			if got := d.GetY() - tc.top - imageGap; got < tc.height-0.01 || got > tc.height+0.01 {
 				t.Errorf("picture %.2f mm high, want %.2f", got, tc.height)
 			}

@@ -34,6 +34,8 @@ func TestSpacedLabels(t *testing.T) {
 	trX, trY := p.Transforms(&c)
 	// FillText starts the text left of its point and above it by the style's alignment, the
 	// same for every name of one style: the far name, alone where it stands, gives that offset.
+	// Positions are compared within 0.01 pt, rounding of sums of point lengths; a line of
+	// these names is about 8 pt.
 	far := drawn["far"]
 	baseY := far.Y - trY(10)
 	for _, tc := range []struct {
