@@ -280,11 +280,11 @@ func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
 	// One input is used up: the other two finish the walk with its last current.
 	switch {
 	case kc == nc:
-		oi, ov = walk2(oi, ov, ia, va, ka, ib, vb, kb, ic[nc-1])
+		oi, ov = walk2(oi, ov, ia, va, ka, ib, vb, kb, ic[nc-1], math.Inf(-1))
 	case kb == nb:
-		oi, ov = walk2(oi, ov, ia, va, ka, ic, vc, kc, ib[nb-1])
+		oi, ov = walk2(oi, ov, ia, va, ka, ic, vc, kc, ib[nb-1], math.Inf(-1))
 	default:
-		oi, ov = walk2(oi, ov, ib, vb, kb, ic, vc, kc, ia[na-1])
+		oi, ov = walk2(oi, ov, ib, vb, kb, ic, vc, kc, ia[na-1], math.Inf(-1))
 	}
 	m.oi, m.ov = oi, ov
 	return oi, ov
@@ -295,32 +295,44 @@ func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
 // third input is used up and gives its last current as cst. As walkFrom would, to the bit (a
 // sum of two terms is the same in either order). While both have points left, the other
 // input's next point is not past its last (see inside); once one is used up, the other's
-// points see its last current.
-func walk2(oi, ov, ia, va []float64, ka int, ib, vb []float64, kb int, cst float64) ([]float64, []float64) {
+// points see its last current. The walk ends after the first point below the voltage stop
+// (−Inf: the whole walk), as parallel2MaxFree asks.
+func walk2(oi, ov, ia, va []float64, ka int, ib, vb []float64, kb int, cst, stop float64) ([]float64, []float64) {
 	na, nb := len(va), len(vb)
 	for ka < na && kb < nb {
+		var x float64
 		switch xa, xb := va[ka], vb[kb]; {
 		case xa > xb:
 			oi = append(oi, ia[ka]+(inside(ib, vb, kb, xa)+cst))
-			ov = append(ov, xa)
+			x = xa
 			ka++
 		case xb > xa:
 			oi = append(oi, ib[kb]+(inside(ia, va, ka, xb)+cst))
-			ov = append(ov, xb)
+			x = xb
 			kb++
 		default:
 			oi = append(oi, (ia[ka]+ib[kb])+cst)
-			ov = append(ov, xa)
+			x = xa
 			ka, kb = ka+1, kb+1
+		}
+		ov = append(ov, x)
+		if x < stop {
+			return oi, ov
 		}
 	}
 	for ; ka < na; ka++ {
 		oi = append(oi, ia[ka]+(ib[nb-1]+cst))
 		ov = append(ov, va[ka])
+		if va[ka] < stop {
+			return oi, ov
+		}
 	}
 	for ; kb < nb; kb++ {
 		oi = append(oi, ib[kb]+(ia[na-1]+cst))
 		ov = append(ov, vb[kb])
+		if vb[kb] < stop {
+			return oi, ov
+		}
 	}
 	return oi, ov
 }
@@ -336,8 +348,122 @@ func inside(is, vs []float64, k int, v float64) float64 {
 // walk2 with no third input.
 func (m *merger) parallel2(ia, va, ib, vb []float64) ([]float64, []float64) {
 	n := len(va) + len(vb)
-	m.oi, m.ov = walk2(slices.Grow(m.oi[:0], n), slices.Grow(m.ov[:0], n), ia, va, 0, ib, vb, 0, 0)
+	m.oi, m.ov = walk2(slices.Grow(m.oi[:0], n), slices.Grow(m.ov[:0], n), ia, va, 0, ib, vb, 0, 0, math.Inf(-1))
 	return m.oi, m.ov
+}
+
+// pruneMargin widens parallel2MaxFree's bounds against rounding: the currents and powers it
+// bounds are sums and products of a few terms, each rounded to within 1e-16 relative.
+const pruneMargin = 1e-9
+
+// parallel2MaxFree returns polyMaxFree of the polyline of two strings in parallel on one
+// current grid gi (voltages va and vb, non-increasing with current; the two-input walk of
+// parallel2) to the bit, and true; false when it leaves the question to the whole walk.
+//
+// Most of the polyline cannot hold the maximum, and is not walked. The merged curve has a
+// point at each string's best grid point; the better of their powers, computed as the walk
+// would, bounds the answer from below (cand). Let M_j = max(va[j], vb[j]), a point's voltage: at a voltage
+// of at least M_j each string carries at most gi[j]. Every merged point above M_j and below
+// M_(j−1) carries at most 2·gi[j], and the segment from it to the next point at most
+// 2·gi[j+1]: below cand up to the first j where M_(j−1)·2·gi[j+1] reaches it, the walk starts
+// there (at M_k, the state of the whole walk once every point above it is out). Below a
+// voltage V, power is at most V·2·gi[last]: the walk stops after its first point below
+// cand/(2·gi[last]). polyMaxFree skips a segment whose corner power is at most its best so
+// far and takes a point or segment only if it beats it, so leaving out points and segments
+// whose bound is below cand changes neither its answer nor which of equal candidates it
+// returns. The bounds carry pruneMargin against rounding.
+func (m *merger) parallel2MaxFree(gi, va, vb []float64) (pW, vV, iA float64, ok bool) {
+	n := len(gi)
+	if n < 2 || len(va) != n || len(vb) != n {
+		return 0, 0, 0, false
+	}
+	ba, bb, mono := bestPoints(gi, va, vb)
+	if !mono {
+		return 0, 0, 0, false
+	}
+	cand := max(mergedAt(gi, va, ba, vb), mergedAt(gi, vb, bb, va))
+	if !(cand > 0) || !(gi[n-1] > 0) {
+		return 0, 0, 0, false
+	}
+	lb := cand * (1 - pruneMargin)
+	hi := lb / (2 * (1 + pruneMargin)) // bound on M_(j−1)·gi[j+1]
+	k, mPrev := -1, max(va[0], vb[0])
+	for j := 0; j+1 < n && mPrev*gi[j+1] < hi; j++ {
+		k, mPrev = j, max(va[j], vb[j])
+	}
+	ka, kb := 0, 0
+	if k >= 0 {
+		vs := max(va[k], vb[k])
+		ka, kb = k, k
+		for ka > 0 && va[ka-1] <= vs {
+			ka--
+		}
+		for kb > 0 && vb[kb-1] <= vs {
+			kb--
+		}
+	}
+	stop := lb / (2 * gi[n-1] * (1 + pruneMargin))
+	m.oi, m.ov = walk2(slices.Grow(m.oi[:0], 2*n), slices.Grow(m.ov[:0], 2*n), gi, va, ka, gi, vb, kb, 0, stop)
+	if len(m.oi) < 2 {
+		return 0, 0, 0, false
+	}
+	pW, vV, iA = polyMaxFree(m.oi, m.ov)
+	return pW, vV, iA, true
+}
+
+// bestPoints returns the index of each string's grid point of most power (first of equals;
+// −1 when none has positive current and power), and whether both strings' voltages are
+// non-increasing, as the walk's state and parallel2MaxFree's bounds assume.
+func bestPoints(gi, va, vb []float64) (ba, bb int, mono bool) {
+	n := len(gi)
+	va, vb = va[:n], vb[:n]
+	ba, bb, mono = -1, -1, true
+	var pa, pb float64
+	prevA, prevB := va[0], vb[0]
+	for k, i := range gi {
+		a, b := va[k], vb[k]
+		if a > prevA || b > prevB {
+			mono = false
+		}
+		prevA, prevB = a, b
+		// With i > 0, a power above the best so far (at least 0) has a positive voltage.
+		if i > 0 {
+			if p := i * a; p > pa {
+				ba, pa = k, p
+			}
+			if p := i * b; p > pb {
+				bb, pb = k, p
+			}
+		}
+	}
+	return ba, bb, mono
+}
+
+// mergedAt returns the power of the merged point at voltage va[k] of strings a and b on grid
+// gi (a's point k, as walk2 computes it from the state where it is next), or 0 when k < 0 or
+// that voltage is not positive.
+func mergedAt(gi, va []float64, k int, vb []float64) float64 {
+	if k < 0 || !(va[k] > 0) {
+		return 0
+	}
+	x := va[k]
+	// j: the number of b's points above x (vb non-increasing), b's next point in the walk.
+	lo, hi := 0, len(vb)
+	for lo < hi {
+		mid := int(uint(lo+hi) >> 1)
+		if vb[mid] > x {
+			lo = mid + 1
+		} else {
+			hi = mid
+		}
+	}
+	switch {
+	case lo == len(vb):
+		return (gi[k] + gi[lo-1]) * x
+	case vb[lo] == x:
+		return (gi[k] + gi[lo]) * x
+	}
+	return (gi[k] + inside(gi, vb, lo, x)) * x
 }
 
 // currentOn returns the current of polyline (is, vs) at voltage v, where k is

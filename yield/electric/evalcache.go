@@ -380,8 +380,21 @@ func (y *Year) stepParts(jobs []inputJob, pts []*inputYear, inv Inverter, opt Ev
 				reused++
 				continue
 			}
-			is, vs := y.inputCurve(&sc, s, job.in, job.strs)
-			pG, vG, iG := polyMaxFree(is, vs)
+			ns, same := y.stringSums(&sc, s, job.in, job.strs)
+			var is, vs []float64
+			var pG, vG, iG float64
+			pruned := false
+			if ns == 2 && !same && opt.Tracker == GlobalMPP {
+				// Two strings, the usual input: the maximum from the part of their merged
+				// curve that can hold it. The window and the current limit, when they act,
+				// need the whole curve.
+				pG, vG, iG, pruned = sc.m.parallel2MaxFree(sc.gi, sc.sums[0], sc.sums[1])
+				pruned = pruned && vG >= vmin && vG <= vmax && iG <= imax
+			}
+			if !pruned {
+				is, vs = sc.inputPolyline(ns, same)
+				pG, vG, iG = polyMaxFree(is, vs)
+			}
 			pW, pC, vC := pG, pG, vG
 			// Usually the global maximum is inside the window and the current limit: then the
 			// constrained searches are not needed.

@@ -921,7 +921,15 @@ func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCa
 // voltages, plus and less a module; any other is added up here, modules sharing a curve as
 // count × curve. Identical strings in parallel scale the current.
 func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecipe) ([]float64, []float64) {
-	ns := len(in)
+	ns, same := y.stringSums(sc, s, in, strs)
+	return sc.inputPolyline(ns, same)
+}
+
+// stringSums puts the voltages of the strings of one input at step s, on the step's grid
+// sc.gi, into sc.sums[:ns] (see inputCurve), and reports whether they are all the same; then
+// only sc.sums[0] is set.
+func (y *Year) stringSums(sc *evalScratch, s int, in [][]int, strs []stringRecipe) (ns int, same bool) {
+	ns = len(in)
 	for len(sc.pairs) < ns {
 		sc.pairs = append(sc.pairs, nil)
 		sc.isums = append(sc.isums, nil)
@@ -961,7 +969,7 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 		}
 		sc.src[b] = sc.isums[b]
 	}
-	same := true
+	same = true
 	for b := 1; b < ns && same; b++ {
 		same = slices.Equal(sc.src[b], sc.src[0])
 	}
@@ -977,11 +985,16 @@ func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecip
 		}
 		sc.is[b] = sc.gi
 	}
+	return ns, same
+}
+
+// inputPolyline returns the polyline of the strings stringSums put in sc in parallel.
+func (sc *evalScratch) inputPolyline(ns int, same bool) ([]float64, []float64) {
 	if same {
 		if ns == 1 {
 			return sc.gi, sc.sums[0]
 		}
-		sc.gs = grow(sc.gs, np)
+		sc.gs = grow(sc.gs, len(sc.gi))
 		for k, x := range sc.gi {
 			sc.gs[k] = x * float64(ns)
 		}
