@@ -48,9 +48,10 @@ type EvalCache struct {
 	bytes int64
 	hits  int64
 	calls int64
-	// reused counts input-steps read from a parent input (see inputJob.parent).
-	reused int64
-	strs   stringCache
+	// reused counts input-steps read from a parent input (see inputJob.parent), thinned those
+	// read from a thinned year's (inputJob.thin).
+	reused, thinned int64
+	strs            stringCache
 }
 
 type cacheKey struct {
@@ -178,13 +179,19 @@ func (y *Year) parts(l Layout, inv Inverter, opt EvalOptions, c *EvalCache) []*i
 		job := inputJob{in: canon, strs: strs, key: key}
 		if opt.Tracker == GlobalMPP && strs != nil {
 			job.parent, job.swaps = c.parentInput(y, prefix, strs)
+			if t := y.thin.Load(); t != nil {
+				if pt := c.peek(cacheKey{t, key}); pt != nil && pt.pg != nil {
+					job.thin, job.stride = pt, t.stride
+				}
+			}
 		}
 		todo = append(todo, job)
 	}
-	pts, reused := y.inputParts(todo, inv, opt)
-	if c != nil && reused > 0 {
+	pts, reused, thinned := y.inputParts(todo, inv, opt)
+	if c != nil && reused+thinned > 0 {
 		c.mu.Lock()
 		c.reused += reused
+		c.thinned += thinned
 		c.mu.Unlock()
 	}
 	for j, pt := range pts {
@@ -240,6 +247,11 @@ type inputJob struct {
 	// the same, and the step is read from parent.
 	parent *inputYear
 	swaps  [][2]int
+	// thin is the same input's share of the year thinned to every stride-th step (see
+	// Year.Thin), kept from a screening: step j there is step j·stride here, to the bit (the
+	// same curves, grid and sums; a global tracker's step depends on nothing else).
+	thin   *inputYear
+	stride int
 }
 
 // parentInput finds, for an input whose strings' recipes are strs, a kept input of the same
@@ -279,9 +291,9 @@ func (c *EvalCache) parentInput(y *Year, prefix []byte, strs []stringRecipe) (*i
 // the current limit, and the loss terms. The inputs go through the steps together, so that a
 // step's curves are read from memory once for all of them; each input's share is what it
 // would be alone.
-func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts []*inputYear, reused int64) {
+func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts []*inputYear, reused, thinned int64) {
 	if len(jobs) == 0 {
-		return nil, 0
+		return nil, 0, 0
 	}
 	pts = make([]*inputYear, len(jobs))
 	for j := range jobs {
@@ -304,9 +316,13 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts [
 		}
 		wg.Wait()
 	} else {
-		var n atomic.Int64
-		y.eachPart(func(lo, hi int) { n.Add(y.stepParts(jobs, pts, inv, opt, lo, hi)) })
-		reused = n.Load()
+		var nr, nt atomic.Int64
+		y.eachPart(func(lo, hi int) {
+			r, t := y.stepParts(jobs, pts, inv, opt, lo, hi)
+			nr.Add(r)
+			nt.Add(t)
+		})
+		reused, thinned = nr.Load(), nt.Load()
 	}
 	for _, pt := range pts {
 		for s := range y.steps {
@@ -322,7 +338,7 @@ func (y *Year) inputParts(jobs []inputJob, inv Inverter, opt EvalOptions) (pts [
 			pt.trackerWh += (pC - pt.p[s]) * h
 		}
 	}
-	return pts, reused
+	return pts, reused, thinned
 }
 
 // minPartSteps is the fewest steps worth a goroutine of their own (see eachPart).
@@ -344,8 +360,8 @@ func (y *Year) eachPart(do func(lo, hi int)) {
 }
 
 // stepParts fills the inputs' shares pts at steps lo..hi−1 (see inputParts) and returns how
-// many input-steps it read from a parent input.
-func (y *Year) stepParts(jobs []inputJob, pts []*inputYear, inv Inverter, opt EvalOptions, lo, hi int) (reused int64) {
+// many input-steps it read from a parent input and from a thinned year.
+func (y *Year) stepParts(jobs []inputJob, pts []*inputYear, inv Inverter, opt EvalOptions, lo, hi int) (reused, thinned int64) {
 	prevV := make([]float64, len(jobs))
 	for j := range prevV {
 		prevV[j] = math.NaN()
@@ -357,6 +373,13 @@ func (y *Year) stepParts(jobs []inputJob, pts []*inputYear, inv Inverter, opt Ev
 		sc.gi = y.grid(s)
 		for j, job := range jobs {
 			pt := pts[j]
+			if th := job.thin; th != nil && s%job.stride == 0 {
+				t := s / job.stride
+				pt.pg[s], pt.pw[s], pt.pc[s] = th.pg[t], th.pw[t], th.pc[t]
+				pt.p[s], pt.pv[s], pt.un[s] = th.p[t], th.pv[t], th.un[t]
+				thinned++
+				continue
+			}
 			var un float64
 			for _, str := range job.in {
 				for _, k := range str {
@@ -417,7 +440,7 @@ func (y *Year) stepParts(jobs []inputJob, pts []*inputYear, inv Inverter, opt Ev
 			pt.pv[s] = p * v
 		}
 	}
-	return reused
+	return reused, thinned
 }
 
 // sameAt reports whether every pair of swapped modules shares a curve at the step starting at

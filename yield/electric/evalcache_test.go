@@ -332,3 +332,35 @@ func TestEvalCacheConcurrent(t *testing.T) {
 		}
 	}
 }
+
+// An input screened on the thinned year (Year.Thin) gives its share at every k-th step of the
+// whole year, where the thinned year's steps are the year's: the whole year's result is a
+// fresh evaluation's to the bit, for inputs of two and of three strings. A climbing tracker,
+// whose step starts from the step before, takes nothing from the thinned year.
+func TestEvaluateCachedThinnedInputs(t *testing.T) {
+	_, y := testYear120(t, 90, 0.6, 7)
+	three := layout6x20()
+	two := Layout{Inputs: [][][]int{{modRange(0, 20), modRange(20, 40)}, {modRange(40, 60), modRange(60, 80)}}}
+	for _, tc := range []struct {
+		name string
+		l    Layout
+		opt  EvalOptions
+		want int64 // input-steps read from the thinned year
+	}{
+		{"three strings an input", three, EvalOptions{}, 2 * 23},
+		{"two strings an input", two, EvalOptions{}, 2 * 23},
+		{"climbing tracker", two, EvalOptions{Tracker: LocalClimb}, 0},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			var c EvalCache
+			th := y.Thin(4) // 23 steps: 0, 4, …, 88
+			if _, err := th.EvaluateCached(tc.l, bigInverter, tc.opt, &c); err != nil {
+				t.Fatal(err)
+			}
+			sameAsFresh(t, y, tc.l, tc.opt, &c)
+			if c.thinned != tc.want {
+				t.Errorf("%d input-steps read from the thinned year, want %d", c.thinned, tc.want)
+			}
+		})
+	}
+}

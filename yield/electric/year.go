@@ -112,6 +112,11 @@ type Year struct {
 	hours      []float32 // per step (h)
 	moduleDCWh []float64 // per module over the year
 	moduleUnWh []float64
+	// thin is the last year Thin made from this one: an input's share of it, kept in an
+	// EvalCache, is this year's share at every stride-th step (see inputJob.thin). stride is,
+	// for a year Thin made, its k.
+	thin   atomic.Pointer[Year]
+	stride int
 }
 
 // NewYear calls step for s = 0..steps−1 and computes each module's curve at
@@ -1213,7 +1218,8 @@ func (y *Year) Thin(k int) *Year {
 	}
 	ns := (y.steps + k - 1) / k
 	t := &Year{
-		m: y.m, n: y.n, steps: ns,
+		stride: k,
+		m:      y.m, n: y.n, steps: ns,
 		curveV: y.curveV, curveAt: y.curveAt, curveMPP: y.curveMPP,
 		gridOff:    make([]int32, 1, ns+1),
 		modCurve:   make([]int32, 0, ns*y.n),
@@ -1237,5 +1243,6 @@ func (y *Year) Thin(k int) *Year {
 			t.moduleUnWh[m] += float64(y.unshadedW[s*y.n+m]) * h
 		}
 	}
+	y.thin.Store(t)
 	return t
 }
