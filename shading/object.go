@@ -64,9 +64,12 @@ type object struct {
 	ridgeC    orb.Point
 	across    orb.Point
 	// Hipped block: also z ≤ hipTop ∓ slope·((x−c)·along).
-	hip         bool
-	hipTop      float64
-	along       orb.Point
+	hip    bool
+	hipTop float64
+	along  orb.Point
+	// A block whose footprint is strictly convex: the footprint as the half-planes
+	// a·E + b·N ≤ c, one per edge, so that a ray is clipped to it like to the slab.
+	edges       []halfPlane
 	crownShape  geo.CrownShape
 	crownBase   float64
 	trunk       orb.Point
@@ -210,8 +213,40 @@ func blockObject(b *geo.Block) (object, error) {
 			}
 		}
 	}
+	o.edges = convexEdges(o.poly)
 	o.setSphereFromBox(o.base, o.top)
 	return o, nil
+}
+
+// halfPlane is a·E + b·N ≤ c.
+type halfPlane struct{ a, b, c float64 }
+
+// convexEdges returns the half-planes whose intersection is the ring, when the ring is
+// strictly convex (every turn the same way, none straight); nil otherwise.
+func convexEdges(poly []orb.Point) []halfPlane {
+	n := len(poly)
+	sign := 0.0
+	for i := range n {
+		a, b, c := poly[i], poly[(i+1)%n], poly[(i+2)%n]
+		t := orient(a[0], a[1], b[0], b[1], c[0], c[1])
+		switch {
+		case t == 0 || math.IsNaN(t):
+			return nil
+		case sign == 0:
+			sign = math.Copysign(1, t)
+		case math.Signbit(t) != math.Signbit(sign):
+			return nil
+		}
+	}
+	hp := make([]halfPlane, n)
+	for i := range n {
+		a, b := poly[i], poly[(i+1)%n]
+		// Inside lies to the left of a counter-clockwise edge (sign > 0): −(b−a)⊥·(x−a) ≤ 0.
+		ex, ey := b[0]-a[0], b[1]-a[1]
+		nx, ny := sign*ey, -sign*ex // outward normal
+		hp[i] = halfPlane{nx, ny, nx*a[0] + ny*a[1]}
+	}
+	return hp
 }
 
 func treeObject(t *geo.Tree) (object, error) {
@@ -332,6 +367,15 @@ func (o *object) hitBlock(p, d geo.Vec3) bool {
 	if max(ax, bx) < o.minE || min(ax, bx) > o.maxE ||
 		max(ay, by) < o.minN || min(ay, by) > o.maxN {
 		return false
+	}
+	if o.edges != nil {
+		// A convex footprint: the ray clipped by each edge's half-plane, as by the slab.
+		for _, h := range o.edges {
+			if !clip(&lo, &hi, h.a*p.E+h.b*p.N-h.c, h.a*d.E+h.b*d.N) {
+				return false
+			}
+		}
+		return true
 	}
 	if inRing(o.poly, ax, ay) || inRing(o.poly, bx, by) {
 		return true
