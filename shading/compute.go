@@ -142,8 +142,9 @@ func (sc *Scene) Compute(ctx context.Context, steps []Step, progress func(done, 
 
 // work is a worker's scratch space, and the block its modules' shaded rows are cut from.
 type work struct {
-	cand []int32
-	row  []uint8
+	cand  []int32
+	row   []uint8
+	trans []float64 // a step's transmittance per cell
 	// free is the unused end of the worker's current block: a module's rows are appended
 	// there in place, so that a large roof's hundreds of megabytes of rows are written once,
 	// not copied again each time a module's slice would have doubled.
@@ -159,7 +160,9 @@ const (
 	maxBlock   = 8 << 20
 )
 
-func newWork(cells int) *work { return &work{row: make([]uint8, cells), block: firstBlock} }
+func newWork(cells int) *work {
+	return &work{row: make([]uint8, cells), trans: make([]float64, cells), block: firstBlock}
+}
 
 // begin starts a module's rows in the free part of the current block.
 func (w *work) begin() []uint8 { return w.free[:0] }
@@ -241,21 +244,26 @@ func (sc *Scene) fastModule(i int, info []stepInfo, w *work) modResult {
 			mr.idx[s] = stepLit
 			continue
 		}
-		for k, q := range p.cells {
-			t := 1.0
-			for _, j := range w.cand {
-				if !p.cellCon[j][k].contains(d) {
+		// Candidate by candidate, each over the cells: a cell's transmittance is multiplied in
+		// the candidates' order, as a cell-by-cell loop would, and a cell in full shade is
+		// not tested again.
+		t := w.trans[:len(p.cells)]
+		for k := range t {
+			t[k] = 1
+		}
+		for _, j := range w.cand {
+			o := &sc.objs[p.objs[j]]
+			tr := o.transmittance(st.month)
+			con := p.cellCon[j][:len(p.cells)]
+			for k, q := range p.cells {
+				if t[k] == 0 || !con[k].contains(d) || !o.hit(q, d) {
 					continue
 				}
-				o := &sc.objs[p.objs[j]]
-				if o.hit(q, d) {
-					t *= o.transmittance(st.month)
-					if t == 0 {
-						break
-					}
-				}
+				t[k] *= tr
 			}
-			w.row[k] = quantize(t)
+		}
+		for k, x := range t {
+			w.row[k] = quantize(x)
 		}
 		store(w, &mr, s, w.row)
 	}
