@@ -329,85 +329,60 @@ func ringCentre(r [][2]float64) (x, y float64) {
 	return x, y
 }
 
-// planBase draws the faces, blocks, avoid areas and trees with their ids, and returns the
-// frame, fitted to a w×h picture: the roof and every obstacle within reach (see frameOf).
-func planBase(pl *Plan, p *plot.Plot, w, h vg.Length, reach float64) framed {
+// planBase draws the faces, blocks, avoid areas and trees, and returns the frame, fitted
+// to a w×h picture (the roof and every obstacle within reach, see frameOf), with the names
+// of what it drew for layoutPlan to place.
+func planBase(pl *Plan, p *plot.Plot, w, h vg.Length, reach float64) (framed, []planName) {
 	f := frameOf(pl, reach)
 	f.fit(w, h, legendFrac)
 	skip := map[string]bool{}
 	for _, id := range f.left {
 		skip[id] = true
 	}
-	var tx plotter.XYs
-	var tl []string
+	var names []planName
 	for _, t := range pl.Trees {
 		if skip[t.ID] {
 			continue
 		}
 		addPolygon(p, circleXYs(t.X, t.Y, t.CrownRadiusM), treeFill, blockFill, vg.Points(0.6))
-		addPolygon(p, circleXYs(t.X, t.Y, math.Min(0.25, t.CrownRadiusM/4)), blockFill, nil, 0)
-		tx = append(tx, plotter.XY{X: t.X, Y: t.Y - math.Min(0.25, t.CrownRadiusM/4)})
-		tl = append(tl, Printable(t.ID))
+		trunk := math.Min(0.25, t.CrownRadiusM/4)
+		addPolygon(p, circleXYs(t.X, t.Y, trunk), blockFill, nil, 0)
+		r := t.CrownRadiusM
+		names = append(names, planName{kind: treeName, id: t.ID, text: Printable(t.ID), size: 6.5,
+			x0: t.X - r, y0: t.Y - r, x1: t.X + r, y1: t.Y + r, tx: t.X, ty: t.Y, trunk: trunk})
 	}
 	for _, fc := range pl.Faces {
 		addPolygon(p, ringXYs(fc.Ring), faceFill, Ink, vg.Points(0.8))
 	}
-	var bx, ax, vx plotter.XYs
-	var bl, al, vl []string
+	box := func(n planName, r [][2]float64) planName {
+		n.x0, n.y0, n.x1, n.y1 = r[0][0], r[0][1], r[0][0], r[0][1]
+		for _, q := range r {
+			n.x0, n.x1 = math.Min(n.x0, q[0]), math.Max(n.x1, q[0])
+			n.y0, n.y1 = math.Min(n.y0, q[1]), math.Max(n.y1, q[1])
+		}
+		return n
+	}
+	for i, sp := range faceLabelSpots(pl.Faces) {
+		if !sp.skip {
+			names = append(names, box(planName{kind: faceName, id: pl.Faces[i].ID, text: "face " + Printable(pl.Faces[i].ID), size: 8, at: sp.at, below: sp.below}, pl.Faces[i].Ring))
+		}
+	}
 	for _, b := range pl.Blocks {
-		if skip[b.ID] {
+		if skip[b.ID] || len(b.Ring) == 0 {
 			continue
 		}
 		addPolygon(p, ringXYs(b.Ring), blockFill, Ink, vg.Points(0.5))
-		// The id inside a block wide enough for it, else just above it.
-		x, y := ringCentre(b.Ring)
-		bw, bh := extent(b.Ring)
-		if f.textM(b.ID, 6) > 0.9*bw {
-			y += bh / 2
-			ax = append(ax, plotter.XY{X: x, Y: y})
-			al = append(al, Printable(b.ID))
-			continue
-		}
-		bx = append(bx, plotter.XY{X: x, Y: y})
-		bl = append(bl, Printable(b.ID))
+		names = append(names, box(planName{kind: blockName, id: b.ID, text: Printable(b.ID), size: 6}, b.Ring))
 	}
 	for _, a := range pl.Avoids {
 		if pg := addPolygon(p, ringXYs(a.Ring), white, Ink, vg.Points(0.6)); pg != nil {
 			pg.LineStyle.Dashes = avoidDashes
 		}
-		// The id under the area: kept free of modules, its edge is clear of them more often.
-		x, y := ringCentre(a.Ring)
-		_, ah := extent(a.Ring)
-		vx = append(vx, plotter.XY{X: x, Y: y - ah/2})
-		vl = append(vl, Printable(a.ID))
-	}
-	addLabels(p, tx, tl, 6.5, Ink, text.XCenter, text.YTop)
-	addLabels(p, bx, bl, 6, Ink, text.XCenter, text.YCenter)
-	addLabels(p, ax, al, 6, Ink, text.XCenter, text.YBottom)
-	addLabels(p, vx, vl, 5.5, Ink, text.XCenter, text.YTop)
-	return f
-}
-
-// faceLabels names each face above the middle of its highest edge. A face whose top meets
-// another face (the lower face at a ridge or a hip) is named below the middle of its lowest
-// edge instead, so that the labels of faces meeting at a corner never print over each other
-// or over the other face's modules.
-func faceLabels(pl *Plan, p *plot.Plot) {
-	var above, below plotter.XYs
-	var al, bl []string
-	for i, sp := range faceLabelSpots(pl.Faces) {
-		if sp.skip {
-			continue
-		}
-		l := "face " + Printable(pl.Faces[i].ID)
-		if sp.below {
-			below, bl = append(below, sp.at), append(bl, l)
-		} else {
-			above, al = append(above, sp.at), append(al, l)
+		if len(a.Ring) > 0 {
+			names = append(names, box(planName{kind: avoidName, id: a.ID, text: Printable(a.ID), size: 5.5}, a.Ring))
 		}
 	}
-	addLabels(p, above, al, 8, Ink, text.XCenter, text.YBottom)
-	addLabels(p, below, bl, 8, Ink, text.XCenter, text.YTop)
+	return f, names
 }
 
 // labelSpot is where a face's label goes: at a point, above it or (below) under it.
@@ -552,8 +527,8 @@ func connected(pl *Plan) []bool {
 const legendFrac = 0.3
 
 // planFrame sets the fitted frame on the plot (equal scales on both axes) and draws the
-// north arrow and the scale bar.
-func planFrame(p *plot.Plot, f framed) {
+// north arrow and the scale bar; it returns their texts, which the names keep clear of.
+func planFrame(p *plot.Plot, f framed) []*plotter.Labels {
 	p.HideAxes()
 	p.BackgroundColor = white
 	minX, maxX, minY, maxY := f.minX, f.maxX, f.minY, f.maxY
@@ -567,7 +542,7 @@ func planFrame(p *plot.Plot, f framed) {
 	bar.LineStyle.Width, bar.LineStyle.Color = vg.Points(1.2), Ink
 	p.Add(bar)
 	lab := fmt.Sprintf("%g m", L)
-	addLabels(p, plotter.XYs{{X: x0 + L/2, Y: y0 + 0.02*dy}}, []string{lab}, 8, Ink, text.XCenter, text.YBottom)
+	scale := addLabels(p, plotter.XYs{{X: x0 + L/2, Y: y0 + 0.02*dy}}, []string{lab}, 8, Ink, text.XCenter, text.YBottom)
 
 	// North arrow, bottom right: the local frame's +y is true north.
 	ax, ay := maxX-0.05*dx, minY+0.04*dy
@@ -577,7 +552,8 @@ func planFrame(p *plot.Plot, f framed) {
 	shaft, _ := plotter.NewLine(plotter.XYs{{X: ax, Y: ay}, {X: ax, Y: ay + al - 0.03*dy}})
 	shaft.LineStyle.Width, shaft.LineStyle.Color = vg.Points(1.2), Ink
 	p.Add(shaft)
-	addLabels(p, plotter.XYs{{X: ax - 0.02*dx, Y: ay + al/2}}, []string{"N"}, 9, Ink, text.XRight, text.YCenter)
+	north := addLabels(p, plotter.XYs{{X: ax - 0.02*dx, Y: ay + al/2}}, []string{"N"}, 9, Ink, text.XRight, text.YCenter)
+	return []*plotter.Labels{scale, north}
 }
 
 // niceLength returns the largest of 1, 2, 5 × 10ⁿ metres not above x.
@@ -656,15 +632,18 @@ func leftOut(f framed) string {
 // a year (SunBins classes of the roof's best), labelled with its row.column and the share
 // of its light lost to shade; each face's id, the blocks, trees and avoid areas with their
 // ids; a north arrow and a scale bar, for a w×h picture (the scales of both axes are equal
-// only at that size). Unconnected modules are outlined, not filled.
+// only at that size). Unconnected modules are outlined, not filled. The names go where
+// they fit, drawn last over a light box; an object whose name finds no room is numbered,
+// and the legend names the numbers (see layoutPlan).
 func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
+	p, _ := planChart(pl, w, h)
+	return p
+}
+
+// planChart is PlanChart, with where its names and numbers went.
+func planChart(pl *Plan, w, h vg.Length) (*plot.Plot, planLayout) {
 	p := plot.New()
-	f := planBase(pl, p, w, h, reachM)
-	labels := "labels: row.column of the face, and the share of its light lost to shade"
-	if _, lines := moduleLabelSize(pl, f); lines == 0 {
-		labels = "rows numbered beside each face, columns below it"
-	}
-	styleTitle(p, "Roof plan: sunlight on each module in a year\n"+labels+leftOut(f))
+	f, names := planBase(pl, p, w, h, reachM)
 	ref := 0.0
 	for _, m := range pl.Modules {
 		ref = math.Max(ref, m.UnshadedKWhM2)
@@ -700,30 +679,26 @@ func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 		xy = append(xy, plotter.XY{X: x, Y: y})
 		ls = append(ls, lab)
 	}
-	if len(xy) > 0 {
-		size, lines := moduleLabelSize(pl, f)
+	var fixed []*plotter.Labels
+	size, lines := moduleLabelSize(pl, f)
+	if len(xy) > 0 && lines > 0 {
 		if lines == 1 {
 			for i, m := range pl.Modules {
 				ls[i] = Printable(m.Label())
 			}
 		}
-		if lines == 0 {
-			gridLabels(pl, p)
-		}
-		if lines > 0 {
-			l, err := plotter.NewLabels(plotter.XYLabels{XYs: xy, Labels: ls})
-			if err == nil {
-				for i := range l.TextStyle {
-					l.TextStyle[i].Font.Size = vg.Points(size)
-					l.TextStyle[i].Font.Variant = sans
-					l.TextStyle[i].Color = lc[i]
-					l.TextStyle[i].XAlign, l.TextStyle[i].YAlign = text.XCenter, text.YCenter
-				}
-				p.Add(l)
+		l, err := plotter.NewLabels(plotter.XYLabels{XYs: xy, Labels: ls})
+		if err == nil {
+			for i := range l.TextStyle {
+				l.TextStyle[i].Font.Size = vg.Points(size)
+				l.TextStyle[i].Font.Variant = sans
+				l.TextStyle[i].Color = lc[i]
+				l.TextStyle[i].XAlign, l.TextStyle[i].YAlign = text.XCenter, text.YCenter
 			}
+			p.Add(l)
+			fixed = append(fixed, l)
 		}
 	}
-	faceLabels(pl, p)
 	p.Legend.Top = true
 	if ref > 0 {
 		p.Legend.Add(sunHeading)
@@ -732,8 +707,58 @@ func PlanChart(pl *Plan, w, h vg.Length) *plot.Plot {
 		p.Legend.Add(label, swatch(sunColours[k], nil, nil))
 	}
 	obstacleLegend(pl, p, f, unconnected)
-	planFrame(p, f)
-	return p
+	fixed = append(fixed, planFrame(p, f)...)
+
+	grid := len(xy) > 0 && lines == 0
+	title := func(lay planLayout, keyLine bool) string {
+		t := "Roof plan: sunlight on each module in a year\n"
+		if grid {
+			t += gridNote(lay)
+		} else {
+			t += "labels: row.column of the face, and the share of its light lost to shade"
+		}
+		if keyLine {
+			t += "\n" + keyNote
+		}
+		return t + leftOut(f)
+	}
+	return p, finishPlan(p, w, h, pl, names, fixed, grid, title)
+}
+
+// finishPlan lays out a plan's names and numbers (layoutPlan), titles it and adds them
+// and the key of numbered objects. title gives the title for a layout, with the line on
+// numbered objects when keyLine.
+func finishPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed []*plotter.Labels, grid bool, title func(lay planLayout, keyLine bool) string) planLayout {
+	// The title's lines take from the drawing's height: lay out with the lines it will have.
+	styleTitle(p, title(planLayout{}, false))
+	lay := layoutPlan(p, w, h, pl, names, fixed, grid)
+	keyLine := len(lay.keyed) > 0
+	if keyLine {
+		// The line stays even if the smaller drawing happens to fit every name: it still
+		// says how names are shown.
+		p.Title.Text = title(planLayout{}, true)
+		lay = layoutPlan(p, w, h, pl, names, fixed, grid)
+	}
+	p.Title.Text = title(lay, keyLine)
+	p.Add(&planTexts{texts: lay.texts})
+	addKey(p, lay.keyed)
+	return lay
+}
+
+// keyNote is the plan's subtitle line when some objects are numbered.
+const keyNote = "objects named where the names fit, else numbered as in the legend"
+
+// gridNote is the plan's subtitle line on its row and column numbers.
+func gridNote(lay planLayout) string {
+	switch {
+	case lay.rowsThinned && lay.colsThinned:
+		return "rows beside each face and columns below it: every 5th, first and last"
+	case lay.colsThinned:
+		return "rows numbered beside each face, columns below it: every 5th, first and last"
+	case lay.rowsThinned:
+		return "columns numbered below each face, rows beside it: every 5th, first and last"
+	}
+	return "rows numbered beside each face, columns below it"
 }
 
 // moduleLabelSize picks the largest type, 6 pt down to 4 pt, at which the plan's module
@@ -770,84 +795,21 @@ func moduleLabelSize(pl *Plan, f framed) (size float64, lines int) {
 	return 0, 0
 }
 
-// gridLabels numbers the rows beside each face's first column and the columns below its
-// eave row, for modules too small to carry their row.column.
-func gridLabels(pl *Plan, p *plot.Plot) {
-	type key struct {
-		face string
-		n    int
-	}
-	rowFirst, colFirst := map[key]int{}, map[key]int{}
-	rc := make([][2]int, len(pl.Modules))
-	var rows, cols []key
-	for i, m := range pl.Modules {
-		var r, c int
-		if _, err := fmt.Sscanf(m.Label(), "%d.%d", &r, &c); err != nil || m.Label() != fmt.Sprintf("%d.%d", r, c) {
-			continue // drawn by hand: no row and column
-		}
-		rc[i] = [2]int{r, c}
-		if j, ok := rowFirst[key{m.Face, r}]; !ok || c < rc[j][1] {
-			if !ok {
-				rows = append(rows, key{m.Face, r})
-			}
-			rowFirst[key{m.Face, r}] = i
-		}
-		if j, ok := colFirst[key{m.Face, c}]; !ok || r < rc[j][0] {
-			if !ok {
-				cols = append(cols, key{m.Face, c})
-			}
-			colFirst[key{m.Face, c}] = i
-		}
-	}
-	at := map[[3]string]int{}
-	for i, m := range pl.Modules {
-		if rc[i][0] > 0 {
-			at[[3]string{m.Face, fmt.Sprint(rc[i][0]), fmt.Sprint(rc[i][1])}] = i
-		}
-	}
-	// step is the centre-to-centre vector from module i to its neighbour dr rows and dc
-	// columns on (the module's own size when it has none).
-	step := func(i, dr, dc int) (float64, float64) {
-		m := pl.Modules[i]
-		x, y := centre(m.Corners)
-		if j, ok := at[[3]string{m.Face, fmt.Sprint(rc[i][0] + dr), fmt.Sprint(rc[i][1] + dc)}]; ok {
-			x2, y2 := centre(pl.Modules[j].Corners)
-			return x2 - x, y2 - y
-		}
-		w, h := extent(m.Corners[:])
-		if dc != 0 {
-			return w, 0
-		}
-		return 0, h
-	}
-	var xy plotter.XYs
-	var ls []string
-	for _, k := range rows {
-		i := rowFirst[k]
-		x, y := centre(pl.Modules[i].Corners)
-		dx, dy := step(i, 0, 1)
-		xy = append(xy, plotter.XY{X: x - 0.85*dx, Y: y - 0.85*dy})
-		ls = append(ls, fmt.Sprint(k.n))
-	}
-	for _, k := range cols {
-		i := colFirst[k]
-		x, y := centre(pl.Modules[i].Corners)
-		dx, dy := step(i, 1, 0)
-		xy = append(xy, plotter.XY{X: x - 0.8*dx, Y: y - 0.8*dy})
-		ls = append(ls, fmt.Sprint(k.n))
-	}
-	addLabels(p, xy, ls, 5, Ink, text.XCenter, text.YCenter)
-}
-
 // StringsChart draws the chosen layout on the roof: each string's modules in the string's
 // colour (StringColours), a line through them in wiring order and each module's position
 // along the string, the faces' ids and module ids, for a w×h picture. It is framed on the
 // roof; only obstacles standing on it are drawn.
 func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
+	p, _ := stringsChart(pl, w, h)
+	return p
+}
+
+// stringsChart is StringsChart, with where its names and numbers went.
+func stringsChart(pl *Plan, w, h vg.Length) (*plot.Plot, planLayout) {
 	p := plot.New()
-	f := planBase(pl, p, w, h, 0)
+	f, names := planBase(pl, p, w, h, 0)
 	// The wiring is on the roof: the drawing keeps to it (the plan shows what stands around).
-	styleTitle(p, "Strings of the chosen layout, in wiring order\n"+WiringCaution)
+	styleTitle(p, "")
 	// The wiring mark sits in each module's lower half and its id in the upper half, both
 	// sized to the module as drawn.
 	short, long := moduleSides(pl)
@@ -864,6 +826,7 @@ func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 	}
 	on := connected(pl)
 	unconnected := false
+	var wiring []*plotter.Labels // the positions along the strings, kept clear of
 	var ix plotter.XYs
 	var il []string
 	for i, m := range pl.Modules {
@@ -903,7 +866,9 @@ func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 		dots.GlyphStyle.Color = c
 		dots.GlyphStyle.Radius = radius
 		p.Add(dots)
-		addLabels(p, path, nums, math.Min(6, 1.15*float64(radius)), white, text.XCenter, text.YCenter)
+		if l := addLabels(p, path, nums, math.Min(6, 1.15*float64(radius)), white, text.XCenter, text.YCenter); l != nil {
+			wiring = append(wiring, l)
+		}
 		name := fmt.Sprintf("string %d: %s", k+1, Count(len(path), "module", "modules"))
 		if k < len(pl.Inputs) {
 			inv := 1
@@ -922,15 +887,28 @@ func StringsChart(pl *Plan, w, h vg.Length) *plot.Plot {
 		}
 		p.Legend.Add(name, ln)
 	}
-	if size, lines := moduleLabelSize(pl, f); lines > 0 {
-		addLabels(p, ix, il, math.Min(size, 5), Ink, text.XCenter, text.YCenter)
-	} else {
-		gridLabels(pl, p)
+	var fixed []*plotter.Labels
+	size, lines := moduleLabelSize(pl, f)
+	if lines > 0 {
+		if l := addLabels(p, ix, il, math.Min(size, 5), Ink, text.XCenter, text.YCenter); l != nil {
+			fixed = append(fixed, l)
+		}
 	}
-	faceLabels(pl, p)
+	fixed = append(fixed, wiring...)
 	obstacleLegend(pl, p, f, unconnected)
-	planFrame(p, f)
-	return p
+	fixed = append(fixed, planFrame(p, f)...)
+	grid := lines == 0 && len(pl.Modules) > 0
+	title := func(lay planLayout, keyLine bool) string {
+		t := "Strings of the chosen layout, in wiring order\n" + WiringCaution
+		if grid {
+			t += "\n" + gridNote(lay)
+		}
+		if keyLine {
+			t += "\n" + keyNote
+		}
+		return t
+	}
+	return p, finishPlan(p, w, h, pl, names, fixed, grid, title)
 }
 
 // moduleSides returns the first module's short and long side, metres.

@@ -317,11 +317,15 @@ var spacedShifts = []float64{0, 1, 2}
 // Plot draws the labels that find room, in their order.
 func (l *spacedLabels) Plot(c draw.Canvas, p *plot.Plot) {
 	trX, trY := p.Transforms(&c)
-	var taken []vg.Rectangle
+	// The chart's top and right edges bound the names; they start at a point inside the
+	// chart and run up from it, so the bottom never cuts them, and a name at the left edge
+	// may reach over the axis's margin.
+	far := vg.Length(math.Inf(1))
+	board := labelBoard{bounds: vg.Rectangle{Min: vg.Point{X: -far, Y: -far}, Max: c.Max}}
 	for _, o := range l.avoid {
 		for i, s := range o.Labels {
 			pt := vg.Point{X: trX(o.XYs[i].X), Y: trY(o.XYs[i].Y)}.Add(o.Offset)
-			taken = append(taken, o.TextStyle[i].Rectangle(s).Add(pt))
+			board.hard = append(board.hard, occupied{r: o.TextStyle[i].Rectangle(s).Add(pt)})
 		}
 	}
 	for i, s := range l.Labels.Labels {
@@ -331,20 +335,14 @@ func (l *spacedLabels) Plot(c draw.Canvas, p *plot.Plot) {
 		}
 		sty := l.TextStyle[i]
 		box := sty.Rectangle(s)
-		for _, k := range spacedShifts {
-			at := pt.Add(l.Offset).Add(vg.Point{Y: vg.Length(k) * box.Size().Y})
-			r := box.Add(at)
-			if !c.Contains(r.Max) || slices.ContainsFunc(taken, func(t vg.Rectangle) bool { return overlaps(t, r) }) {
-				continue
-			}
-			c.FillText(sty, at, s)
-			taken = append(taken, r)
-			break
+		at := make([]vg.Point, len(spacedShifts))
+		cands := make([]vg.Rectangle, len(spacedShifts))
+		for j, k := range spacedShifts {
+			at[j] = pt.Add(l.Offset).Add(vg.Point{Y: vg.Length(k) * box.Size().Y})
+			cands[j] = box.Add(at[j])
+		}
+		if j := board.place(cands, 0, true); j >= 0 {
+			c.FillText(sty, at[j], s)
 		}
 	}
-}
-
-// overlaps reports whether two rectangles share more than an edge.
-func overlaps(a, b vg.Rectangle) bool {
-	return a.Min.X < b.Max.X && b.Min.X < a.Max.X && a.Min.Y < b.Max.Y && b.Min.Y < a.Max.Y
 }
