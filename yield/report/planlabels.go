@@ -100,11 +100,11 @@ func (t *planTexts) Plot(c draw.Canvas, p *plot.Plot) {
 	for _, pt := range t.texts {
 		at := vg.Point{X: trX(pt.at.X), Y: trY(pt.at.Y)}.Add(pt.off)
 		if pt.back || pt.kind == numberText {
-			r := pt.sty.Rectangle(pt.text).Add(at)
-			if pt.kind == nameText || pt.kind == numberText {
+			r := grow(pt.sty.Rectangle(pt.text).Add(at), backPad)
+			if pt.kind == rowText || pt.kind == colText {
 				// Row and column numbers stand in a tight line: their box only hides the
-				// face's outline under them.
-				r = grow(r, backPad)
+				// face's outline under the digits.
+				r = digitBox(pt.sty, pt.text, at)
 			}
 			c.SetColor(backing)
 			c.Fill(r.Path())
@@ -220,7 +220,10 @@ func layoutPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed 
 		t.off = centre.Sub(pt(t.at.X, t.at.Y))
 		out.texts = append(out.texts, t)
 		r := t.sty.Rectangle(t.text).Add(centre)
-		if t.kind == nameText && t.back || t.kind == numberText {
+		switch {
+		case t.kind == rowText || t.kind == colText:
+			r = digitBox(t.sty, t.text, centre)
+		case t.kind == nameText && t.back || t.kind == numberText:
 			r = grow(r, backPad)
 		}
 		out.boxes = append(out.boxes, r)
@@ -437,7 +440,20 @@ var gridReach = []float64{0.85, 1, 1.15, 1.3, 1.5, 1.8}
 // box is the mark's text box at the r-th of gridReach, points.
 func (m gridMark) box(sty text.Style, pt func(x, y float64) vg.Point, r int) vg.Rectangle {
 	k := gridReach[r]
-	return sty.Rectangle(fmt.Sprint(m.n)).Add(pt(m.x-k*m.dx, m.y-k*m.dy))
+	return digitBox(sty, fmt.Sprint(m.n), pt(m.x-k*m.dx, m.y-k*m.dy))
+}
+
+// digitHeight is the height of a digit in Liberation Sans, in ems (from memory; about its
+// capital letters' height).
+const digitHeight = 0.72
+
+// digitBox is the ink of the digits s centred at c: from the baseline to the digits' top,
+// not the whole line a name needs with its descenders, so that the numbers of rows a
+// little more than a digit apart still fit beside them.
+func digitBox(sty text.Style, s string, c vg.Point) vg.Rectangle {
+	r := sty.Rectangle(s).Add(c)
+	base := r.Min.Y + sty.FontExtents().Descent
+	return vg.Rectangle{Min: vg.Point{X: r.Min.X, Y: base}, Max: vg.Point{X: r.Max.X, Y: base + vg.Length(digitHeight)*sty.Font.Size}}
 }
 
 // gridMark is a row or column number of a face: n at (x, y) less k steps of (dx, dy) (see

@@ -182,8 +182,8 @@ func TestPlanObstaclesIdentified(t *testing.T) {
 	}
 }
 
-// TestPlanGridNumbers: row and column numbers stand clear of each other and of every
-// module; where the columns crowd, the first, the last and every 5th are numbered and the
+// TestPlanGridNumbers: row and column numbers (their digits' ink, see digitBox) stand clear
+// of each other and of every module; where the columns crowd, the first, the last and every 5th are numbered and the
 // subtitle says so; with room, every row and column is numbered.
 func TestPlanGridNumbers(t *testing.T) {
 	for _, tc := range planCases {
