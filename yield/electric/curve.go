@@ -154,7 +154,8 @@ func ParallelSum(cs ...Curve) Curve {
 type merger struct {
 	k        []int
 	oi, ov   []float64
-	own, oth []float64 // one breakpoint's currents
+	own, oth []float64    // one breakpoint's currents
+	grids    [3][]float64 // parallelMaxFree's strings' grid, one per string for walk3
 }
 
 // parallel merges polylines (is[s], vs[s]) into the polyline of their parallel connection.
@@ -238,56 +239,65 @@ func sortedSum(xs []float64) float64 {
 // its last; see inside), then walk2. A sum of two terms is the same in either order;
 // three points at one voltage, which is rare, go through sortedSum.
 func (m *merger) parallel3(is, vs [][]float64) ([]float64, []float64) {
+	n := len(vs[0]) + len(vs[1]) + len(vs[2])
+	m.oi, m.ov = m.walk3(slices.Grow(m.oi[:0], n), slices.Grow(m.ov[:0], n), is, vs, [3]int{}, math.Inf(-1))
+	return m.oi, m.ov
+}
+
+// walk3 is parallel3's walk from the inputs' points k, appending to oi and ov; it ends after
+// the first point below the voltage stop (−Inf: the whole walk), as parallelMaxFree asks.
+func (m *merger) walk3(oi, ov []float64, is, vs [][]float64, k [3]int, stop float64) ([]float64, []float64) {
 	ia, ib, ic := is[0], is[1], is[2]
 	va, vb, vc := vs[0], vs[1], vs[2]
 	na, nb, nc := len(va), len(vb), len(vc)
-	oi, ov := slices.Grow(m.oi[:0], na+nb+nc), slices.Grow(m.ov[:0], na+nb+nc)
-	ka, kb, kc := 0, 0, 0
+	ka, kb, kc := k[0], k[1], k[2]
 	for ka < na && kb < nb && kc < nc {
 		xa, xb, xc := va[ka], vb[kb], vc[kc]
+		var x float64
 		switch {
 		case xa > xb && xa > xc:
 			oi = append(oi, ia[ka]+(inside(ib, vb, kb, xa)+inside(ic, vc, kc, xa)))
-			ov = append(ov, xa)
+			x = xa
 			ka++
 		case xb > xa && xb > xc:
 			oi = append(oi, ib[kb]+(inside(ia, va, ka, xb)+inside(ic, vc, kc, xb)))
-			ov = append(ov, xb)
+			x = xb
 			kb++
 		case xc > xa && xc > xb:
 			oi = append(oi, ic[kc]+(inside(ia, va, ka, xc)+inside(ib, vb, kb, xc)))
-			ov = append(ov, xc)
+			x = xc
 			kc++
 		case xa == xb && xa > xc:
 			oi = append(oi, (ia[ka]+ib[kb])+inside(ic, vc, kc, xa))
-			ov = append(ov, xa)
+			x = xa
 			ka, kb = ka+1, kb+1
 		case xa == xc && xa > xb:
 			oi = append(oi, (ia[ka]+ic[kc])+inside(ib, vb, kb, xa))
-			ov = append(ov, xa)
+			x = xa
 			ka, kc = ka+1, kc+1
 		case xb == xc && xb > xa:
 			oi = append(oi, (ib[kb]+ic[kc])+inside(ia, va, ka, xb))
-			ov = append(ov, xb)
+			x = xb
 			kb, kc = kb+1, kc+1
 		default: // all three at one voltage
 			m.own = append(m.own[:0], ia[ka], ib[kb], ic[kc])
 			oi = append(oi, sortedSum(m.own))
-			ov = append(ov, xa)
+			x = xa
 			ka, kb, kc = ka+1, kb+1, kc+1
+		}
+		ov = append(ov, x)
+		if x < stop {
+			return oi, ov
 		}
 	}
 	// One input is used up: the other two finish the walk with its last current.
 	switch {
 	case kc == nc:
-		oi, ov = walk2(oi, ov, ia, va, ka, ib, vb, kb, ic[nc-1], math.Inf(-1))
+		return walk2(oi, ov, ia, va, ka, ib, vb, kb, ic[nc-1], stop)
 	case kb == nb:
-		oi, ov = walk2(oi, ov, ia, va, ka, ic, vc, kc, ib[nb-1], math.Inf(-1))
-	default:
-		oi, ov = walk2(oi, ov, ib, vb, kb, ic, vc, kc, ia[na-1], math.Inf(-1))
+		return walk2(oi, ov, ia, va, ka, ic, vc, kc, ib[nb-1], stop)
 	}
-	m.oi, m.ov = oi, ov
-	return oi, ov
+	return walk2(oi, ov, ib, vb, kb, ic, vc, kc, ia[na-1], stop)
 }
 
 // walk2 walks inputs a and b from their points ka and kb, adding cst to the other input's
@@ -356,114 +366,136 @@ func (m *merger) parallel2(ia, va, ib, vb []float64) ([]float64, []float64) {
 // bounds are sums and products of a few terms, each rounded to within 1e-16 relative.
 const pruneMargin = 1e-9
 
-// parallel2MaxFree returns polyMaxFree of the polyline of two strings in parallel on one
-// current grid gi (voltages va and vb, non-increasing with current; the two-input walk of
-// parallel2) to the bit, and true; false when it leaves the question to the whole walk.
+// parallelMaxFree returns polyMaxFree of the polyline of two or three strings in parallel on
+// one current grid gi (voltages vs[s], non-increasing with current; the walk of parallel) to
+// the bit, and true; false when it leaves the question to the whole walk.
 //
 // Most of the polyline cannot hold the maximum, and is not walked. The merged curve has a
-// point at each string's best grid point; the better of their powers, computed as the walk
-// would, bounds the answer from below (cand). Let M_j = max(va[j], vb[j]), a point's voltage: at a voltage
-// of at least M_j each string carries at most gi[j]. Every merged point above M_j and below
-// M_(j−1) carries at most 2·gi[j], and the segment from it to the next point at most
-// 2·gi[j+1]: below cand up to the first j where M_(j−1)·2·gi[j+1] reaches it, the walk starts
-// there (at M_k, the state of the whole walk once every point above it is out). Below a
-// voltage V, power is at most V·2·gi[last]: the walk stops after its first point below
-// cand/(2·gi[last]). polyMaxFree skips a segment whose corner power is at most its best so
+// point at each string's best grid point; the best of their powers, less pruneMargin, bounds
+// the answer from below (lb). Let M_j be the highest of the strings' voltages at grid point j:
+// at a voltage of at least M_j each of the S strings carries at most gi[j]. Every merged point
+// above M_j and below M_(j−1) carries at most S·gi[j], and the segment from it to the next
+// point at most S·gi[j+1]: below lb up to the first j where M_(j−1)·S·gi[j+1] reaches it, the
+// walk starts there (at M_k, the state of the whole walk once every point above it is out).
+// Below a voltage V, power is at most V·S·gi[last]: the walk stops after its first point
+// below lb/(S·gi[last]). polyMaxFree skips a segment whose corner power is at most its best so
 // far and takes a point or segment only if it beats it, so leaving out points and segments
-// whose bound is below cand changes neither its answer nor which of equal candidates it
+// whose bound is below lb changes neither its answer nor which of equal candidates it
 // returns. The bounds carry pruneMargin against rounding.
-func (m *merger) parallel2MaxFree(gi, va, vb []float64) (pW, vV, iA float64, ok bool) {
-	n := len(gi)
-	if n < 2 || len(va) != n || len(vb) != n {
+func (m *merger) parallelMaxFree(gi []float64, vs [][]float64) (pW, vV, iA float64, ok bool) {
+	n, ns := len(gi), len(vs)
+	if n < 2 || ns < 2 || ns > 3 {
 		return 0, 0, 0, false
 	}
-	ba, bb, mono := bestPoints(gi, va, vb)
-	if !mono {
-		return 0, 0, 0, false
+	for _, v := range vs {
+		if len(v) != n || !nonIncreasing(v) {
+			return 0, 0, 0, false
+		}
 	}
-	cand := max(mergedAt(gi, va, ba, vb), mergedAt(gi, vb, bb, va))
+	// One string's best point: the strings of an input are lit much alike, and a looser
+	// bound only walks a little more.
+	cand := mergedAt(gi, vs, 0, bestPoint(gi, vs[0]))
 	if !(cand > 0) || !(gi[n-1] > 0) {
 		return 0, 0, 0, false
 	}
 	lb := cand * (1 - pruneMargin)
-	hi := lb / (2 * (1 + pruneMargin)) // bound on M_(j−1)·gi[j+1]
-	k, mPrev := -1, max(va[0], vb[0])
+	scale := float64(ns) * (1 + pruneMargin)
+	va, vb, vc := vs[0], vs[1], vs[1] // a third string's voltages, or the second's again
+	if ns == 3 {
+		vc = vs[2]
+	}
+	hi := lb / scale // bound on M_(j−1)·gi[j+1]
+	k, mPrev := -1, max(va[0], vb[0], vc[0])
 	for j := 0; j+1 < n && mPrev*gi[j+1] < hi; j++ {
-		k, mPrev = j, max(va[j], vb[j])
+		k, mPrev = j, max(va[j], vb[j], vc[j])
 	}
-	ka, kb := 0, 0
+	var ks [3]int
 	if k >= 0 {
-		vs := max(va[k], vb[k])
-		ka, kb = k, k
-		for ka > 0 && va[ka-1] <= vs {
-			ka--
-		}
-		for kb > 0 && vb[kb-1] <= vs {
-			kb--
+		vt := max(va[k], vb[k], vc[k])
+		for s, v := range vs {
+			ks[s] = k
+			for ks[s] > 0 && v[ks[s]-1] <= vt {
+				ks[s]--
+			}
 		}
 	}
-	stop := lb / (2 * gi[n-1] * (1 + pruneMargin))
-	m.oi, m.ov = walk2(slices.Grow(m.oi[:0], 2*n), slices.Grow(m.ov[:0], 2*n), gi, va, ka, gi, vb, kb, 0, stop)
-	if len(m.oi) < 2 {
+	stop := lb / (scale * gi[n-1])
+	oi, ov := slices.Grow(m.oi[:0], ns*n), slices.Grow(m.ov[:0], ns*n)
+	if ns == 2 {
+		oi, ov = walk2(oi, ov, gi, va, ks[0], gi, vb, ks[1], 0, stop)
+	} else {
+		m.grids = [3][]float64{gi, gi, gi}
+		oi, ov = m.walk3(oi, ov, m.grids[:], vs, ks, stop)
+	}
+	m.oi, m.ov = oi, ov
+	if len(oi) < 2 {
 		return 0, 0, 0, false
 	}
-	pW, vV, iA = polyMaxFree(m.oi, m.ov)
+	pW, vV, iA = polyMaxFree(oi, ov)
 	return pW, vV, iA, true
 }
 
-// bestPoints returns the index of each string's grid point of most power (first of equals;
-// −1 when none has positive current and power), and whether both strings' voltages are
-// non-increasing, as the walk's state and parallel2MaxFree's bounds assume.
-func bestPoints(gi, va, vb []float64) (ba, bb int, mono bool) {
-	n := len(gi)
-	va, vb = va[:n], vb[:n]
-	ba, bb, mono = -1, -1, true
-	var pa, pb float64
-	prevA, prevB := va[0], vb[0]
+// bestPoint returns the index of the grid point of most power (first of equals; −1 when none
+// has positive current and power).
+func bestPoint(gi, v []float64) int {
+	v = v[:len(gi)]
+	best, bp := -1, 0.0
 	for k, i := range gi {
-		a, b := va[k], vb[k]
-		if a > prevA || b > prevB {
-			mono = false
-		}
-		prevA, prevB = a, b
 		// With i > 0, a power above the best so far (at least 0) has a positive voltage.
-		if i > 0 {
-			if p := i * a; p > pa {
-				ba, pa = k, p
-			}
-			if p := i * b; p > pb {
-				bb, pb = k, p
-			}
+		if p := i * v[k]; i > 0 && p > bp {
+			best, bp = k, p
 		}
 	}
-	return ba, bb, mono
+	return best
 }
 
-// mergedAt returns the power of the merged point at voltage va[k] of strings a and b on grid
-// gi (a's point k, as walk2 computes it from the state where it is next), or 0 when k < 0 or
-// that voltage is not positive.
-func mergedAt(gi, va []float64, k int, vb []float64) float64 {
-	if k < 0 || !(va[k] > 0) {
-		return 0
-	}
-	x := va[k]
-	// j: the number of b's points above x (vb non-increasing), b's next point in the walk.
-	lo, hi := 0, len(vb)
-	for lo < hi {
-		mid := int(uint(lo+hi) >> 1)
-		if vb[mid] > x {
-			lo = mid + 1
-		} else {
-			hi = mid
+// nonIncreasing reports whether v never rises, as the walk's state and parallelMaxFree's
+// bounds assume (a string's voltage falls with current).
+func nonIncreasing(v []float64) bool {
+	for k := 1; k < len(v); k++ {
+		if v[k] > v[k-1] {
+			return false
 		}
 	}
-	switch {
-	case lo == len(vb):
-		return (gi[k] + gi[lo-1]) * x
-	case vb[lo] == x:
-		return (gi[k] + gi[lo]) * x
+	return true
+}
+
+// mergedAt returns a lower bound of the power of the merged point at voltage vs[s][k], string
+// s's point k, of the strings vs on grid gi (each other string's current there as the walk
+// interpolates it; the sum in another order than the walk's, so within rounding), or 0 when
+// k < 0, that voltage is not positive or a string has no point above it.
+func mergedAt(gi []float64, vs [][]float64, s, k int) float64 {
+	if k < 0 || !(vs[s][k] > 0) {
+		return 0
 	}
-	return (gi[k] + inside(gi, vb, lo, x)) * x
+	x := vs[s][k]
+	cur := gi[k]
+	for r, v := range vs {
+		if r == s {
+			continue
+		}
+		// j: the number of r's points above x (v non-increasing), r's next point in the walk.
+		lo, hi := 0, len(v)
+		for lo < hi {
+			mid := int(uint(lo+hi) >> 1)
+			if v[mid] > x {
+				lo = mid + 1
+			} else {
+				hi = mid
+			}
+		}
+		switch {
+		case lo == 0:
+			return 0
+		case lo == len(v):
+			cur += gi[lo-1]
+		case v[lo] == x:
+			cur += gi[lo]
+		default:
+			cur += inside(gi, v, lo, x)
+		}
+	}
+	return cur * x
 }
 
 // currentOn returns the current of polyline (is, vs) at voltage v, where k is

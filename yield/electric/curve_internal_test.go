@@ -262,16 +262,20 @@ func TestPolyMaxFreeAsBounded(t *testing.T) {
 	}
 }
 
-// parallel2MaxFree gives the maximum of the whole two-string walk to the bit (power, voltage
-// and current), walking only part of it: on strings of a shaded year, whose inputs are what
-// the evaluation hands it, and on random polylines on one grid with flat parts, equal
-// voltages in both strings, reverse current at the start and bypassed tails.
-func TestParallel2MaxFreeAsWhole(t *testing.T) {
-	check := func(t *testing.T, what string, gi, va, vb []float64) (pruned, walked, whole int) {
+// parallelMaxFree gives the maximum of the whole walk of two or three strings to the bit
+// (power, voltage and current), walking only part of it: on strings of a shaded year, whose
+// inputs are what the evaluation hands it, and on random polylines on one grid with flat
+// parts, equal voltages in several strings, reverse current at the start and bypassed tails.
+func TestParallelMaxFreeAsWhole(t *testing.T) {
+	check := func(t *testing.T, what string, gi []float64, vs [][]float64) (pruned, walked, whole int) {
 		t.Helper()
 		var mp, mw merger
-		p, v, i, ok := mp.parallel2MaxFree(gi, va, vb)
-		oi, ov := mw.parallel2(gi, va, gi, vb)
+		p, v, i, ok := mp.parallelMaxFree(gi, vs)
+		is := make([][]float64, len(vs))
+		for s := range is {
+			is[s] = gi
+		}
+		oi, ov := mw.parallel(is, vs)
 		wp, wv, wi := polyMaxFree(oi, ov)
 		if !ok {
 			return 0, 0, len(oi)
@@ -281,110 +285,134 @@ func TestParallel2MaxFreeAsWhole(t *testing.T) {
 		}
 		return 1, len(mp.oi), len(oi)
 	}
-	t.Run("shaded year", func(t *testing.T) {
-		_, y := testYear120(t, 600, 0.6, 21)
-		rng := rand.New(rand.NewPCG(8, 9))
-		var sc evalScratch
-		var pruned, walked, whole, lit int
-		for s := range y.steps {
-			sc.gi = y.grid(s)
-			for range 4 {
-				mods := rng.Perm(y.n)
-				in := [][]int{mods[:20], mods[20:40]}
-				ns, same := y.stringSums(&sc, s, in, nil)
-				if ns != 2 || same {
-					continue
-				}
-				if p, _, _ := polyMaxFree(sc.gi, sc.sums[0]); p > 0 {
-					lit++
-				}
-				pr, w, wh := check(t, fmt.Sprintf("step %d", s), sc.gi, sc.sums[0], sc.sums[1])
-				pruned, walked, whole = pruned+pr, walked+w*pr, whole+wh*pr
-			}
-		}
-		// The point of it: nearly every input with power is answered from part of its walk.
-		if pruned < lit*9/10 || walked*2 > whole {
-			t.Errorf("%d of %d inputs with power pruned, walking %d of %d points", pruned, lit, walked, whole)
-		}
-		t.Logf("%d of %d inputs with power pruned, walking %d of %d points", pruned, lit, walked, whole)
-	})
-	t.Run("random polylines", func(t *testing.T) {
-		rng := rand.New(rand.NewPCG(4, 4))
-		pruned := 0
-		const trials = 3000
-		for trial := range trials {
-			n := 2 + rng.IntN(120)
-			gi := make([]float64, n)
-			x := -0.6 * rng.Float64()
-			for k := range gi {
-				gi[k] = x
-				x += 0.01 + 0.3*rng.Float64()
-			}
-			string := func(top float64) []float64 {
-				vs := make([]float64, n)
-				v := top
-				for k := range vs {
-					vs[k] = v
-					if trial%4 != 0 || rng.IntN(3) != 0 { // flat parts in a quarter of the trials
-						v -= 15 * rng.Float64() * float64(k+1) / float64(n)
+	for _, strs := range []int{2, 3} {
+		t.Run(fmt.Sprintf("shaded year/strings=%d", strs), func(t *testing.T) {
+			_, y := testYear120(t, 600, 0.6, 21)
+			rng := rand.New(rand.NewPCG(8, 9))
+			var sc evalScratch
+			var pruned, walked, whole, lit int
+			for s := range y.steps {
+				sc.gi = y.grid(s)
+				for range 4 {
+					mods := rng.Perm(y.n)
+					var in [][]int
+					for b := range strs {
+						in = append(in, mods[20*b:20*b+20])
 					}
-					v = math.Max(v, -2) // a bypassed tail
+					ns, same := y.stringSums(&sc, s, in, nil)
+					if ns != strs || same {
+						continue
+					}
+					if p, _, _ := polyMaxFree(sc.gi, sc.sums[0]); p > 0 {
+						lit++
+					}
+					pr, w, wh := check(t, fmt.Sprintf("step %d", s), sc.gi, sc.sums[:ns])
+					pruned, walked, whole = pruned+pr, walked+w*pr, whole+wh*pr
 				}
-				return vs
 			}
-			va, vb := string(400+300*rng.Float64()), string(400+300*rng.Float64())
-			if trial%5 == 0 { // equal voltages in both strings
-				for k := range vb {
-					if rng.IntN(2) == 0 {
-						vb[k] = va[k]
+			// The point of it: nearly every input with power is answered from part of its walk.
+			if pruned < lit*9/10 || walked*2 > whole {
+				t.Errorf("%d of %d inputs with power pruned, walking %d of %d points", pruned, lit, walked, whole)
+			}
+			t.Logf("%d of %d inputs with power pruned, walking %d of %d points", pruned, lit, walked, whole)
+		})
+		t.Run(fmt.Sprintf("random polylines/strings=%d", strs), func(t *testing.T) {
+			rng := rand.New(rand.NewPCG(4, uint64(strs)))
+			pruned := 0
+			const trials = 3000
+			for trial := range trials {
+				n := 2 + rng.IntN(120)
+				gi := make([]float64, n)
+				x := -0.6 * rng.Float64()
+				for k := range gi {
+					gi[k] = x
+					x += 0.01 + 0.3*rng.Float64()
+				}
+				string := func(top float64) []float64 {
+					vs := make([]float64, n)
+					v := top
+					for k := range vs {
+						vs[k] = v
+						if trial%4 != 0 || rng.IntN(3) != 0 { // flat parts in a quarter of the trials
+							v -= 15 * rng.Float64() * float64(k+1) / float64(n)
+						}
+						v = math.Max(v, -2) // a bypassed tail
+					}
+					return vs
+				}
+				var vs [][]float64
+				for range strs {
+					vs = append(vs, string(400+300*rng.Float64()))
+				}
+				if trial%5 == 0 { // equal voltages in several strings
+					for _, v := range vs[1:] {
+						for k := range v {
+							if rng.IntN(2) == 0 {
+								v[k] = vs[0][k]
+							}
+						}
+						slices.SortFunc(v, func(x, y float64) int { return -cmpF(x, y) })
 					}
 				}
-				slices.SortFunc(vb, func(x, y float64) int { return -cmpF(x, y) })
+				pr, _, _ := check(t, fmt.Sprintf("trial %d", trial), gi, vs)
+				pruned += pr
 			}
-			pr, _, _ := check(t, fmt.Sprintf("trial %d", trial), gi, va, vb)
-			pruned += pr
-		}
-		if pruned < trials/2 {
-			t.Errorf("only %d of %d trials pruned", pruned, trials)
-		}
-	})
+			if pruned < trials/2 {
+				t.Errorf("only %d of %d trials pruned", pruned, trials)
+			}
+		})
+	}
 	t.Run("not monotone", func(t *testing.T) {
 		gi := []float64{0, 1, 2, 3}
 		va, vb := []float64{40, 39, 39.5, 30}, []float64{41, 38, 35, 30}
-		if _, _, _, ok := (&merger{}).parallel2MaxFree(gi, va, vb); ok {
+		if _, _, _, ok := (&merger{}).parallelMaxFree(gi, [][]float64{va, vb}); ok {
 			t.Error("a string whose voltage rises with current was pruned")
 		}
 	})
 }
 
-// BenchmarkParallel2Max finds the maximum of two strings of 20 modules in parallel, on the
-// steps of a shaded year: the whole walk and polyMaxFree against parallel2MaxFree.
-func BenchmarkParallel2Max(b *testing.B) {
+// BenchmarkParallelMax finds the maximum of two and of three strings of 20 modules in parallel,
+// on the steps of a shaded year: the whole walk and polyMaxFree against parallelMaxFree.
+func BenchmarkParallelMax(b *testing.B) {
 	_, y := testYear120(b, 200, 0.6, 21)
-	var sc evalScratch
-	type pair struct{ gi, va, vb []float64 }
-	var pairs []pair
-	for s := range y.steps {
-		sc.gi = y.grid(s)
-		if ns, same := y.stringSums(&sc, s, [][]int{modRange(0, 20), modRange(20, 40)}, nil); ns == 2 && !same {
-			pairs = append(pairs, pair{sc.gi, slices.Clone(sc.sums[0]), slices.Clone(sc.sums[1])})
+	for _, strs := range []int{2, 3} {
+		var sc evalScratch
+		var inputs [][][]float64
+		var grids [][]float64
+		var in [][]int
+		for k := range strs {
+			in = append(in, modRange(20*k, 20*k+20))
 		}
+		for s := range y.steps {
+			sc.gi = y.grid(s)
+			if ns, same := y.stringSums(&sc, s, in, nil); ns == strs && !same {
+				var vs [][]float64
+				for _, v := range sc.sums[:ns] {
+					vs = append(vs, slices.Clone(v))
+				}
+				inputs, grids = append(inputs, vs), append(grids, sc.gi)
+			}
+		}
+		var m merger
+		b.Run(fmt.Sprintf("strings=%d/walk=whole", strs), func(b *testing.B) {
+			is := make([][]float64, strs)
+			for b.Loop() {
+				for j, vs := range inputs {
+					for s := range is {
+						is[s] = grids[j]
+					}
+					polyMaxFree(m.parallel(is, vs))
+				}
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(inputs)), "ns/input")
+		})
+		b.Run(fmt.Sprintf("strings=%d/walk=pruned", strs), func(b *testing.B) {
+			for b.Loop() {
+				for j, vs := range inputs {
+					m.parallelMaxFree(grids[j], vs)
+				}
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(inputs)), "ns/input")
+		})
 	}
-	var m merger
-	b.Run("walk=whole", func(b *testing.B) {
-		for b.Loop() {
-			for _, p := range pairs {
-				polyMaxFree(m.parallel2(p.gi, p.va, p.gi, p.vb))
-			}
-		}
-		b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(pairs)), "ns/input")
-	})
-	b.Run("walk=pruned", func(b *testing.B) {
-		for b.Loop() {
-			for _, p := range pairs {
-				m.parallel2MaxFree(p.gi, p.va, p.vb)
-			}
-		}
-		b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(pairs)), "ns/input")
-	})
 }

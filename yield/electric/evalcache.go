@@ -407,11 +407,11 @@ func (y *Year) stepParts(jobs []inputJob, pts []*inputYear, inv Inverter, opt Ev
 			var is, vs []float64
 			var pG, vG, iG float64
 			pruned := false
-			if ns == 2 && !same && opt.Tracker == GlobalMPP {
-				// Two strings, the usual input: the maximum from the part of their merged
-				// curve that can hold it. The window and the current limit, when they act,
-				// need the whole curve.
-				pG, vG, iG, pruned = sc.m.parallel2MaxFree(sc.gi, sc.sums[0], sc.sums[1])
+			if (ns == 2 || ns == 3) && !same && opt.Tracker == GlobalMPP {
+				// Two or three strings, the usual inputs: the maximum from the part of their
+				// merged curve that can hold it. The window and the current limit, when they
+				// act, need the whole curve.
+				pG, vG, iG, pruned = sc.m.parallelMaxFree(sc.gi, sc.sums[:ns])
 				pruned = pruned && vG >= vmin && vG <= vmax && iG <= imax
 			}
 			if !pruned {
