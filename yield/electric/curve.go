@@ -306,7 +306,7 @@ func (m *merger) walk3(oi, ov []float64, is, vs [][]float64, k [3]int, stop floa
 // sum of two terms is the same in either order). While both have points left, the other
 // input's next point is not past its last (see inside); once one is used up, the other's
 // points see its last current. The walk ends after the first point below the voltage stop
-// (−Inf: the whole walk), as parallel2MaxFree asks.
+// (−Inf: the whole walk), as parallelMaxFree asks.
 func walk2(oi, ov, ia, va []float64, ka int, ib, vb []float64, kb int, cst, stop float64) ([]float64, []float64) {
 	na, nb := len(va), len(vb)
 	for ka < na && kb < nb {
@@ -362,7 +362,7 @@ func (m *merger) parallel2(ia, va, ib, vb []float64) ([]float64, []float64) {
 	return m.oi, m.ov
 }
 
-// pruneMargin widens parallel2MaxFree's bounds against rounding: the currents and powers it
+// pruneMargin widens parallelMaxFree's bounds against rounding: the currents and powers it
 // bounds are sums and products of a few terms, each rounded to within 1e-16 relative.
 const pruneMargin = 1e-9
 
@@ -371,8 +371,8 @@ const pruneMargin = 1e-9
 // the bit, and true; false when it leaves the question to the whole walk.
 //
 // Most of the polyline cannot hold the maximum, and is not walked. The merged curve has a
-// point at each string's best grid point; the best of their powers, less pruneMargin, bounds
-// the answer from below (lb). Let M_j be the highest of the strings' voltages at grid point j:
+// point at the first string's best grid point; its power, less pruneMargin, bounds the answer
+// from below (lb). Let M_j be the highest of the strings' voltages at grid point j:
 // at a voltage of at least M_j each of the S strings carries at most gi[j]. Every merged point
 // above M_j and below M_(j−1) carries at most S·gi[j], and the segment from it to the next
 // point at most S·gi[j+1]: below lb up to the first j where M_(j−1)·S·gi[j+1] reaches it, the
