@@ -510,7 +510,7 @@ type stringYear struct {
 // nominalBytes is what a kept string costs besides its voltages.
 const nominalBytes = 256
 
-// stringRecipe is how inputCurve reads a string at a step: a year of voltages (v), plus
+// stringRecipe is how stringSums reads a string at a step: a year of voltages (v), plus
 // module add and less module sub (−1: none); a nil v: add the string up, or read it from near
 // where that is cheaper.
 type stringRecipe struct {

@@ -921,18 +921,11 @@ func (y *Year) EvaluateCached(l Layout, inv Inverter, opt EvalOptions, c *EvalCa
 	return res, nil
 }
 
-// inputCurve returns the polyline (current, voltage) of the strings of one input in parallel
-// at step s. A string with a recipe (strs[b], see stringYear) is read from a kept year of
-// voltages, plus and less a module; any other is added up here, modules sharing a curve as
-// count × curve. Identical strings in parallel scale the current.
-func (y *Year) inputCurve(sc *evalScratch, s int, in [][]int, strs []stringRecipe) ([]float64, []float64) {
-	ns, same := y.stringSums(sc, s, in, strs)
-	return sc.inputPolyline(ns, same)
-}
-
 // stringSums puts the voltages of the strings of one input at step s, on the step's grid
-// sc.gi, into sc.sums[:ns] (see inputCurve), and reports whether they are all the same; then
-// only sc.sums[0] is set.
+// sc.gi, into sc.sums[:ns], and reports whether they are all the same; then only sc.sums[0]
+// is set. A string with a recipe (strs[b], see stringYear) is read from a kept year of
+// voltages, plus and less a module; any other is added up here, modules sharing a curve as
+// count × curve.
 func (y *Year) stringSums(sc *evalScratch, s int, in [][]int, strs []stringRecipe) (ns int, same bool) {
 	ns = len(in)
 	for len(sc.pairs) < ns {
@@ -993,7 +986,8 @@ func (y *Year) stringSums(sc *evalScratch, s int, in [][]int, strs []stringRecip
 	return ns, same
 }
 
-// inputPolyline returns the polyline of the strings stringSums put in sc in parallel.
+// inputPolyline returns the polyline (current, voltage) of the strings stringSums put in sc in
+// parallel. Identical strings in parallel scale the current.
 func (sc *evalScratch) inputPolyline(ns int, same bool) ([]float64, []float64) {
 	if same {
 		if ns == 1 {
