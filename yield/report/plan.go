@@ -741,7 +741,7 @@ func finishPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed 
 	}
 	p.Title.Text = title(lay, keyLine)
 	p.Add(&planTexts{texts: lay.texts})
-	addKey(p, lay.keyed)
+	addKey(p, lay.keyed, w, h)
 	return lay
 }
 

@@ -59,6 +59,7 @@ type placedText struct {
 	at   plotter.XY // the data point it was placed from
 	off  vg.Point   // its centre's offset from at, points
 	back bool       // drawn on a light backing box, so that it reads over modules
+	lead bool       // joined to at by a thin line (a number placed away from its object)
 }
 
 // planLayout is where the plan's names and numbers go on a w×h picture.
@@ -97,6 +98,13 @@ type planTexts struct{ texts []placedText }
 // Plot implements plot.Plotter.
 func (t *planTexts) Plot(c draw.Canvas, p *plot.Plot) {
 	trX, trY := p.Transforms(&c)
+	// The lines first, so that every box and text covers them.
+	for _, pt := range t.texts {
+		if pt.lead {
+			a := vg.Point{X: trX(pt.at.X), Y: trY(pt.at.Y)}
+			c.StrokeLine2(draw.LineStyle{Color: Ink, Width: vg.Points(0.5)}, a.X, a.Y, a.X+pt.off.X, a.Y+pt.off.Y)
+		}
+	}
 	for _, pt := range t.texts {
 		at := vg.Point{X: trX(pt.at.X), Y: trY(pt.at.Y)}.Add(pt.off)
 		if pt.back || pt.kind == numberText {
@@ -133,15 +141,39 @@ func (k keyThumb) Thumbnail(c *draw.Canvas) {
 // keyHeading heads the key of numbered objects in the legend.
 const keyHeading = "numbered on the plan"
 
-// addKey lists the numbered objects in the legend.
-func addKey(p *plot.Plot, keyed []string) {
+// addKey lists the numbered objects in the legend, one a line with its number boxed as on
+// the plan; where that would run the legend past the bottom of the drawing (a w×h picture),
+// several a line, "1 vent-2  2 vent-4", as many as the legend's width holds.
+func addKey(p *plot.Plot, keyed []string, w, h vg.Length) {
 	if len(keyed) == 0 {
 		return
 	}
+	c := p.DataCanvas(draw.NewCanvas(&recorder.Canvas{}, w, h))
+	rowH := p.Legend.TextStyle.Rectangle("X").Size().Y + p.Legend.Padding
+	used := p.Legend.Rectangle(c).Size()
+	// The north arrow and the scale bar keep the drawing's bottom sixth (see planFrame).
+	rows := int((c.Size().Y*5/6 - used.Y) / rowH)
 	p.Legend.Add(keyHeading)
-	for k, id := range keyed {
-		p.Legend.Add(Printable(id), keyThumb{fmt.Sprint(k + 1)})
+	if len(keyed) < rows {
+		for k, id := range keyed {
+			p.Legend.Add(Printable(id), keyThumb{fmt.Sprint(k + 1)})
+		}
+		return
 	}
+	width := max(used.X, vg.Length(legendFrac)*c.Size().X) - p.Legend.ThumbnailWidth
+	line := ""
+	for k, id := range keyed {
+		e := fmt.Sprintf("%d %s", k+1, Printable(id))
+		if line != "" && p.Legend.TextStyle.Width(line+"   "+e) > width {
+			p.Legend.Add(line)
+			line = ""
+		}
+		if line != "" {
+			line += "   "
+		}
+		line += e
+	}
+	p.Legend.Add(line)
 }
 
 // layoutPlan places the plan's names and numbers on a w×h picture of p, which must hold
@@ -388,12 +420,25 @@ func layoutPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed 
 				j++
 			}
 		}
+		lead := false
+		if j < 0 {
+			// A crowd: farther out, with a line to the object, so that it is not read as a
+			// neighbour's.
+			far := around(o, nbox.Size(), board.gap+3*nbox.Size().Y, false, leadRings)
+			fc := make([]vg.Rectangle, len(far))
+			for k, c := range far {
+				fc[k] = nbox.Add(c)
+			}
+			if k := board.place(fc, i+1, false); k >= 0 {
+				centres, j, lead = far, k, true
+			}
+		}
 		if j < 0 {
 			// Nowhere clear: on the object all the same, so that every object is identified.
 			j = 0
 			board.hard = append(board.hard, occupied{r: cands[0]})
 		}
-		add(placedText{kind: numberText, id: n.id, text: num, sty: nsty, at: anchor}, centres[j])
+		add(placedText{kind: numberText, id: n.id, text: num, sty: nsty, at: anchor, lead: lead}, centres[j])
 	}
 	return out
 }
@@ -404,6 +449,10 @@ func distTo(r vg.Rectangle, p vg.Point) vg.Length {
 	dy := max(r.Min.Y-p.Y, 0, p.Y-r.Max.Y)
 	return vg.Length(math.Hypot(float64(dx), float64(dy)))
 }
+
+// leadRings is how many rings beyond the first three a number is tried in, with a line to
+// its object.
+const leadRings = 6
 
 // nameRings is how many rings around its object a name is tried in: farther out, a name on
 // a crowded roof could be read as another object's.

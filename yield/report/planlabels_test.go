@@ -318,3 +318,90 @@ func TestPlanNamesDrawnLast(t *testing.T) {
 		})
 	}
 }
+
+// randomRoof is a seeded roof of one rectangular face with up to n blocks of up to 2 m
+// scattered over it, apart but some within a few centimetres of each other (a block that
+// would overlap one placed before is left out), modules around them and a few trees nearby.
+func randomRoof(seed uint64, n int) *Plan {
+	rng := rand.New(rand.NewPCG(seed, 3))
+	wM, hM := 8+rng.Float64()*40, 6+rng.Float64()*30
+	pl := &Plan{Faces: []Shape{{ID: "roof", Ring: [][2]float64{{0, 0}, {wM, 0}, {wM, hM}, {0, hM}, {0, 0}}}}}
+	type box struct{ x0, y0, x1, y1 float64 }
+	var bs []box
+	for i := range n {
+		w, h := 0.3+1.7*rng.Float64(), 0.3+1.7*rng.Float64()
+		x, y := rng.Float64()*(wM-w), rng.Float64()*(hM-h)
+		apart := true
+		for _, b := range bs {
+			apart = apart && (x+w < b.x0 || x > b.x1 || y+h < b.y0 || y > b.y1)
+		}
+		if !apart {
+			continue
+		}
+		bs = append(bs, box{x, y, x + w, y + h})
+		pl.Blocks = append(pl.Blocks, Shape{ID: fmt.Sprintf("block-%d", i+1),
+			Ring: [][2]float64{{x, y}, {x + w, y}, {x + w, y + h}, {x, y + h}, {x, y}}})
+	}
+	for r := 0; 0.3+float64(r+1)*1.75 < hM; r++ {
+		c := 0
+		for k := 0; 0.3+float64(k+1)*1.15 < wM; k++ {
+			x, y := 0.3+float64(k)*1.15, 0.3+float64(r)*1.75
+			free := true
+			for _, b := range bs {
+				free = free && (x+1.1 < b.x0-0.3 || x > b.x1+0.3 || y+1.7 < b.y0-0.3 || y > b.y1+0.3)
+			}
+			if free {
+				c++
+				pl.Modules = append(pl.Modules, PlanModule{ID: fmt.Sprintf("roof.%d.%d", r+1, c), Face: "roof",
+					Corners:       [4][2]float64{{x, y}, {x + 1.1, y}, {x + 1.1, y + 1.7}, {x, y + 1.7}},
+					UnshadedKWhM2: 1200, SunKWhM2: 1200 * (1 - 0.1*rng.Float64())})
+			}
+		}
+	}
+	for i := range rng.IntN(5) {
+		pl.Trees = append(pl.Trees, TreeMark{ID: fmt.Sprintf("tree-%d", i+1), X: -8 + rng.Float64()*(wM+16), Y: -8 + rng.Float64()*4,
+			CrownRadiusM: 1 + 3*rng.Float64()})
+	}
+	return pl
+}
+
+// TestPlanLabelsRandomRoofs: on seeded roofs from bare to crowded (up to 60 blocks), the
+// plan's texts never overlap nor leave the drawing, and every object is named or keyed.
+func TestPlanLabelsRandomRoofs(t *testing.T) {
+	for seed := range uint64(24) {
+		pl := randomRoof(seed, int(seed*seed)%61)
+		t.Run(fmt.Sprintf("seed %d, %d blocks", seed, len(pl.Blocks)), func(t *testing.T) {
+			p, lay := planChart(pl, planW, planH)
+			dc := p.DataCanvas(draw.NewCanvas(&recorder.Canvas{}, planW, planH))
+			for i, a := range lay.boxes {
+				if a.Min.X < dc.Min.X-overlapTol || a.Min.Y < dc.Min.Y-overlapTol || a.Max.X > dc.Max.X+overlapTol || a.Max.Y > dc.Max.Y+overlapTol {
+					t.Errorf("%q at %v runs off the drawing %v", lay.texts[i].text, a, dc.Rectangle)
+				}
+				for j := i + 1; j < len(lay.boxes); j++ {
+					if overlaps(grow(a, -overlapTol), grow(lay.boxes[j], -overlapTol)) {
+						t.Errorf("%q at %v overlaps %q at %v", lay.texts[i].text, a, lay.texts[j].text, lay.boxes[j])
+					}
+				}
+			}
+			shown := map[string]bool{}
+			for _, tx := range lay.texts {
+				if tx.kind == nameText || tx.kind == numberText {
+					shown[tx.id] = true
+				}
+			}
+			left := map[string]bool{}
+			for _, id := range frameOf(pl, reachM).left {
+				left[id] = true
+			}
+			for _, b := range pl.Blocks {
+				if !shown[b.ID] && !left[b.ID] {
+					t.Errorf("%s neither named nor numbered", b.ID)
+				}
+			}
+			// The key must fit the picture: the legend's rows (8 pt type) above its bottom.
+			if lr := p.Legend.Rectangle(dc); lr.Size().Y > dc.Size().Y {
+				t.Errorf("legend %v pt high, taller than the drawing's %v pt", lr.Size().Y, dc.Size().Y)
+			}
+		})
+	}
+}
