@@ -416,3 +416,46 @@ func BenchmarkParallelMax(b *testing.B) {
 		})
 	}
 }
+
+// addString adds a string's curves up, modules sharing a curve as count × curve and four
+// curves a pass, to the same integers as adding the modules' curves one by one: strings of
+// 1 to 25 modules (every remainder of the passes of four), of modules each with a curve of
+// its own and of modules sharing curves.
+func TestAddStringAsModuleSum(t *testing.T) {
+	const n, np = 30, 40
+	rng := rand.New(rand.NewPCG(12, 13))
+	y := &Year{n: n, steps: 1, modCurve: make([]int32, n)}
+	v := make([]int32, n*np)
+	for j := range v {
+		v[j] = int32(rng.IntN(1<<26)) - 1<<25 // module voltages of either sign, to ±32 V
+	}
+	y.adoptCurves(v, np)
+	for _, tc := range []struct {
+		name   string
+		curves int // distinct curves among the n modules
+	}{
+		{"a curve a module", n},
+		{"modules sharing curves", 4},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			for k := range n {
+				y.modCurve[k] = int32(k % tc.curves)
+			}
+			var pr []curveCount
+			for size := 1; size <= 25; size++ {
+				str := rng.Perm(n)[:size]
+				got := make([]int64, np)
+				pr = y.addString(got, 0, str, pr)
+				want := make([]int64, np)
+				for _, k := range str {
+					for p, x := range y.curve(y.modCurve[k], np) {
+						want[p] += int64(x)
+					}
+				}
+				if !slices.Equal(got, want) {
+					t.Fatalf("string of %d modules: sums differ from the modules' curves added one by one", size)
+				}
+			}
+		})
+	}
+}

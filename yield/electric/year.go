@@ -1062,6 +1062,11 @@ func (y *Year) addPairs(sum []int64, pr []curveCount) {
 	j := 0
 	for ; j+4 <= len(pr); j += 4 {
 		p := pr[j : j+4]
+		if p[0].n == 1 && p[1].n == 1 && p[2].n == 1 && p[3].n == 1 {
+			// Modules with curves of their own, as on a large roof: no multiplications.
+			addCurves4Once(sum, y.curve(p[0].c, np), y.curve(p[1].c, np), y.curve(p[2].c, np), y.curve(p[3].c, np))
+			continue
+		}
 		addCurves4(sum, y.curve(p[0].c, np), y.curve(p[1].c, np), y.curve(p[2].c, np), y.curve(p[3].c, np),
 			int64(p[0].n), int64(p[1].n), int64(p[2].n), int64(p[3].n))
 	}
@@ -1121,6 +1126,15 @@ func addCurves2(sum []int64, a, b []int32, fa, fb int64) {
 	a, b = a[:n], b[:n]
 	for k := range sum {
 		sum[k] += int64(a[k])*fa + int64(b[k])*fb
+	}
+}
+
+// addCurves4Once is addCurves4 with every curve taken once.
+func addCurves4Once(sum []int64, a, b, c, d []int32) {
+	n := len(sum)
+	a, b, c, d = a[:n], b[:n], c[:n], d[:n]
+	for k := range sum {
+		sum[k] += int64(a[k]) + int64(b[k]) + int64(c[k]) + int64(d[k])
 	}
 }
 
