@@ -527,8 +527,9 @@ func connected(pl *Plan) []bool {
 const legendFrac = 0.3
 
 // planFrame sets the fitted frame on the plot (equal scales on both axes) and draws the
-// north arrow and the scale bar; it returns their texts, which the names keep clear of.
-func planFrame(p *plot.Plot, f framed) []*plotter.Labels {
+// north arrow and the scale bar; it returns their texts and, as data boxes (x0, y0, x1, y1),
+// the bar and the arrow, which the names keep clear of.
+func planFrame(p *plot.Plot, f framed) ([]*plotter.Labels, [][4]float64) {
 	p.HideAxes()
 	p.BackgroundColor = white
 	minX, maxX, minY, maxY := f.minX, f.maxX, f.minY, f.maxY
@@ -553,7 +554,8 @@ func planFrame(p *plot.Plot, f framed) []*plotter.Labels {
 	shaft.LineStyle.Width, shaft.LineStyle.Color = vg.Points(1.2), Ink
 	p.Add(shaft)
 	north := addLabels(p, plotter.XYs{{X: ax - 0.02*dx, Y: ay + al/2}}, []string{"N"}, 9, Ink, text.XRight, text.YCenter)
-	return []*plotter.Labels{scale, north}
+	marks := [][4]float64{{x0, y0, x0 + L, y0 + 0.012*dy}, {ax - 0.012*dx, ay, ax + 0.012*dx, ay + al}}
+	return []*plotter.Labels{scale, north}, marks
 }
 
 // niceLength returns the largest of 1, 2, 5 × 10ⁿ metres not above x.
@@ -707,7 +709,8 @@ func planChart(pl *Plan, w, h vg.Length) (*plot.Plot, planLayout) {
 		p.Legend.Add(label, swatch(sunColours[k], nil, nil))
 	}
 	obstacleLegend(pl, p, f, unconnected)
-	fixed = append(fixed, planFrame(p, f)...)
+	frame, marks := planFrame(p, f)
+	fixed = append(fixed, frame...)
 
 	grid := len(xy) > 0 && lines == 0
 	title := func(lay planLayout, keyLine bool) string {
@@ -722,22 +725,22 @@ func planChart(pl *Plan, w, h vg.Length) (*plot.Plot, planLayout) {
 		}
 		return t + leftOut(f)
 	}
-	return p, finishPlan(p, w, h, pl, names, fixed, grid, title)
+	return p, finishPlan(p, w, h, pl, names, fixed, marks, grid, title)
 }
 
 // finishPlan lays out a plan's names and numbers (layoutPlan), titles it and adds them
 // and the key of numbered objects. title gives the title for a layout, with the line on
 // numbered objects when keyLine.
-func finishPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed []*plotter.Labels, grid bool, title func(lay planLayout, keyLine bool) string) planLayout {
+func finishPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed []*plotter.Labels, marks [][4]float64, grid bool, title func(lay planLayout, keyLine bool) string) planLayout {
 	// The title's lines take from the drawing's height: lay out with the lines it will have.
 	styleTitle(p, title(planLayout{}, false))
-	lay := layoutPlan(p, w, h, pl, names, fixed, grid)
+	lay := layoutPlan(p, w, h, pl, names, fixed, marks, grid)
 	keyLine := len(lay.keyed) > 0
 	if keyLine {
 		// The line stays even if the smaller drawing happens to fit every name: it still
 		// says how names are shown.
 		p.Title.Text = title(planLayout{}, true)
-		lay = layoutPlan(p, w, h, pl, names, fixed, grid)
+		lay = layoutPlan(p, w, h, pl, names, fixed, marks, grid)
 	}
 	p.Title.Text = title(lay, keyLine)
 	p.Add(&planTexts{texts: lay.texts})
@@ -896,7 +899,8 @@ func stringsChart(pl *Plan, w, h vg.Length) (*plot.Plot, planLayout) {
 	}
 	fixed = append(fixed, wiring...)
 	obstacleLegend(pl, p, f, unconnected)
-	fixed = append(fixed, planFrame(p, f)...)
+	frame, marks := planFrame(p, f)
+	fixed = append(fixed, frame...)
 	grid := lines == 0 && len(pl.Modules) > 0
 	title := func(lay planLayout, keyLine bool) string {
 		t := "Strings of the chosen layout, in wiring order\n" + WiringCaution
@@ -908,7 +912,7 @@ func stringsChart(pl *Plan, w, h vg.Length) (*plot.Plot, planLayout) {
 		}
 		return t
 	}
-	return p, finishPlan(p, w, h, pl, names, fixed, grid, title)
+	return p, finishPlan(p, w, h, pl, names, fixed, marks, grid, title)
 }
 
 // moduleSides returns the first module's short and long side, metres.

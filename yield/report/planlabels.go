@@ -70,7 +70,8 @@ type planLayout struct {
 	keyed []string
 	// rowsThinned and colsThinned report whether some rows or columns went unnumbered.
 	rowsThinned, colsThinned bool
-	legend                   vg.Rectangle // kept free for the legend, points
+	legend                   vg.Rectangle   // kept free for the legend, points
+	frame                    []vg.Rectangle // the scale bar and the north arrow, points
 }
 
 // Type sizes of the plan's texts, points.
@@ -183,8 +184,9 @@ func addKey(p *plot.Plot, keyed []string, w, h vg.Length) {
 // their objects, clear of every other text, of the blocks and of the legend, and clear of
 // the modules where they can be. An object whose name finds no room gets a number on or
 // beside it instead, which the legend's key names. fixed are texts already on the plot
-// (the modules' labels, the scale bar's) that the layout keeps clear of.
-func layoutPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed []*plotter.Labels, grid bool) planLayout {
+// (the modules' labels, the scale bar's) and marks the data boxes (x0, y0, x1, y1) of the
+// scale bar and the north arrow, which the layout keeps clear of.
+func layoutPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed []*plotter.Labels, marks [][4]float64, grid bool) planLayout {
 	full := draw.NewCanvas(&recorder.Canvas{}, w, h)
 	dc := p.DataCanvas(full)
 	trX, trY := p.Transforms(&dc)
@@ -206,6 +208,11 @@ func layoutPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed 
 	out.legend = lr
 	board.hard = append(board.hard, occupied{r: lr})
 
+	for _, m := range marks {
+		r := vg.Rectangle{Min: pt(m[0], m[1]), Max: pt(m[2], m[3])}
+		board.hard = append(board.hard, occupied{r: r})
+		out.frame = append(out.frame, r)
+	}
 	for _, l := range fixed {
 		for i, s := range l.Labels {
 			at := pt(l.XYs[i].X, l.XYs[i].Y).Add(l.Offset)

@@ -102,7 +102,7 @@ var planCases = []struct {
 const overlapTol = 0.01
 
 // TestPlanLabelsApart: no name or number of the plans is drawn over another, over the
-// legend's column or off the picture.
+// legend's column, the scale bar or the north arrow, or off the picture.
 func TestPlanLabelsApart(t *testing.T) {
 	for _, tc := range planCases {
 		t.Run(tc.name, func(t *testing.T) {
@@ -117,6 +117,11 @@ func TestPlanLabelsApart(t *testing.T) {
 				}
 				if overlaps(grow(a, -overlapTol), lay.legend) {
 					t.Errorf("%q at %v is in the legend's column %v", lay.texts[i].text, a, lay.legend)
+				}
+				for _, f := range lay.frame {
+					if overlaps(grow(a, -overlapTol), f) {
+						t.Errorf("%q at %v is over the scale bar or north arrow at %v", lay.texts[i].text, a, f)
+					}
 				}
 				for j := i + 1; j < len(lay.boxes); j++ {
 					if overlaps(grow(a, -overlapTol), grow(lay.boxes[j], -overlapTol)) {
@@ -403,5 +408,35 @@ func TestPlanLabelsRandomRoofs(t *testing.T) {
 				t.Errorf("legend %v pt high, taller than the drawing's %v pt", lr.Size().Y, dc.Size().Y)
 			}
 		})
+	}
+}
+
+// TestPlanNamesClearOfFrameMarks: a name keeps off the scale bar and the north arrow. The
+// fitted frame keeps a margin for them under the drawing, so no roof here puts a name there
+// by itself: the test puts a mark where the tree's name would go, just under its trunk.
+func TestPlanNamesClearOfFrameMarks(t *testing.T) {
+	pl := houseLike()
+	p := plot.New()
+	f, names := planBase(pl, p, planW, planH, reachM)
+	planFrame(p, f)
+	styleTitle(p, "Roof plan\nsubtitle")
+	tr := pl.Trees[0]
+	mark := [4]float64{tr.X - 1, tr.Y - 1.5, tr.X + 1, tr.Y - 0.3}
+	lay := layoutPlan(p, planW, planH, pl, names, nil, [][4]float64{mark}, false)
+	if len(lay.frame) != 1 {
+		t.Fatalf("%d marks kept clear of, want 1", len(lay.frame))
+	}
+	found := false
+	for i, tx := range lay.texts {
+		if tx.id != tr.ID {
+			continue
+		}
+		found = true
+		if overlaps(grow(lay.boxes[i], -overlapTol), lay.frame[0]) {
+			t.Errorf("%q at %v is over the mark at %v", tx.text, lay.boxes[i], lay.frame[0])
+		}
+	}
+	if !found {
+		t.Errorf("%s not named", tr.ID)
 	}
 }
