@@ -764,6 +764,22 @@ func gridNote(lay planLayout) string {
 	return "rows numbered beside each face, columns below it"
 }
 
+// planPictureW and planPictureH are the size of the plan and strings pictures in the
+// documents and the PNGs.
+const (
+	planPictureW = 16 * vg.Centimeter
+	planPictureH = 13 * vg.Centimeter
+)
+
+// modulesLabelled reports whether the plan chart of a w×h picture writes each module's
+// row.column on it (else it numbers the rows and columns beside the faces).
+func modulesLabelled(pl *Plan, w, h vg.Length) bool {
+	f := frameOf(pl, reachM)
+	f.fit(w, h, legendFrac)
+	_, lines := moduleLabelSize(pl, f)
+	return lines > 0
+}
+
 // moduleLabelSize picks the largest type, 6 pt down to 4 pt, at which the plan's module
 // labels fit their modules: two lines (id and shade) when they fit, else the id alone
 // (lines 1), else none (lines 0).

@@ -440,3 +440,35 @@ func TestPlanNamesClearOfFrameMarks(t *testing.T) {
 		t.Errorf("%s not named", tr.ID)
 	}
 }
+
+// TestProposalSaysHowToFindModules: the proposal tells the homeowner where the most shaded
+// modules' ids are: written on the modules when the plan has room for them, else read from
+// the row and column numbers beside the faces.
+func TestProposalSaysHowToFindModules(t *testing.T) {
+	for _, tc := range []struct {
+		name     string
+		treeX    float64 // the fixture's tree, this far east of the roof, m
+		want     string
+		labelled bool
+	}{
+		{"modules large enough for their ids", -3, "the module ids are written on the roof plan", true},
+		{"a far tree: rows and columns numbered", 40, "the roof plan numbers the rows beside each face", false},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			pr := fixture("file")
+			pr.Plan.Trees = []TreeMark{{ID: "far", X: tc.treeX, Y: -20, CrownRadiusM: 3}}
+			pr.fillPlan()
+			if got := modulesLabelled(pr.Plan, planPictureW, planPictureH); got != tc.labelled {
+				t.Fatalf("modules labelled %v, want %v", got, tc.labelled)
+			}
+			b, err := pr.PDF()
+			if err != nil {
+				t.Fatal(err)
+			}
+			txt := strings.Join(strings.Fields(pdfText(t, b)), " ")
+			if !strings.Contains(txt, tc.want) {
+				t.Errorf("proposal does not say %q", tc.want)
+			}
+		})
+	}
+}

@@ -93,10 +93,10 @@ func (pr *Proposal) Charts() []Chart {
 	var cs []Chart
 	wide := 16 * vg.Centimeter
 	if pr.Plan != nil && len(pr.Plan.Modules) > 0 {
-		h := 13 * vg.Centimeter
-		cs = append(cs, Chart{"plan", PlanChart(pr.Plan, wide, h), wide, h})
+		w, h := planPictureW, planPictureH
+		cs = append(cs, Chart{"plan", PlanChart(pr.Plan, w, h), w, h})
 		if len(pr.Plan.Strings) > 0 {
-			cs = append(cs, Chart{"strings", StringsChart(pr.Plan, wide, h), wide, h})
+			cs = append(cs, Chart{"strings", StringsChart(pr.Plan, w, h), w, h})
 		}
 	}
 	if pr.SunPath != nil {
@@ -264,7 +264,12 @@ func (pr *Proposal) monthsAndShade(d *pdfDoc, charts map[string][]byte) {
 		for _, m := range ms[:min(3, len(ms))] {
 			worst = append(worst, fmt.Sprintf("%s (%s of its light)", m.ID, Pct(m.ShadeLossPct)))
 		}
-		d.para("The modules that lose most are " + strings.Join(worst, ", ") + "; the module ids are written on the roof plan.")
+		where := "; the module ids are written on the roof plan."
+		if pr.Plan != nil && !modulesLabelled(pr.Plan, planPictureW, planPictureH) {
+			// Modules drawn too small for their ids: the plan numbers rows and columns.
+			where = "; their ids read face.row.column, and the roof plan numbers the rows beside each face and the columns below it."
+		}
+		d.para("The modules that lose most are " + strings.Join(worst, ", ") + where)
 	}
 	if charts["sunpath"] != nil {
 		sp := pr.SunPath
