@@ -442,17 +442,19 @@ func TestPlanNamesClearOfFrameMarks(t *testing.T) {
 }
 
 // TestProposalSaysHowToFindModules: the proposal tells the homeowner where the most shaded
-// modules' ids are: written on the modules when the plan has room for them, else read from
-// the row and column numbers beside the faces.
+// modules' ids are, and the technical sheet how the plan shows ids: written on the modules
+// when the plan has room for them, else read from the row and column numbers beside the
+// faces.
 func TestProposalSaysHowToFindModules(t *testing.T) {
 	for _, tc := range []struct {
 		name     string
 		treeX    float64 // the fixture's tree, this far east of the roof, m
-		want     string
+		want     string  // in the proposal
+		sheet    string  // in the technical sheet
 		labelled bool
 	}{
-		{"modules large enough for their ids", -3, "the module ids are written on the roof plan", true},
-		{"a far tree: rows and columns numbered", 40, "the roof plan numbers the rows beside each face", false},
+		{"modules large enough for their ids", -3, "the module ids are written on the roof plan", "the drawings write row.column on each module", true},
+		{"a far tree: rows and columns numbered", 40, "the roof plan numbers the rows beside each face", "the drawings number the rows beside each face", false},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			pr := fixture("file")
@@ -468,6 +470,13 @@ func TestProposalSaysHowToFindModules(t *testing.T) {
 			txt := strings.Join(strings.Fields(pdfText(t, b)), " ")
 			if !strings.Contains(txt, tc.want) {
 				t.Errorf("proposal does not say %q", tc.want)
+			}
+			if b, err = pr.TechnicalPDF(); err != nil {
+				t.Fatal(err)
+			}
+			txt = strings.Join(strings.Fields(pdfText(t, b)), " ")
+			if !strings.Contains(txt, tc.sheet) {
+				t.Errorf("technical sheet does not say %q", tc.sheet)
 			}
 		})
 	}

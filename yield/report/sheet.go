@@ -22,7 +22,11 @@ func (pr *Proposal) TechnicalPDF() ([]byte, error) {
 	pr.system(d)
 	pr.checks(d)
 	if charts["plan"] != nil {
-		d.heading("Roof plan and strings", "Module ids are <face>.<row>.<column>: row 1 at the eave, column 1 at the left seen from below the eave; the drawings write row.column on each module and the face's id beside it. The first drawing colours each module by the sunlight it gets in a year, with the share lost to shade; the second shows the chosen strings in wiring order.")
+		labels := "the drawings write row.column on each module and the face's id beside it."
+		if !modulesLabelled(pr.Plan, planPictureW, planPictureH) {
+			labels = "the modules are drawn too small for their row.column, so the drawings number the rows beside each face and the columns below it, and write the face's id beside it."
+		}
+		d.heading("Roof plan and strings", "Module ids are <face>.<row>.<column>: row 1 at the eave, column 1 at the left seen from below the eave; "+labels+" The first drawing colours each module by the sunlight it gets in a year, with the share lost to shade; the second shows the chosen strings in wiring order. Chimneys, trees and other objects are named beside them where the names fit, else numbered, the legend naming each number.")
 		// Both drawings on one page.
 		d.image("plan", charts["plan"], 0.74)
 		if charts["strings"] != nil {
