@@ -233,9 +233,17 @@ func layoutPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed 
 		board.soft = append(board.soft, occupied{r: r})
 		modules = append(modules, r)
 	}
-	// A name over a module gets a light box behind it, to read over the module's colour.
+	// A name over a module or across a face's outline gets a light box behind it, to read
+	// over the module's colour and not be struck through by the line.
+	var edges [][2]vg.Point
+	for _, fc := range pl.Faces {
+		for k := 1; k < len(fc.Ring); k++ {
+			edges = append(edges, [2]vg.Point{pt(fc.Ring[k-1][0], fc.Ring[k-1][1]), pt(fc.Ring[k][0], fc.Ring[k][1])})
+		}
+	}
 	overModule := func(r vg.Rectangle) bool {
-		return slices.ContainsFunc(modules, func(m vg.Rectangle) bool { return overlaps(m, r) })
+		return slices.ContainsFunc(modules, func(m vg.Rectangle) bool { return overlaps(m, r) }) ||
+			slices.ContainsFunc(edges, func(e [2]vg.Point) bool { return crosses(e[0], e[1], r) })
 	}
 	// Objects: blocks stay in sight (hard), tree trunks too; crowns and avoid areas are soft.
 	// Owners are 1-based indices into names.
@@ -448,6 +456,36 @@ func layoutPlan(p *plot.Plot, w, h vg.Length, pl *Plan, names []planName, fixed 
 		add(placedText{kind: numberText, id: n.id, text: num, sty: nsty, at: anchor, lead: lead}, centres[j])
 	}
 	return out
+}
+
+// crosses reports whether the segment ab passes through the rectangle r (clipped to it,
+// Liang–Barsky, by the parameter range the segment spends inside each slab).
+func crosses(a, b vg.Point, r vg.Rectangle) bool {
+	t0, t1 := 0.0, 1.0
+	for _, s := range [][3]float64{
+		{float64(a.X), float64(b.X - a.X), 0}, {float64(a.Y), float64(b.Y - a.Y), 1},
+	} {
+		lo, hi := float64(r.Min.X), float64(r.Max.X)
+		if s[2] == 1 {
+			lo, hi = float64(r.Min.Y), float64(r.Max.Y)
+		}
+		p, d := s[0], s[1]
+		if d == 0 {
+			if p < lo || p > hi {
+				return false
+			}
+			continue
+		}
+		u0, u1 := (lo-p)/d, (hi-p)/d
+		if u0 > u1 {
+			u0, u1 = u1, u0
+		}
+		t0, t1 = math.Max(t0, u0), math.Min(t1, u1)
+		if t0 > t1 {
+			return false
+		}
+	}
+	return true
 }
 
 // distTo is the distance from p to the rectangle r (0 inside it), points.

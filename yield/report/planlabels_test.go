@@ -481,3 +481,28 @@ func TestProposalSaysHowToFindModules(t *testing.T) {
 		})
 	}
 }
+
+// TestCrosses: a segment crosses a rectangle when part of it lies inside; hand-drawn cases
+// around the unit square.
+func TestCrosses(t *testing.T) {
+	sq := vg.Rectangle{Max: vg.Point{X: 1, Y: 1}}
+	for _, tc := range []struct {
+		name string
+		a, b vg.Point
+		want bool
+	}{
+		{"through the middle", vg.Point{X: -1, Y: 0.5}, vg.Point{X: 2, Y: 0.5}, true},
+		{"diagonal across", vg.Point{X: -1, Y: -1}, vg.Point{X: 2, Y: 2}, true},
+		{"inside", vg.Point{X: 0.2, Y: 0.2}, vg.Point{X: 0.8, Y: 0.3}, true},
+		{"above", vg.Point{X: -1, Y: 1.5}, vg.Point{X: 2, Y: 1.5}, false},
+		{"stops short", vg.Point{X: -2, Y: 0.5}, vg.Point{X: -0.1, Y: 0.5}, false},
+		{"past the corner", vg.Point{X: 0.5, Y: 2}, vg.Point{X: 2, Y: 0.5}, false},
+		{"vertical through", vg.Point{X: 0.5, Y: -1}, vg.Point{X: 0.5, Y: 2}, true},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			if got := crosses(tc.a, tc.b, sq); got != tc.want {
+				t.Errorf("crosses %v", got)
+			}
+		})
+	}
+}
