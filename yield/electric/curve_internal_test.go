@@ -167,17 +167,23 @@ func BenchmarkParallel(b *testing.B) {
 	})
 }
 
+// curveYear is a year of one step and n modules whose n curves of np points are random
+// voltages from lo to lo + 2²⁶ units of voltQuantum (64 V), module k's curve not yet set.
+func curveYear(rng *rand.Rand, n, np int, lo int32) *Year {
+	y := &Year{n: n, steps: 1, modCurve: make([]int32, n)}
+	v := make([]int32, n*np)
+	for j := range v {
+		v[j] = lo + int32(rng.IntN(1<<26))
+	}
+	y.adoptCurves(v, np)
+	return y
+}
+
 // BenchmarkAddString adds a string of 22 modules with curves of their own at one step of 80
 // points, as a layout's first evaluation does at every step.
 func BenchmarkAddString(b *testing.B) {
 	const n, np = 22, 80
-	rng := rand.New(rand.NewPCG(4, 4))
-	y := &Year{n: n, steps: 1, modCurve: make([]int32, n)}
-	v := make([]int32, n*np)
-	for j := range v {
-		v[j] = int32(rng.IntN(1 << 25))
-	}
-	y.adoptCurves(v, np)
+	y := curveYear(rand.New(rand.NewPCG(4, 4)), n, np, 0)
 	for k := range n {
 		y.modCurve[k] = int32(k)
 	}
@@ -424,12 +430,7 @@ func BenchmarkParallelMax(b *testing.B) {
 func TestAddStringAsModuleSum(t *testing.T) {
 	const n, np = 30, 40
 	rng := rand.New(rand.NewPCG(12, 13))
-	y := &Year{n: n, steps: 1, modCurve: make([]int32, n)}
-	v := make([]int32, n*np)
-	for j := range v {
-		v[j] = int32(rng.IntN(1<<26)) - 1<<25 // module voltages of either sign, to ±32 V
-	}
-	y.adoptCurves(v, np)
+	y := curveYear(rng, n, np, -1<<25) // module voltages of either sign, to ±32 V
 	for _, tc := range []struct {
 		name   string
 		curves int // distinct curves among the n modules
