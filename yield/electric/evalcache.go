@@ -504,7 +504,7 @@ type stringYear struct {
 
 	once  sync.Once
 	ready atomic.Bool
-	v     []int64 // the year's voltages, once ready; never written after
+	v     []int32 // the year's voltages, once ready (see narrow); never written after
 }
 
 // nominalBytes is what a kept string costs besides its voltages.
@@ -514,7 +514,7 @@ const nominalBytes = 256
 // module add and less module sub (−1: none); a nil v: add the string up, or read it from near
 // where that is cheaper.
 type stringRecipe struct {
-	v        []int64
+	v        []int32
 	add, sub int
 	near     *nearYear
 	// parent is the kept string this one is (padd and psub −1) or differs from by module padd
@@ -522,6 +522,20 @@ type stringRecipe struct {
 	// built; nil: none.
 	parent     *stringYear
 	padd, psub int
+}
+
+// narrow writes the sums into v, held in int32, and reports whether each fits: a string's
+// voltage in units of voltQuantum fits for strings up to 2048 V, more than any system's
+// voltage allows. A string that does not fit is not kept, and is added up each time.
+func narrow(v []int32, sums []int64) bool {
+	v = v[:len(sums)]
+	for k, x := range sums {
+		if x != int64(int32(x)) {
+			return false
+		}
+		v[k] = int32(x)
+	}
+	return true
 }
 
 // nearYear reads a string from a built one several modules away: the built string's year
@@ -728,33 +742,42 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int, near *nearYear) {
 	sy.once.Do(func() {
 		did = true
 		y := sy.y
-		v := make([]int64, len(y.gridI))
-		fromBase := base != nil && base.ready.Load()
+		v := make([]int32, len(y.gridI))
+		fromBase := base != nil && base.ready.Load() && base.v != nil
+		var fits atomic.Bool
+		fits.Store(true)
 		// Every step on its own: runs of steps on all cores, as readers wait for the year.
 		y.eachPart(func(lo, hi int) {
 			var pr, dp []curveCount
+			var sum []int64
 			for s := lo; s < hi; s++ {
 				off, np := int(y.gridOff[s]), int(y.gridOff[s+1]-y.gridOff[s])
 				row := s * y.n
-				if !fromBase && near != nil {
-					pr, dp = y.addNear(v[off:off+np], off, row, sy.mods, near, pr, dp)
-					continue
+				sum = growInt64(sum, np)
+				switch {
+				case !fromBase && near != nil:
+					pr, dp = y.addNear(sum, off, row, sy.mods, near, pr, dp)
+				case !fromBase:
+					clear(sum)
+					pr = y.addString(sum, row, sy.mods, pr)
+				default:
+					var a, b []int32
+					if add >= 0 {
+						a = y.curve(y.modCurve[row+add], np)
+					}
+					if sub >= 0 {
+						b = y.curve(y.modCurve[row+sub], np)
+					}
+					plusMinus(sum, base.v[off:off+np], a, b)
 				}
-				if !fromBase {
-					pr = y.addString(v[off:off+np], row, sy.mods, pr)
-					continue
+				if !narrow(v[off:off+np], sum) {
+					fits.Store(false)
 				}
-				var a, b []int32
-				if add >= 0 {
-					a = y.curve(y.modCurve[row+add], np)
-				}
-				if sub >= 0 {
-					b = y.curve(y.modCurve[row+sub], np)
-				}
-				plusMinus(v[off:off+np], base.v[off:off+np], a, b)
 			}
 		})
-		sy.v = v
+		if fits.Load() {
+			sy.v = v
+		}
 		sy.ready.Store(true)
 	})
 	if !did {
@@ -763,9 +786,9 @@ func (c *EvalCache) build(sy, base *stringYear, add, sub int, near *nearYear) {
 	c.mu.Lock()
 	defer c.mu.Unlock()
 	c.strs.built++
-	if c.strs.byKey[stringKey{sy.y, sy.key}] == sy && !sy.counted {
+	if c.strs.byKey[stringKey{sy.y, sy.key}] == sy && !sy.counted && sy.v != nil {
 		sy.counted = true
-		c.strs.bytes += int64(len(sy.v)) * 8
+		c.strs.bytes += int64(len(sy.v)) * 4
 		c.strs.index(sy)
 		c.trimStrings()
 	}
@@ -899,7 +922,7 @@ func (c *EvalCache) dropString(e *stringYear) {
 	delete(cs.byKey, stringKey{e.y, e.key})
 	cs.bytes -= nominalBytes
 	if e.counted {
-		cs.bytes -= int64(len(e.v)) * 8
+		cs.bytes -= int64(len(e.v)) * 4
 	}
 	var buf []byte
 	for j := range e.mods {

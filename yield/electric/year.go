@@ -820,7 +820,7 @@ type evalScratch struct {
 	pairs [][]curveCount // per string of an input
 	delta []curveCount   // addNear's curves in and out
 	isums [][]int64      // per string: voltage sums on the step grid (voltQuantum)
-	src   [][]int64      // per string: its sums, in isums or read in place from a kept year
+	src   [][]int64      // per string: its sums (isums)
 	sums  [][]float64    // per string: the same in volts
 	is    [][]float64
 	gi    []float64
@@ -942,8 +942,10 @@ func (y *Year) stringSums(sc *evalScratch, s int, in [][]int, strs []stringRecip
 		if strs != nil && strs[b].v != nil {
 			r := strs[b]
 			pv := r.v[off : off+np]
+			sc.isums[b] = growInt64(sc.isums[b], np)
 			if r.add < 0 && r.sub < 0 {
-				sc.src[b] = pv // a kept string as it is: read in place
+				widen(sc.isums[b], pv) // a kept string as it is
+				sc.src[b] = sc.isums[b]
 				continue
 			}
 			var add, sub []int32
@@ -953,7 +955,6 @@ func (y *Year) stringSums(sc *evalScratch, s int, in [][]int, strs []stringRecip
 			if r.sub >= 0 {
 				sub = y.curve(y.modCurve[row+r.sub], np)
 			}
-			sc.isums[b] = growInt64(sc.isums[b], np)
 			plusMinus(sc.isums[b], pv, add, sub)
 			sc.src[b] = sc.isums[b]
 			continue
@@ -1002,29 +1003,37 @@ func (sc *evalScratch) inputPolyline(ns int, same bool) ([]float64, []float64) {
 	return sc.m.parallel(sc.is[:ns], sc.sums[:ns])
 }
 
+// widen writes the kept voltages v into sum.
+func widen(sum []int64, v []int32) {
+	v = v[:len(sum)]
+	for k, x := range v {
+		sum[k] = int64(x)
+	}
+}
+
 // plusMinus writes pv plus the curve add less the curve sub (either may be nil) into dst, in
 // units of voltQuantum: one pass where a copy and two additions would take three.
-func plusMinus(dst, pv []int64, add, sub []int32) {
+func plusMinus(dst []int64, pv, add, sub []int32) {
 	n := len(pv)
 	dst = dst[:n]
 	switch {
 	case add != nil && sub != nil:
 		add, sub = add[:n], sub[:n]
 		for k, x := range pv {
-			dst[k] = x + int64(add[k]) - int64(sub[k])
+			dst[k] = int64(x) + int64(add[k]) - int64(sub[k])
 		}
 	case add != nil:
 		add = add[:n]
 		for k, x := range pv {
-			dst[k] = x + int64(add[k])
+			dst[k] = int64(x) + int64(add[k])
 		}
 	case sub != nil:
 		sub = sub[:n]
 		for k, x := range pv {
-			dst[k] = x - int64(sub[k])
+			dst[k] = int64(x) - int64(sub[k])
 		}
 	default:
-		copy(dst, pv)
+		widen(dst, pv)
 	}
 }
 
@@ -1115,7 +1124,7 @@ func (y *Year) addNear(sum []int64, off, row int, str []int, near *nearYear, pr,
 			return pr, dp
 		}
 	}
-	copy(sum, near.from.v[off:off+len(sum)])
+	widen(sum, near.from.v[off:off+len(sum)])
 	y.addPairs(sum, dp)
 	return pr, dp
 }
