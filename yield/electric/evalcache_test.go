@@ -164,6 +164,21 @@ func sameAsFresh(t *testing.T, y *Year, l Layout, opt EvalOptions, c *EvalCache)
 	}
 }
 
+// namedLayout is one of the layouts a test evaluates in turn through one cache.
+type namedLayout struct {
+	name string
+	l    Layout
+}
+
+// sameAsFreshInTurn evaluates the layouts in order through the cache c, each against a fresh
+// evaluation (sameAsFresh): what each reads from the cache depends on those before it.
+func sameAsFreshInTurn(t *testing.T, y *Year, opt EvalOptions, c *EvalCache, ls []namedLayout) {
+	t.Helper()
+	for _, nl := range ls {
+		t.Run(nl.name, func(t *testing.T) { sameAsFresh(t, y, nl.l, opt, c) })
+	}
+}
+
 // A string one module away from a kept one (a module swapped, moved in or moved out) is read
 // from it by adding and taking away single modules' curves: whole units of voltQuantum add
 // exactly, so the result is the bit-for-bit result of adding the string up afresh, however
@@ -182,10 +197,7 @@ func TestEvaluateCachedNearStrings(t *testing.T) {
 	out := cloneLayout(move)
 	out.Inputs[1][1] = out.Inputs[1][1][:19]
 	var c EvalCache
-	for _, tc := range []struct {
-		name string
-		l    Layout
-	}{
+	sameAsFreshInTurn(t, y, EvalOptions{}, &c, []namedLayout{
 		{"base", base},
 		{"two modules swapped between strings", swap},
 		{"two other modules swapped", swap2},
@@ -193,9 +205,7 @@ func TestEvaluateCachedNearStrings(t *testing.T) {
 		{"a module left out", out},
 		{"base again", base},
 		{"first swap again", swap},
-	} {
-		t.Run(tc.name, func(t *testing.T) { sameAsFresh(t, y, tc.l, EvalOptions{}, &c) })
-	}
+	})
 	// The second swap reads both its strings from the base's, built once asked for twice.
 	if built, near := c.StringStats(); built == 0 || near < 2 {
 		t.Errorf("%d strings' years built, %d strings read from a parent: the cache read none from a near string", built, near)
@@ -235,18 +245,13 @@ func TestEvaluateCachedFarStrings(t *testing.T) {
 	short := cloneLayout(base)
 	short.Inputs[1][2] = short.Inputs[1][2][:16]
 	var c EvalCache
-	for _, tc := range []struct {
-		name string
-		l    Layout
-	}{
+	sameAsFreshInTurn(t, y, EvalOptions{}, &c, []namedLayout{
 		{"base", base},
 		{"strings regrouped", regrouped},
 		{"strings regrouped again", regrouped2},
 		{"three modules traded", traded},
 		{"a string cut short", short},
-	} {
-		t.Run(tc.name, func(t *testing.T) { sameAsFresh(t, y, tc.l, EvalOptions{}, &c) })
-	}
+	})
 	// The two traded strings and the short one.
 	if c.strs.near != 3 {
 		t.Errorf("%d strings read from a built string several modules away, want 3", c.strs.near)
@@ -378,18 +383,13 @@ func TestEvaluateCachedLongStrings(t *testing.T) {
 	swap3 := cloneLayout(long)
 	swap3.Inputs[0][0][20], swap3.Inputs[1][0][30] = swap3.Inputs[1][0][30], swap3.Inputs[0][0][20]
 	var c EvalCache
-	for _, tc := range []struct {
-		name string
-		l    Layout
-	}{
+	sameAsFreshInTurn(t, y, EvalOptions{}, &c, []namedLayout{
 		{"first", long},
 		{"a swap", swap},
 		{"another swap: the long strings asked for twice", swap2},
 		{"a third swap, read from the long strings were they kept", swap3},
 		{"the first again", long},
-	} {
-		t.Run(tc.name, func(t *testing.T) { sameAsFresh(t, y, tc.l, EvalOptions{}, &c) })
-	}
+	})
 	built := 0
 	for _, sy := range c.strs.byKey {
 		if sy.ready.Load() {
